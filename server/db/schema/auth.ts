@@ -1,0 +1,2 @@
+// Accounts, workspaces, memberships, sessions, invitations (owned by the accounts work).
+export {};

@@ -1,0 +1,2 @@
+// Datasets and their immutable versions (owned by the data-intake work).
+export {};

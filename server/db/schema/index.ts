@@ -1,0 +1,3 @@
+// Every table, one module per area; drizzle.config.ts reads this file.
+export * from './auth';
+export * from './datasets';

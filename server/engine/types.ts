@@ -1,0 +1,134 @@
+/**
+ * The engine's public types: the contract between the numerical core and everything that calls it
+ * (CLI, fit workers, tests, benchmarks). Objectives and scalings follow ../shared/DESIGN.md exactly:
+ *
+ *   gaussian: 1/(2n) sum (y_i - b0 - x_i'b)^2 + lambda * P(b)
+ *   binomial: -(1/n) sum [y_i eta_i - log(1 + exp(eta_i))] + lambda * P(b),  eta_i = b0 + x_i'b
+ *   lasso P(b) = sum_j v_j |b_j|;  elastic net P(b) = sum_j v_j (alpha |b_j| + (1 - alpha)/2 b_j^2)
+ *   group lasso P(b) = sum_g w_g ||b_g||_2, w_g = sqrt(|g|) by default.
+ */
+
+export type Family = 'gaussian' | 'binomial';
+export type PenaltyKind = 'lasso' | 'elastic-net' | 'group-lasso';
+export type SolveStatus = 'converged' | 'iteration-limit' | 'numerical-failure';
+export type Screening = 'strong' | 'gap-safe' | 'none';
+
+/** A column as the engine receives it. Missing values: NaN (numeric) or code -1 (categorical). */
+export type EngineColumn =
+  | { name: string; kind: 'numeric'; values: Float64Array }
+  | { name: string; kind: 'categorical'; codes: Int32Array; levels: string[] };
+
+/** A table of raw columns (before encoding). Every column has nRows entries. */
+export interface EngineTable {
+  nRows: number;
+  columns: EngineColumn[];
+}
+
+/**
+ * A dense design matrix after encoding, column-major: column j is x.subarray(j * n, (j + 1) * n).
+ * `terms[j]` names column j: the predictor's name, or `column=level` for a categorical indicator.
+ */
+export interface DesignMatrix {
+  n: number;
+  p: number;
+  x: Float64Array;
+  terms: string[];
+}
+
+export interface FitSpec {
+  family: Family;
+  response: string;
+  /** Predictor column names (before encoding). */
+  predictors: string[];
+  penalty: PenaltyKind;
+  /** Elastic-net mix in (0, 1]; 1 for lasso. */
+  alpha: number;
+  /** Group lasso: group name -> column names (categorical predictors form a group on their own). */
+  groups?: Record<string, string[]>;
+  /** Per-term (or per-predictor) penalty factors v_j; default 1, 0 = unpenalized. */
+  penaltyFactors?: Record<string, number>;
+  standardize: boolean;
+  /** Explicit descending lambdas; otherwise the automatic grid below. */
+  lambda?: number[];
+  pathLength: number;
+  /** lambda_min / lambda_max; default by n vs p when absent. */
+  lambdaRatio?: number;
+  tolerance: number;
+  maxIterations: number;
+  screening: Screening;
+  /** Rows with a missing value in a used column: dropped, or mean/mode imputed. */
+  missing: 'drop' | 'impute';
+  /** Cross-validation; null for none. */
+  cv: CvSpec | null;
+}
+
+export interface CvSpec {
+  folds: number;
+  seed: number;
+  /** Integer fold ids from this column (not a predictor); overrides `folds` and `seed`. */
+  foldColumn?: string;
+}
+
+/** STYLE.md 9: every solve returns its status, gap, tolerance, iterations and time. */
+export interface SolveInfo {
+  status: SolveStatus;
+  message: string;
+  /** Duality gap relative to the null-model objective at the returned point. */
+  gap: number;
+  tolerance: number;
+  iterations: number;
+  timeMs: number;
+}
+
+export interface PathResult {
+  family: Family;
+  terms: string[];
+  lambda: number[];
+  lambdaMax: number;
+  /** Original scale, one entry per lambda. */
+  intercept: number[];
+  coefficients: Float64Array[];
+  /** Standardized scale (equal to the original scale when standardization is off). */
+  standardizedIntercept: number[];
+  standardizedCoefficients: Float64Array[];
+  solves: SolveInfo[];
+  /** Number of non-zero coefficients per lambda. */
+  nonzero: number[];
+  /** Fraction of null deviance explained per lambda. */
+  devianceRatio: number[];
+  /** Constant columns left out, rows dropped for missing values, etc. */
+  notes: string[];
+}
+
+export type CvMetricName = 'mse' | 'mae' | 'deviance' | 'misclassification' | 'auc';
+
+export interface CvCurve {
+  metric: CvMetricName;
+  mean: number[];
+  standardError: number[];
+}
+
+export interface CvResult {
+  folds: number;
+  /** The metric used for the choices: mse (gaussian) or deviance (binomial). */
+  metric: CvMetricName;
+  mean: number[];
+  standardError: number[];
+  minimum: { index: number; lambda: number };
+  oneStandardError: { index: number; lambda: number };
+  /** Every metric computed (gaussian: mse, mae; binomial: deviance, misclassification, auc). */
+  curves: CvCurve[];
+  /** Fold id (0-based) of each used row. */
+  foldIds: Int32Array;
+}
+
+/** A user-facing input error: the message names the column, row, option or value at fault. */
+export class EngineInputError extends Error {
+  constructor(
+    message: string,
+    readonly field?: string,
+  ) {
+    super(message);
+    this.name = 'EngineInputError';
+  }
+}

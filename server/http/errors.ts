@@ -1,0 +1,65 @@
+import type { ErrorRequestHandler } from 'express';
+import { ZodError } from 'zod';
+
+/** An error meant for the client: an HTTP status, a message that names the field, and the field. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+    readonly field?: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+    this.name = 'HttpError';
+  }
+}
+
+export const badRequest = (message: string, field?: string, details?: unknown) =>
+  new HttpError(400, message, field, details);
+export const unauthorized = (message = 'Sign in first.') => new HttpError(401, message);
+export const forbidden = (message = 'Your role in this workspace does not allow this.') => new HttpError(403, message);
+export const notFound = (message = 'Not found.') => new HttpError(404, message);
+export const conflict = (message: string, field?: string) => new HttpError(409, message, field);
+
+/** Turns a zod failure into a 400 naming the first offending field. */
+export function fromZod(error: ZodError, where = 'body'): HttpError {
+  const issue = error.issues[0];
+  const path = issue.path.join('.');
+  const field = path || where;
+  const message =
+    issue.code === 'unrecognized_keys'
+      ? `Unknown field${issue.keys.length > 1 ? 's' : ''} in ${where}: ${issue.keys.join(', ')}`
+      : `${field}: ${issue.message}`;
+  return new HttpError(400, message, field, error.issues);
+}
+
+interface BodyParserError extends Error {
+  type?: string;
+  status?: number;
+  limit?: number;
+}
+
+/** The last middleware: every error becomes `{ error: { message, field? } }` with a 4xx or 500. */
+export const errorHandler: ErrorRequestHandler = (err: unknown, _req, res, next) => {
+  if (res.headersSent) return next(err);
+  if (err instanceof ZodError) err = fromZod(err);
+  if (err instanceof HttpError) {
+    res.status(err.status).json({ error: { message: err.message, field: err.field } });
+    return;
+  }
+  const e = err as BodyParserError;
+  if (e?.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { message: 'The request body is not valid JSON.', field: 'body' } });
+    return;
+  }
+  if (e?.type === 'entity.too.large') {
+    res.status(413).json({ error: { message: `The request body is larger than the limit (${e.limit} bytes).`, field: 'body' } });
+    return;
+  }
+  if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500) {
+    res.status(e.status).json({ error: { message: e.message } });
+    return;
+  }
+  console.error('[lariat] unexpected error', err);
+  res.status(500).json({ error: { message: 'Something went wrong on the server. The error was logged.' } });
+};

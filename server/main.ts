@@ -1,0 +1,42 @@
+/** `npm start`'s server process: the API, the built client, and (in development) a fake SMTP server. */
+import { createApp } from './app';
+import { loadConfig } from './config';
+import type { AppContext } from './context';
+import { connectDatabase } from './db/client';
+import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
+import { createMailer } from './mail/mailer';
+import { DEMO_ACCOUNT } from './seed/demo-account';
+
+const config = loadConfig();
+const database = connectDatabase(config.DATABASE_URL);
+
+let devMailbox: FakeSmtp | undefined;
+let smtpUrl = config.LARIAT_SMTP_URL;
+if (!smtpUrl) {
+  if (config.NODE_ENV === 'production') throw new Error('LARIAT_SMTP_URL is required in production');
+  devMailbox = await startFakeSmtp(config.LARIAT_FAKE_SMTP_PORT);
+  smtpUrl = `smtp://127.0.0.1:${devMailbox.port}`;
+}
+
+const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox };
+const app = createApp(ctx);
+const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
+  const lines = [
+    '',
+    `  Lariat is running at ${config.publicUrl}`,
+    config.NODE_ENV !== 'production' ? `  Demo sign-in: ${DEMO_ACCOUNT.email} / ${DEMO_ACCOUNT.password}` : '',
+    devMailbox ? `  Outgoing e-mail is captured by a local fake SMTP server on port ${devMailbox.port} (admins: Settings > Outbox)` : '',
+    '  Press Ctrl-C to stop.',
+    '',
+  ];
+  console.log(lines.filter((l) => l !== '').join('\n'));
+});
+
+async function shutdown(): Promise<void> {
+  server.close();
+  await devMailbox?.close();
+  await database.close();
+  process.exit(0);
+}
+process.on('SIGINT', () => void shutdown());
+process.on('SIGTERM', () => void shutdown());

