@@ -1,0 +1,55 @@
+import { describe, it, expect } from 'vitest';
+import { DEFAULTS, parseFitOptions, UsageError } from '../../../server/cli/args';
+
+const base = ['--data', 'd.csv', '--response', 'y'];
+
+describe('parseFitOptions', () => {
+  it('applies the documented defaults: gaussian lasso, 100 lambdas, 10 folds', () => {
+    const o = parseFitOptions(base);
+    expect(o).toMatchObject({ data: 'd.csv', response: 'y', family: 'gaussian', penalty: 'lasso', pathLength: 100, folds: 10, standardize: true });
+    expect(o.seed).toBe(DEFAULTS.seed);
+    expect(o.predictors).toBeUndefined();
+  });
+
+  it('reads every option, in both --name value and --name=value forms', () => {
+    const o = parseFitOptions([
+      ...base, '--predictors', 'a, b,c', '--family=binomial', '--penalty', 'elastic-net', '--alpha', '0.3',
+      '--lambda', '1,0.5,0.1', '--no-standardize', '--fold-column', 'fold', '--seed', '7', '--tolerance', '1e-8',
+    ]);
+    expect(o).toMatchObject({
+      predictors: ['a', 'b', 'c'], family: 'binomial', penalty: 'elastic-net', alpha: 0.3,
+      lambda: [1, 0.5, 0.1], standardize: false, foldColumn: 'fold', seed: 7, tolerance: 1e-8,
+    });
+  });
+
+  it('takes --folds 0 as no cross-validation', () => {
+    expect(parseFitOptions([...base, '--folds', '0']).folds).toBe(0);
+  });
+
+  const bad: [string[], RegExp][] = [
+    [['--response', 'y'], /--data FILE\.csv is required/],
+    [['--data', 'd.csv'], /--response COLUMN is required/],
+    [[...base, '--famly', 'gaussian'], /unknown option --famly/],
+    [[...base, '--family', 'poisson'], /--family must be one of gaussian, binomial \(got "poisson"\)/],
+    [[...base, '--lambda', '0.1,0.5'], /--lambda values must be strictly descending; value 2 \(0\.5\)/],
+    [[...base, '--lambda', '1,x'], /--lambda value 2 \("x"\) must be a number/],
+    [[...base, '--lambda', '1', '--path-length', '5'], /--lambda cannot be combined/],
+    [[...base, '--folds', '1'], /--folds must be 0 \(no cross-validation\) or at least 2/],
+    [[...base, '--folds', '2.5'], /--folds must be an integer/],
+    [[...base, '--penalty', 'elastic-net', '--alpha', '0'], /--alpha must be in \(0, 1\]/],
+    [[...base, '--alpha', '0.5'], /--alpha applies only to --penalty elastic-net/],
+    [[...base, '--groups', 'g.json'], /--groups applies only to --penalty group-lasso/],
+    [[...base, '--lambda-ratio', '2'], /--lambda-ratio must be in \(0, 1\)/],
+    [[...base, '--tolerance', '-1'], /--tolerance must be positive/],
+    [[...base, '--seed'], /--seed needs a value/],
+    [[...base, '--data', 'e.csv'], /--data is given twice/],
+    [[...base, '--folds', '3', '--fold-column', 'f'], /--folds cannot be combined with --fold-column/],
+    [[...base, 'stray'], /unexpected argument "stray"/],
+  ];
+  for (const [argv, message] of bad) {
+    it(`rejects ${argv.slice(4).join(' ') || argv.join(' ')}`, () => {
+      expect(() => parseFitOptions(argv)).toThrow(UsageError);
+      expect(() => parseFitOptions(argv)).toThrow(message);
+    });
+  }
+});

@@ -1,0 +1,56 @@
+import { describe, it, expect } from 'vitest';
+import { parseCsvText } from '../../../server/engine/csv';
+import { EngineInputError, type EngineColumn } from '../../../server/engine/types';
+
+function column(name: string, columns: EngineColumn[]): EngineColumn {
+  const found = columns.find((c) => c.name === name);
+  if (!found) throw new Error(`no column ${name}`);
+  return found;
+}
+
+describe('parseCsvText', () => {
+  it('infers numeric columns and reads every missing marker as NaN', () => {
+    const table = parseCsvText('x,y\n1.5,NA\n-2e3,n/a\n,3\n NaN ,null\n.5,?\n', 'a.csv');
+    expect(table.nRows).toBe(5);
+    const x = column('x', table.columns);
+    const y = column('y', table.columns);
+    expect(x.kind).toBe('numeric');
+    expect(y.kind).toBe('numeric');
+    if (x.kind !== 'numeric' || y.kind !== 'numeric') return;
+    expect(Array.from(x.values)).toEqual([1.5, -2000, Number.NaN, Number.NaN, 0.5]);
+    expect(Array.from(y.values)).toEqual([Number.NaN, Number.NaN, 3, Number.NaN, Number.NaN]);
+  });
+
+  it('makes a column categorical when any present cell is not a number; levels sorted; missing = -1', () => {
+    const table = parseCsvText('c,n\nred,1\nblue,2\n,3\nred,4\n12,5\n', 'b.csv');
+    const c = column('c', table.columns);
+    expect(c.kind).toBe('categorical');
+    if (c.kind !== 'categorical') return;
+    expect(c.levels).toEqual(['12', 'blue', 'red']);
+    expect(Array.from(c.codes)).toEqual([2, 1, -1, 2, 0]);
+  });
+
+  it('does not take hexadecimal or Infinity as numbers', () => {
+    const table = parseCsvText('h\n0x10\nInfinity\n', 'c.csv');
+    expect(table.columns[0].kind).toBe('categorical');
+  });
+
+  it('skips blank lines and a trailing newline', () => {
+    const table = parseCsvText('a\n1\n\n2\n\n', 'd.csv');
+    expect(table.nRows).toBe(2);
+  });
+
+  const bad: [string, string, RegExp][] = [
+    ['a row with the wrong field count names file and line', 'a,b\n1,2\n3\n', /e\.csv: line 3 has 1 fields but the header has 2/],
+    ['a duplicate header names the column', 'a,b,a\n1,2,3\n', /e\.csv: column name "a" appears twice/],
+    ['an empty header cell names its position', 'a,,c\n1,2,3\n', /e\.csv: column 2 has an empty name/],
+    ['an empty file', '', /e\.csv: the file is empty/],
+    ['a header without rows', 'a,b\n', /e\.csv: the file has a header but no data rows/],
+  ];
+  for (const [what, text, message] of bad) {
+    it(`rejects ${what}`, () => {
+      expect(() => parseCsvText(text, 'e.csv')).toThrow(EngineInputError);
+      expect(() => parseCsvText(text, 'e.csv')).toThrow(message);
+    });
+  }
+});
