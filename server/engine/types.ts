@@ -98,6 +98,72 @@ export interface PathResult {
   devianceRatio: number[];
   /** Constant columns left out, rows dropped for missing values, etc. */
   notes: string[];
+  /**
+   * The standardization learnt from the rows fitted: standardized column j = (x_j - centers[j]) /
+   * scales[j]. scales[j] = 1 when standardization is off; constant columns have scale 0 and
+   * coefficient 0.
+   */
+  centers?: Float64Array;
+  scales?: Float64Array;
+  /** Set by fitPath (table level): how predictors map to design columns. */
+  encoding?: DesignEncoding;
+  /** Relative-gap convention: gap / nullObjective, the objective at b = 0 with the best intercept. */
+  nullObjective?: number;
+}
+
+/**
+ * Options of one path fit on an already-encoded design (fitPathOnDesign). Standardization is learnt
+ * inside the fit from the rows it is given (so cross-validation learns it on training rows only).
+ */
+export interface PathOptions {
+  family: Family;
+  penalty: PenaltyKind;
+  /** Elastic-net mix in (0, 1]; ignored by the group lasso. */
+  alpha: number;
+  /** Group lasso: group id (0..G-1) of each design column; default every column its own group. */
+  groupOfTerm?: ArrayLike<number>;
+  /** Group lasso: weight per group; default sqrt(group size). 0 = unpenalized group. */
+  groupWeights?: ArrayLike<number>;
+  /** Penalty factor v_j per design column; default 1, 0 = unpenalized. */
+  penaltyFactors?: ArrayLike<number>;
+  standardize: boolean;
+  /** Explicit descending lambdas (e.g. the full-data grid passed to each fold). */
+  lambda?: number[];
+  /** Automatic grid length (default 100). */
+  pathLength?: number;
+  /** lambda_min / lambda_max (default 1e-4 if n > p else 1e-2). */
+  lambdaRatio?: number;
+  /** Relative duality gap target (gap / null-model objective); default 1e-7. */
+  tolerance?: number;
+  /** FISTA iteration limit per lambda; default 10000. */
+  maxIterations?: number;
+  /** Default 'strong'. */
+  screening?: Screening;
+  /**
+   * Stop the path early when the deviance ratio stops improving: the fractional change of the
+   * deviance ratio between consecutive lambdas is below 1e-5, or it exceeds 0.999. Default false.
+   */
+  earlyStop?: boolean;
+  /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
+  gram?: 'auto' | 'always' | 'never';
+}
+
+/** How one predictor column becomes design columns (for applying a stored fit to new rows). */
+export type TermEncoding =
+  | { column: string; kind: 'numeric'; term: number; imputeValue?: number }
+  | {
+      column: string;
+      kind: 'categorical';
+      /** levels[k] -> design column terms[k] (indicator `column=level`). */
+      levels: string[];
+      terms: number[];
+      imputeLevel?: string;
+    };
+
+export interface DesignEncoding {
+  columns: TermEncoding[];
+  /** Binomial with a two-level categorical response: [level mapped to 0, level mapped to 1]. */
+  responseLevels?: [string, string];
 }
 
 export type CvMetricName = 'mse' | 'mae' | 'deviance' | 'misclassification' | 'auc';

@@ -1,0 +1,12 @@
+/**
+ * The engine's public entry points (see types.ts for the objectives and their scalings).
+ * Callers: the CLI, fit workers, cross-validation, prediction, tests and benchmarks.
+ */
+export { buildDesign, selectRows } from './design/build';
+export type { BuiltDesign } from './design/build';
+export { validateSpec } from './design/validate';
+export { fitPath, fitPathOnDesign } from './path/fitPath';
+export { computeLambdaMax, lambdaGrid, defaultLambdaRatio } from './path/grid';
+export { createRng } from './random';
+export type { Rng } from './random';
+export * from './types';
