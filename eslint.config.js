@@ -26,9 +26,10 @@ export default tseslint.config(
       globals: { ...globals.node, ...globals.browser },
     },
     plugins: { import: importPlugin, 'react-hooks': reactHooks },
-    settings: { 'import/resolver': { node: { extensions: ['.ts', '.tsx', '.js'] } } },
+    settings: { 'import/resolver': { typescript: { project: './tsconfig.json' }, node: { extensions: ['.ts', '.tsx', '.js'] } } },
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      'import/no-cycle': ['error', { ignoreExternal: true }],
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'warn',
       'import/no-restricted-paths': [
