@@ -91,7 +91,7 @@ export function foldIdsFromColumn(
   return { foldIds, folds: sorted.length };
 }
 
-/** Every fold 0..K-1 must hold at least one row. */
+/** Every fold 0..K-1 must hold at least one row (messages number folds from 1). */
 export function checkFoldsNonEmpty(foldIds: Int32Array, folds: number): void {
   const counts = new Int32Array(folds);
   for (const f of foldIds) {
@@ -99,5 +99,5 @@ export function checkFoldsNonEmpty(foldIds: Int32Array, folds: number): void {
     counts[f]++;
   }
   const empty = counts.findIndex((c) => c === 0);
-  if (empty >= 0) throw new EngineInputError(`fold ${empty} has no rows`, 'folds');
+  if (empty >= 0) throw new EngineInputError(`fold ${empty + 1} of ${folds} has no rows`, 'folds');
 }

@@ -1,0 +1,119 @@
+/**
+ * One cross-validation fold: fit the path on the fold's training rows with the full-data lambda grid
+ * and score the held-out rows. The fold's design is the full design restricted to its training rows,
+ * so terms (and categorical levels) stay aligned with the full fit; fitPathOnDesign learns centring
+ * and scaling from the rows it is given, i.e. from the training rows only, and gives a column that is
+ * constant there coefficient 0.
+ */
+import { buildDesign, selectRows } from '../design/build';
+import { fitPathOnDesign } from '../path/fitPath';
+import {
+  EngineInputError,
+  type CvMetricName,
+  type DesignMatrix,
+  type EngineTable,
+  type Family,
+  type FitSpec,
+  type PathOptions,
+  type SolveStatus,
+} from '../types';
+import {
+  areaUnderRoc,
+  meanAbsoluteError,
+  meanBinomialDeviance,
+  meanSquaredError,
+  misclassificationRate,
+} from './metrics';
+import { pathOptionsFor } from './options';
+
+/** One fold's result: plain arrays only, so it can travel as a queue job's output. */
+export interface FoldLosses {
+  fold: number;
+  nTest: number;
+  /** Metric -> this fold's mean held-out loss at each lambda. */
+  losses: Partial<Record<CvMetricName, number[]>>;
+  /** Solver status of the fold's fit at each lambda. */
+  statuses: SolveStatus[];
+}
+
+export const METRICS: Record<Family, CvMetricName[]> = {
+  gaussian: ['mse', 'mae'],
+  binomial: ['deviance', 'misclassification', 'auc'],
+};
+
+function scoreHeldOut(family: Family, y: Float64Array, eta: Float64Array): Record<string, number> {
+  if (family === 'gaussian') return { mse: meanSquaredError(y, eta), mae: meanAbsoluteError(y, eta) };
+  return {
+    deviance: meanBinomialDeviance(y, eta),
+    misclassification: misclassificationRate(y, eta),
+    auc: areaUnderRoc(y, eta),
+  };
+}
+
+/** The fold on an already built full design (the in-process and worker paths use this). */
+export function runFoldOnDesign(
+  design: DesignMatrix,
+  y: Float64Array,
+  options: PathOptions,
+  foldIds: Int32Array,
+  foldIndex: number,
+  lambda: number[],
+): FoldLosses {
+  const train: number[] = [];
+  const test: number[] = [];
+  for (let i = 0; i < foldIds.length; i++) (foldIds[i] === foldIndex ? test : train).push(i);
+  const label = `fold ${foldIndex + 1}`;
+  if (test.length === 0) throw new EngineInputError(`${label} has no rows`, 'folds');
+  if (train.length === 0) throw new EngineInputError(`${label} leaves no training rows`, 'folds');
+  if (options.family === 'binomial') {
+    const ones = train.reduce((s, i) => s + y[i], 0);
+    if (ones === 0 || ones === train.length) {
+      throw new EngineInputError(
+        `${label}: every training row has class ${ones === 0 ? 0 : 1}; a binomial fit needs both classes (use fewer folds)`,
+        'folds',
+      );
+    }
+  }
+  const trainSet = selectRows(design, y, train);
+  const fit = fitPathOnDesign(trainSet.design, trainSet.y, { ...options, lambda });
+  const testSet = selectRows(design, y, test);
+  const nTest = test.length;
+  const xt = testSet.design.x;
+  const losses: Partial<Record<CvMetricName, number[]>> = {};
+  for (const metric of METRICS[options.family]) losses[metric] = [];
+  const eta = new Float64Array(nTest);
+  for (let l = 0; l < lambda.length; l++) {
+    const beta = fit.coefficients[l];
+    eta.fill(fit.intercept[l]);
+    for (let j = 0; j < design.p; j++) {
+      const b = beta[j];
+      if (b === 0) continue;
+      const offset = j * nTest;
+      for (let i = 0; i < nTest; i++) eta[i] += b * xt[offset + i];
+    }
+    const scores = scoreHeldOut(options.family, testSet.y, eta);
+    for (const metric of METRICS[options.family]) losses[metric]?.push(scores[metric]);
+  }
+  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status) };
+}
+
+/**
+ * One fold from the raw table, for a queue job: `foldIds` has one entry per used row (as in
+ * CvResult.foldIds), `lambda` is the full-data grid.
+ */
+export function runFold(
+  table: EngineTable,
+  spec: FitSpec,
+  foldIds: Int32Array,
+  foldIndex: number,
+  lambda: number[],
+): FoldLosses {
+  const built = buildDesign(table, spec);
+  if (built.rows.length !== foldIds.length) {
+    throw new EngineInputError(
+      `fold ids cover ${foldIds.length} rows but the data have ${built.rows.length} usable rows`,
+      'folds',
+    );
+  }
+  return runFoldOnDesign(built.design, built.y, pathOptionsFor(spec, built), foldIds, foldIndex, lambda);
+}

@@ -1,0 +1,11 @@
+/** Cross-validation: folds, held-out metrics, the lambda choices (../shared/DESIGN.md). */
+export { crossValidate, planCrossValidation } from './crossValidate';
+export type { CvPlan } from './crossValidate';
+export { crossValidateInWorkers } from './parallel';
+export { runFold, runFoldOnDesign, METRICS } from './fold';
+export type { FoldLosses } from './fold';
+export { combineFolds, mainMetric } from './combine';
+export { foldAssignment } from './assign';
+export { assignFolds, foldIdsFromColumn } from './folds';
+export { chooseLambdas, summarizeFolds } from './choose';
+export * from './metrics';

@@ -1,0 +1,62 @@
+/**
+ * Cross-validation with folds spread over a small pool of worker threads (min(2, K) by default: the
+ * target machine has 2 cores). Workers run TypeScript through tsx's loader.
+ */
+import { Worker } from 'node:worker_threads';
+import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../types';
+import { combineFolds } from './combine';
+import { planCrossValidation } from './crossValidate';
+import type { FoldLosses } from './fold';
+import type { WorkerReply, WorkerRequest } from './protocol';
+
+export async function crossValidateInWorkers(
+  table: EngineTable,
+  spec: FitSpec,
+  path: PathResult,
+  poolSize = 2,
+): Promise<CvResult> {
+  const plan = planCrossValidation(table, spec, path);
+  const size = Math.max(1, Math.min(poolSize, plan.folds));
+  const init: WorkerRequest = {
+    type: 'init',
+    design: plan.built.design,
+    y: plan.built.y,
+    options: plan.options,
+    foldIds: plan.foldIds,
+    lambda: plan.lambda,
+  };
+  const results: FoldLosses[] = [];
+  let next = 0;
+  const workers = Array.from(
+    { length: size },
+    () => new Worker(new URL('./worker.ts', import.meta.url), { execArgv: ['--import', 'tsx'] }),
+  );
+  try {
+    await Promise.all(
+      workers.map(
+        (worker) =>
+          new Promise<void>((resolve, reject) => {
+            const sendNext = () => {
+              if (next >= plan.folds) return resolve();
+              worker.postMessage({ type: 'fold', fold: next++ } satisfies WorkerRequest);
+            };
+            worker.on('message', (reply: WorkerReply) => {
+              if ('error' in reply) {
+                const { name, message, field } = reply.error;
+                return reject(name === 'EngineInputError' ? new EngineInputError(message, field) : new Error(message));
+              }
+              results.push(reply.result);
+              sendNext();
+            });
+            worker.on('error', reject);
+            worker.postMessage(init);
+            sendNext();
+          }),
+      ),
+    );
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+  results.sort((a, b) => a.fold - b.fold);
+  return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
+}

@@ -1,0 +1,18 @@
+/** Messages between crossValidateInWorkers and its worker threads. */
+import type { DesignMatrix, PathOptions } from '../types';
+import type { FoldLosses } from './fold';
+
+export type WorkerRequest =
+  | {
+      type: 'init';
+      design: DesignMatrix;
+      y: Float64Array;
+      options: PathOptions;
+      foldIds: Int32Array;
+      lambda: number[];
+    }
+  | { type: 'fold'; fold: number };
+
+export type WorkerReply =
+  | { fold: number; result: FoldLosses }
+  | { fold: number; error: { name: string; message: string; field?: string } };

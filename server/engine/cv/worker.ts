@@ -1,0 +1,36 @@
+/**
+ * Worker-thread side of crossValidateInWorkers: receives the shared plan once, then fold indices,
+ * and answers each with the fold's losses (or its error).
+ */
+import { parentPort } from 'node:worker_threads';
+import type { DesignMatrix, PathOptions } from '../types';
+import { runFoldOnDesign } from './fold';
+import type { WorkerReply, WorkerRequest } from './protocol';
+
+interface Shared {
+  design: DesignMatrix;
+  y: Float64Array;
+  options: PathOptions;
+  foldIds: Int32Array;
+  lambda: number[];
+}
+
+let shared: Shared | undefined;
+
+parentPort?.on('message', (message: WorkerRequest) => {
+  if (message.type === 'init') {
+    shared = message;
+    return;
+  }
+  const reply: WorkerReply = (() => {
+    try {
+      if (!shared) throw new Error('worker received a fold before its data');
+      const { design, y, options, foldIds, lambda } = shared;
+      return { fold: message.fold, result: runFoldOnDesign(design, y, options, foldIds, message.fold, lambda) };
+    } catch (error) {
+      const e = error as Error & { field?: string };
+      return { fold: message.fold, error: { name: e.name, message: e.message, field: e.field } };
+    }
+  })();
+  parentPort?.postMessage(reply);
+});
