@@ -36,7 +36,7 @@ export const DEFAULTS = {
   folds: 10,
   seed: 1,
   tolerance: 1e-7,
-  maxIterations: 100_000,
+  maxIterations: 10_000,
 };
 
 const VALUE_OPTIONS = new Set([

@@ -1,0 +1,71 @@
+/**
+ * `npm run -s cli -- fit --data FILE.csv --response COL [options]`: fits a regularization path, with
+ * cross-validation by default, and prints one JSON object on stdout. Errors: one message on stderr
+ * naming the option, file, row or column, a non-zero exit, nothing on stdout.
+ */
+import { readFileSync } from 'node:fs';
+import { crossValidate, crossValidateInWorkers } from '../engine/cv';
+import { readCsvFile } from '../engine/csv';
+import { fitPath, validateSpec } from '../engine/index';
+import { EngineInputError, type CvResult, type EngineTable, type FitSpec } from '../engine/types';
+import { parseFitOptions, UsageError, type FitOptions } from './args';
+import { HELP } from './help';
+import { fitOutput, toJson } from './output';
+import { buildFitSpec } from './spec';
+
+/**
+ * Worker threads pay ~0.3 s start-up each (the TypeScript loader) and copy the design, so they only
+ * help when the folds are large: below this many cells (rows x predictors) the folds run in-process.
+ * Measured on 2 cores with bench/engine.bench.ts.
+ */
+const WORKER_MIN_CELLS = 1_000_000;
+
+function engineVersion(): string {
+  const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
+  return pkg.version;
+}
+
+function useWorkers(options: FitOptions, table: EngineTable, spec: FitSpec): boolean {
+  if (options.workers !== 'auto') return options.workers === 'on';
+  return table.nRows * spec.predictors.length >= WORKER_MIN_CELLS;
+}
+
+export async function runFit(argv: string[]): Promise<string> {
+  const options = parseFitOptions(argv);
+  const table = readCsvFile(options.data);
+  const spec = buildFitSpec(options, table);
+  validateSpec(table, spec);
+  const path = fitPath(table, spec);
+  let cv: CvResult | null = null;
+  if (spec.cv) cv = useWorkers(options, table, spec) ? await crossValidateInWorkers(table, spec, path) : crossValidate(table, spec, path);
+  return toJson(fitOutput(path, cv, engineVersion()));
+}
+
+async function main(argv: string[]): Promise<number> {
+  const [command, ...rest] = argv;
+  if (command === undefined) {
+    process.stderr.write(HELP);
+    return 2;
+  }
+  if (command === '--help' || command === 'help' || rest.includes('--help')) {
+    process.stdout.write(HELP);
+    return 0;
+  }
+  if (command !== 'fit') {
+    process.stderr.write(`lariat: unknown command "${command}" (the only command is "fit"; see --help)\n`);
+    return 2;
+  }
+  try {
+    process.stdout.write(`${await runFit(rest)}\n`);
+    return 0;
+  } catch (error) {
+    if (error instanceof UsageError || error instanceof EngineInputError) {
+      process.stderr.write(`lariat fit: ${error.message}\n`);
+      return 2;
+    }
+    process.stderr.write(`lariat fit: internal error: ${(error as Error).stack ?? String(error)}\n`);
+    return 1;
+  }
+}
+
+process.exitCode = await main(process.argv.slice(2));

@@ -1,0 +1,83 @@
+/**
+ * The JSON object `lariat fit` prints (../shared/DESIGN.md, "Command-line interface"): the contract
+ * keys first, then extras (standardized coefficients, counts, notes, cautions, version).
+ */
+import type { CvResult, PathResult } from '../engine/types';
+
+export interface FitOutput {
+  lambda: number[];
+  intercept: number[];
+  coefficients: Record<string, number[]>;
+  dualityGap: number[];
+  iterations: number[];
+  status: string[];
+  cv: null | {
+    folds: number;
+    metric: string;
+    mean: number[];
+    standardError: number[];
+    minimum: { index: number; lambda: number };
+    oneStandardError: { index: number; lambda: number };
+    curves: Record<string, { mean: number[]; standardError: number[] }>;
+  };
+  family: string;
+  lambdaMax: number;
+  standardizedIntercept: number[];
+  standardizedCoefficients: Record<string, number[]>;
+  nonzero: number[];
+  devianceRatio: number[];
+  notes: string[];
+  cautions: string[];
+  engineVersion: string;
+}
+
+function byTerm(terms: string[], perLambda: Float64Array[]): Record<string, number[]> {
+  const out: Record<string, number[]> = {};
+  terms.forEach((term, j) => {
+    out[term] = perLambda.map((b) => b[j]);
+  });
+  return out;
+}
+
+/** Solves that did not converge, named with their gap and tolerance (STYLE.md 9: never silent). */
+function cautionsOf(path: PathResult): string[] {
+  return path.solves.flatMap((s, l) =>
+    s.status === 'converged'
+      ? []
+      : [`lambda ${path.lambda[l]} (index ${l}): ${s.status}, relative gap ${s.gap} vs tolerance ${s.tolerance}: ${s.message}`],
+  );
+}
+
+export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: string): FitOutput {
+  return {
+    lambda: path.lambda,
+    intercept: path.intercept,
+    coefficients: byTerm(path.terms, path.coefficients),
+    dualityGap: path.solves.map((s) => s.gap),
+    iterations: path.solves.map((s) => s.iterations),
+    status: path.solves.map((s) => s.status),
+    cv: cv && {
+      folds: cv.folds,
+      metric: cv.metric,
+      mean: cv.mean,
+      standardError: cv.standardError,
+      minimum: cv.minimum,
+      oneStandardError: cv.oneStandardError,
+      curves: Object.fromEntries(cv.curves.map((c) => [c.metric, { mean: c.mean, standardError: c.standardError }])),
+    },
+    family: path.family,
+    lambdaMax: path.lambdaMax,
+    standardizedIntercept: path.standardizedIntercept,
+    standardizedCoefficients: byTerm(path.terms, path.standardizedCoefficients),
+    nonzero: path.nonzero,
+    devianceRatio: path.devianceRatio,
+    notes: path.notes,
+    cautions: cautionsOf(path),
+    engineVersion,
+  };
+}
+
+/** JSON has no NaN or Infinity: undefined values (e.g. a standard error from one fold) become null. */
+export function toJson(value: unknown): string {
+  return JSON.stringify(value, (_key, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v));
+}

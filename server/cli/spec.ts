@@ -1,0 +1,86 @@
+/**
+ * FitOptions + the data table -> FitSpec, checking every named column against the file so errors
+ * can name the option, the file and the column.
+ */
+import { readFileSync } from 'node:fs';
+import type { EngineTable, FitSpec } from '../engine/types';
+import { UsageError, type FitOptions } from './args';
+
+/** Elastic-net mix when --penalty elastic-net is given without --alpha (common practice). */
+export const DEFAULT_ELASTIC_NET_ALPHA = 0.5;
+
+function requireColumn(table: EngineTable, file: string, option: string, name: string): void {
+  if (!table.columns.some((c) => c.name === name)) {
+    const known = table.columns.map((c) => c.name);
+    const shown = known.length > 12 ? `${known.slice(0, 12).join(', ')}, ...` : known.join(', ');
+    throw new UsageError(`${option}: column "${name}" is not in ${file} (columns: ${shown})`);
+  }
+}
+
+/** `{"group name": ["column", ...]}` from a JSON file; every column must be a predictor. */
+export function readGroups(file: string, predictors: string[]): Record<string, string[]> {
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(readFileSync(file, 'utf8'));
+  } catch (error) {
+    throw new UsageError(`--groups: cannot read ${file}: ${(error as Error).message}`);
+  }
+  if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) {
+    throw new UsageError(`--groups: ${file} must hold a JSON object {"group name": ["column", ...]}`);
+  }
+  const groups: Record<string, string[]> = {};
+  const owner = new Map<string, string>();
+  for (const [name, columns] of Object.entries(parsed)) {
+    if (!Array.isArray(columns) || columns.length === 0 || !columns.every((c) => typeof c === 'string')) {
+      throw new UsageError(`--groups: group "${name}" in ${file} must be a non-empty list of column names`);
+    }
+    for (const column of columns as string[]) {
+      if (!predictors.includes(column)) {
+        throw new UsageError(`--groups: group "${name}" in ${file} names "${column}", which is not a predictor`);
+      }
+      const previous = owner.get(column);
+      if (previous !== undefined) {
+        throw new UsageError(`--groups: column "${column}" is in both group "${previous}" and group "${name}" in ${file}`);
+      }
+      owner.set(column, name);
+    }
+    groups[name] = columns as string[];
+  }
+  return groups;
+}
+
+export function buildFitSpec(options: FitOptions, table: EngineTable): FitSpec {
+  const file = options.data;
+  requireColumn(table, file, '--response', options.response);
+  if (options.foldColumn !== undefined) requireColumn(table, file, '--fold-column', options.foldColumn);
+  const excluded = new Set([options.response, ...(options.foldColumn ? [options.foldColumn] : [])]);
+  const predictors = options.predictors ?? table.columns.map((c) => c.name).filter((name) => !excluded.has(name));
+  for (const name of predictors) {
+    requireColumn(table, file, '--predictors', name);
+    if (name === options.response) throw new UsageError(`--predictors: "${name}" is the response`);
+    if (name === options.foldColumn) throw new UsageError(`--predictors: "${name}" is the fold column`);
+  }
+  if (predictors.length === 0) throw new UsageError(`no predictors: ${file} has no columns besides the response`);
+  return {
+    family: options.family,
+    response: options.response,
+    predictors,
+    penalty: options.penalty,
+    alpha: options.penalty === 'elastic-net' ? (options.alpha ?? DEFAULT_ELASTIC_NET_ALPHA) : 1,
+    groups: options.groupsFile ? readGroups(options.groupsFile, predictors) : undefined,
+    standardize: options.standardize,
+    lambda: options.lambda,
+    pathLength: options.lambda ? options.lambda.length : options.pathLength,
+    lambdaRatio: options.lambdaRatio,
+    tolerance: options.tolerance,
+    maxIterations: options.maxIterations,
+    screening: 'strong',
+    missing: 'drop',
+    cv:
+      options.foldColumn !== undefined
+        ? { folds: 0, seed: options.seed, foldColumn: options.foldColumn }
+        : options.folds >= 2
+          ? { folds: options.folds, seed: options.seed }
+          : null,
+  };
+}
