@@ -1,0 +1,12 @@
+import type { RouteObject } from 'react-router';
+import { paths } from './paths';
+import { DatasetsPlaceholder } from './routes/DatasetsPlaceholder';
+
+/**
+ * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
+ * the shell, the session and `useCurrentWorkspace()`). A feature adds its routes with one line,
+ * e.g. `...datasetsRoutes,` from '@/features/datasets/routes', replacing its placeholder.
+ */
+export const workspaceFeatureRoutes: RouteObject[] = [
+  { path: paths.workspace.datasets.path, element: <DatasetsPlaceholder /> },
+];

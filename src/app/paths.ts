@@ -1,0 +1,24 @@
+/**
+ * Every route path in one place. Pages link with `paths.x.getHref(...)`; the router uses `paths.x.path`.
+ * A feature that needs more routes adds its entries here.
+ */
+export const paths = {
+  home: { path: '/', getHref: () => '/' },
+  auth: {
+    signIn: { path: '/sign-in', getHref: (redirectTo?: string) => (redirectTo ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in') },
+    signUp: { path: '/sign-up', getHref: () => '/sign-up' },
+    forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
+    resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
+    acceptInvitation: { path: '/invitations/:token', getHref: (token: string) => `/invitations/${encodeURIComponent(token)}` },
+  },
+  workspace: {
+    root: { path: '/w/:workspaceId', getHref: (workspaceId: string) => `/w/${workspaceId}` },
+    datasets: { path: '/w/:workspaceId/datasets', getHref: (workspaceId: string) => `/w/${workspaceId}/datasets` },
+    models: { path: '/w/:workspaceId/models', getHref: (workspaceId: string) => `/w/${workspaceId}/models` },
+    reviews: { path: '/w/:workspaceId/reviews', getHref: (workspaceId: string) => `/w/${workspaceId}/reviews` },
+    releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },
+    members: { path: '/w/:workspaceId/members', getHref: (workspaceId: string) => `/w/${workspaceId}/members` },
+    outbox: { path: '/w/:workspaceId/outbox', getHref: (workspaceId: string) => `/w/${workspaceId}/outbox` },
+  },
+  newWorkspace: { path: '/new-workspace', getHref: () => '/new-workspace' },
+} as const;

@@ -1,0 +1,41 @@
+import { NavLink } from 'react-router';
+import type { WorkspaceRole } from '@shared/members';
+import { useOutbox } from '@/features/dev/api/outbox';
+import { paths } from '../paths';
+
+const AREAS = [
+  { label: 'Datasets', href: paths.workspace.datasets.getHref },
+  { label: 'Models', href: paths.workspace.models.getHref },
+  { label: 'Reviews', href: paths.workspace.reviews.getHref },
+  { label: 'Releases', href: paths.workspace.releases.getHref },
+  { label: 'Members', href: paths.workspace.members.getHref },
+] as const;
+
+const LINK =
+  'block rounded-md px-3 py-2 text-sm font-bold text-lariat-50 hover:bg-lariat-800 aria-[current=page]:bg-lariat-50 aria-[current=page]:text-lariat-900';
+
+export function SideNav({ workspaceId, role }: { workspaceId: string; role: WorkspaceRole }) {
+  // The outbox exists only where the server captures e-mail (development, tests); in production
+  // the endpoint answers 404 and the link stays hidden. Only admins may read it.
+  const outbox = useOutbox(role === 'admin');
+  return (
+    <nav aria-label="Workspace">
+      <ul className="space-y-1">
+        {AREAS.map((area) => (
+          <li key={area.label}>
+            <NavLink to={area.href(workspaceId)} className={LINK}>
+              {area.label}
+            </NavLink>
+          </li>
+        ))}
+        {outbox.isSuccess && (
+          <li className="border-t border-lariat-700 pt-2">
+            <NavLink to={paths.workspace.outbox.getHref(workspaceId)} className={LINK}>
+              Outbox <span className="font-normal text-lariat-200">(development)</span>
+            </NavLink>
+          </li>
+        )}
+      </ul>
+    </nav>
+  );
+}

@@ -1,0 +1,36 @@
+/**
+ * Light and dark themes: the visitor's choice is remembered in localStorage; until they choose,
+ * the system's prefers-color-scheme decides. The `dark` class on <html> switches Tailwind's dark variant.
+ */
+export type Theme = 'light' | 'dark';
+export const THEME_STORAGE_KEY = 'lariat-theme';
+
+export function storedTheme(): Theme | null {
+  try {
+    const value = localStorage.getItem(THEME_STORAGE_KEY);
+    return value === 'light' || value === 'dark' ? value : null;
+  } catch {
+    return null; // storage can be disabled; fall back to the system preference
+  }
+}
+
+export function systemTheme(): Theme {
+  return window.matchMedia?.('(prefers-color-scheme: dark)').matches ? 'dark' : 'light';
+}
+
+export function initialTheme(): Theme {
+  return storedTheme() ?? systemTheme();
+}
+
+export function applyTheme(theme: Theme): void {
+  document.documentElement.classList.toggle('dark', theme === 'dark');
+  document.documentElement.style.colorScheme = theme;
+}
+
+export function saveTheme(theme: Theme): void {
+  try {
+    localStorage.setItem(THEME_STORAGE_KEY, theme);
+  } catch {
+    // not remembered, but still applied for this visit
+  }
+}
