@@ -1,5 +1,6 @@
 /** Workspace roles and member management: one schema per request body, used by client forms and handlers. */
 import { z } from 'zod';
+import { emailSchema } from './auth';
 
 /**
  * The four roles a person can hold in a workspace (DESIGN.md "Who uses it"). Not a strict hierarchy:
@@ -29,4 +30,34 @@ export interface MemberDto {
   name: string;
   role: WorkspaceRole;
   joinedAt: string;
+}
+
+/** POST /api/workspaces/:workspaceId/invitations */
+export const createInvitationSchema = z.strictObject({
+  email: emailSchema,
+  role: roleSchema,
+});
+export type CreateInvitationInput = z.infer<typeof createInvitationSchema>;
+
+/** Invitations last a week; after that the admin sends a new one. */
+export const INVITATION_DAYS = 7;
+
+export interface InvitationDto {
+  id: string;
+  email: string;
+  role: WorkspaceRole;
+  invitedByName: string | null;
+  createdAt: string;
+  expiresAt: string;
+}
+
+/** GET /api/invitations/:token: what the link is for, before accepting it. */
+export interface InvitationPreviewDto {
+  workspaceName: string;
+  email: string;
+  role: WorkspaceRole;
+  invitedByName: string | null;
+  expiresAt: string;
+  /** True when that e-mail already has an account: the client asks them to sign in, then accept. */
+  accountExists: boolean;
 }

@@ -1,5 +1,10 @@
 import { Router } from 'express';
+import { authBase } from '../auth/middleware';
 import type { AppContext } from '../context';
+import { devOutboxRouter } from '../dev/outbox';
+import { authRouter } from './auth';
+import { invitationsRouter } from './invitations';
+import { workspacesRouter } from './workspaces';
 
 /** Mounts each area's router. Each area adds one line here. */
 export function apiRouter(ctx: AppContext): Router {
@@ -7,6 +12,10 @@ export function apiRouter(ctx: AppContext): Router {
   router.get('/health', (_req, res) => {
     res.json({ ok: true });
   });
-  void ctx;
+  router.use(authBase(ctx)); // first: CSRF for every state-changing request, and the context for auth middleware
+  router.use(authRouter(ctx));
+  router.use(workspacesRouter(ctx));
+  router.use(invitationsRouter(ctx));
+  router.use(devOutboxRouter(ctx));
   return router;
 }

@@ -1,0 +1,38 @@
+/** The e-mails accounts send: plain text with one link, built from config.publicUrl. */
+import type { WorkspaceRole } from '../../shared/members';
+import type { AppContext } from '../context';
+
+export function invitationMail(ctx: AppContext, m: { to: string; token: string; workspaceName: string; role: WorkspaceRole; invitedBy: string }) {
+  const link = `${ctx.config.publicUrl}/invitations/${m.token}`;
+  return {
+    to: m.to,
+    subject: `${m.invitedBy} invited you to ${m.workspaceName} on Lariat`,
+    text: [
+      `${m.invitedBy} invited you to join the workspace "${m.workspaceName}" on Lariat as ${m.role}.`,
+      '',
+      `Accept the invitation: ${link}`,
+      '',
+      'The link works once and expires in 7 days. If you did not expect this, ignore this e-mail.',
+    ].join('\n'),
+  };
+}
+
+export function passwordResetMail(ctx: AppContext, m: { to: string; token: string }) {
+  const link = `${ctx.config.publicUrl}/reset-password/${m.token}`;
+  return {
+    to: m.to,
+    subject: 'Reset your Lariat password',
+    text: [
+      'Someone (hopefully you) asked to reset the password of your Lariat account.',
+      '',
+      `Choose a new password: ${link}`,
+      '',
+      'The link works once and expires in 1 hour. If you did not ask for this, ignore this e-mail; your password stays as it is.',
+    ].join('\n'),
+  };
+}
+
+/** Sends without making the caller wait or fail: a mail relay hiccup must not reveal or break anything. */
+export function sendInBackground(ctx: AppContext, message: { to: string; subject: string; text: string }): void {
+  ctx.sendMail(message).catch((err: unknown) => console.error('[lariat] could not send e-mail to', message.to, err));
+}
