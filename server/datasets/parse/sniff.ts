@@ -1,0 +1,38 @@
+/**
+ * Guesses the delimiter and line endings from the first part of the file. Each candidate parses the
+ * sample; the winner gives the same field count (more than one) on the most lines, ties broken by
+ * more fields. A .tsv name or a tab-only header prefers the tab. (Common practice, as in Python's
+ * csv.Sniffer: consistency of field counts across lines.)
+ */
+import Papa from 'papaparse';
+import type { ParseReport } from '../../../shared/datasets';
+
+const CANDIDATES = [',', '\t', ';', '|'] as const;
+
+export function detectLineEndings(sample: string): ParseReport['lineEndings'] {
+  const lf = sample.indexOf('\n');
+  if (lf > 0 && sample[lf - 1] === '\r') return 'CRLF';
+  if (lf >= 0) return 'LF';
+  return sample.includes('\r') ? 'CR' : 'none';
+}
+
+export function detectDelimiter(sample: string, fileName: string): string {
+  // Drop a possibly cut last line so it does not count as inconsistent.
+  const cut = sample.lastIndexOf('\n');
+  const text = cut > 0 ? sample.slice(0, cut) : sample;
+  let best: { delimiter: string; score: number; fields: number } = { delimiter: fileName.toLowerCase().endsWith('.tsv') ? '\t' : ',', score: 0, fields: 1 };
+  for (const delimiter of CANDIDATES) {
+    const rows = Papa.parse<string[]>(text, { delimiter, preview: 50, skipEmptyLines: true }).data;
+    if (rows.length === 0) continue;
+    const fields = rows[0].length;
+    if (fields < 2) continue;
+    const consistent = rows.filter((r) => r.length === fields).length / rows.length;
+    const score = consistent * 1000 + Math.min(fields, 999);
+    if (score > best.score) best = { delimiter, score, fields };
+  }
+  return best.delimiter;
+}
+
+export function describeDelimiter(d: string): string {
+  return d === '\t' ? 'tab' : d === ',' ? 'comma' : d === ';' ? 'semicolon' : d === '|' ? 'vertical bar' : JSON.stringify(d);
+}
