@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { expect } from 'vitest';
@@ -42,4 +43,18 @@ export function expectDigits(label: string, got: number | null, certified: numbe
   const bound = certified === 0 ? 10 ** -digits : 10 ** -digits * Math.abs(certified);
   const ok = got !== null && Number.isFinite(got) && Math.abs(got - certified) <= bound;
   expect(ok, `${label}: certified ${certified}, got ${got}, needs ${digits} digits (|diff| <= ${bound})`).toBe(true);
+}
+
+/** A numeric CSV from datasets/ (header row, comma-separated, no quoting) and its sha256. */
+export function readNumericCsv(relativePath: string): { header: string[]; columns: Record<string, number[]>; sha256: string } {
+  const raw = readFileSync(repoRoot + relativePath);
+  const lines = raw.toString('utf8').trim().split('\n');
+  const header = lines[0].split(',');
+  const columns: Record<string, number[]> = Object.fromEntries(header.map((h) => [h, [] as number[]]));
+  lines.slice(1).forEach((line, i) => {
+    const cells = line.split(',');
+    if (cells.length !== header.length) throw new Error(`${relativePath} row ${i + 2}: ${cells.length} cells, expected ${header.length}`);
+    cells.forEach((cell, j) => columns[header[j]].push(Number(cell)));
+  });
+  return { header, columns, sha256: createHash('sha256').update(raw).digest('hex') };
 }
