@@ -13,7 +13,7 @@ export function NotFoundPage({ message = 'There is no page at this address, or y
       <DocumentTitle title="Page not found" />
       <Wordmark />
       <div>
-        <p className="text-sm font-bold uppercase tracking-widest text-saffron-600 dark:text-saffron-400">404</p>
+        <p className="text-sm font-bold uppercase tracking-widest text-lariat-700 dark:text-saffron-400">404</p>
         <h1 className="mt-2 text-3xl font-bold">Page not found</h1>
         <p className="mt-3 max-w-md text-slate-700 dark:text-slate-300">{message}</p>
       </div>

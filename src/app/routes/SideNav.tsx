@@ -31,7 +31,7 @@ export function SideNav({ workspaceId, role }: { workspaceId: string; role: Work
         {outbox.isSuccess && (
           <li className="border-t border-lariat-700 pt-2">
             <NavLink to={paths.workspace.outbox.getHref(workspaceId)} className={LINK}>
-              Outbox <span className="font-normal text-lariat-200">(development)</span>
+              Outbox <span className="font-normal">(development)</span>
             </NavLink>
           </li>
         )}

@@ -28,7 +28,7 @@ export function OutboxPage() {
         </EmptyState>
       )}
       <ol className="space-y-4">
-        {[...(outbox.data ?? [])].reverse().map((m) => (
+        {(outbox.data ?? []).map((m) => (
           <li key={m.id} className="rounded-lg border border-slate-200 bg-white p-4 dark:border-slate-800 dark:bg-slate-900">
             <article aria-label={m.subject}>
               <h2 className="font-bold">{m.subject || '(no subject)'}</h2>

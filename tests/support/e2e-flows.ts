@@ -1,0 +1,87 @@
+/** Steps the browser tests share: signing up and in through the real pages, and reading captured e-mail. */
+import { randomBytes } from 'node:crypto';
+import type { BrowserContext, Page } from 'playwright-core';
+
+/** Invented for the tests; long and varied enough for Lariat's password rules. */
+export const PASSWORD = 'copper-kettle-river-57';
+
+export function uniqueEmail(who: string): string {
+  return `${who}-${randomBytes(4).toString('hex')}@lariat.test`;
+}
+
+export interface Account {
+  name: string;
+  email: string;
+  password: string;
+  workspaceName: string;
+}
+
+export function newAccount(who: string): Account {
+  return { name: `${who[0].toUpperCase()}${who.slice(1)} Tester`, email: uniqueEmail(who), password: PASSWORD, workspaceName: `${who} workspace` };
+}
+
+/** Signs up through /sign-up and returns the id of the new workspace from the URL it lands on. */
+export async function signUp(page: Page, account: Account): Promise<string> {
+  await page.goto('/sign-up');
+  await page.getByLabel('Your name').fill(account.name);
+  await page.getByLabel('E-mail').fill(account.email);
+  await page.getByLabel('Password').fill(account.password);
+  await page.getByLabel('Workspace name').fill(account.workspaceName);
+  await page.getByRole('button', { name: 'Create workspace' }).click();
+  await page.waitForURL(/\/w\/[^/]+\/datasets$/);
+  return workspaceIdOf(page.url());
+}
+
+export async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+export async function signOut(page: Page): Promise<void> {
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await page.waitForURL(/\/sign-in/);
+}
+
+export function workspaceIdOf(url: string): string {
+  const match = /\/w\/([^/]+)/.exec(new URL(url).pathname);
+  if (!match) throw new Error(`Not a workspace URL: ${url}`);
+  return match[1];
+}
+
+interface OutboxMessage {
+  to: string[];
+  subject: string;
+  text: string;
+}
+
+/**
+ * Waits for an e-mail to `to` in the dev outbox, read with the cookies of `adminContext` (the outbox
+ * is for admins), and returns it with the first link in it whose path starts with `linkPath`.
+ */
+export async function waitForEmail(adminContext: BrowserContext, to: string, linkPath: string): Promise<{ message: OutboxMessage; link: string }> {
+  const deadline = Date.now() + 15_000;
+  let last = '';
+  while (Date.now() < deadline) {
+    const response = await adminContext.request.get('/api/dev/outbox');
+    last = `${response.status()} ${await response.text()}`;
+    if (response.ok()) {
+      const { messages } = (await response.json()) as { messages: OutboxMessage[] };
+      const message = messages.find((m) => m.to.includes(to.toLowerCase()));
+      if (message) {
+        const link = message.text.match(/https?:\/\/\S+/g)?.find((u) => new URL(u).pathname.startsWith(linkPath));
+        if (!link) throw new Error(`The e-mail to ${to} has no ${linkPath} link:\n${message.text}`);
+        return { message, link };
+      }
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`No e-mail to ${to} reached the outbox within 15 s; last answer: ${last.slice(0, 500)}`);
+}
+
+/** The CSRF token from a context's cookies, for requests made outside the pages. */
+export async function csrfHeader(context: BrowserContext): Promise<Record<string, string>> {
+  const cookie = (await context.cookies()).find((c) => c.name === 'lariat_csrf');
+  return cookie ? { 'X-Lariat-CSRF': cookie.value } : {};
+}
