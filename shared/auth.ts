@@ -52,10 +52,13 @@ export function passwordProblem(password: string, email?: string): string | null
   return null;
 }
 
+/** Every character one up (or one down) from the last; digits wrap 9 -> 0 as on a keyboard row. */
 function isStraightRun(s: string): boolean {
+  const next = (a: string, b: string, step: number) =>
+    b.charCodeAt(0) - a.charCodeAt(0) === step || (step === 1 ? a === '9' && b === '0' : a === '0' && b === '9');
   for (const step of [1, -1]) {
     let run = true;
-    for (let i = 1; i < s.length && run; i++) run = s.charCodeAt(i) - s.charCodeAt(i - 1) === step;
+    for (let i = 1; i < s.length && run; i++) run = next(s[i - 1], s[i], step);
     if (run) return true;
   }
   return false;

@@ -1,0 +1,124 @@
+/** Forged, expired and revoked session tokens; CSRF double-submit and Origin checks. */
+import { randomUUID } from 'node:crypto';
+import { SignJWT } from 'jose';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startTestApp, type TestApp } from '../../support/app';
+import { signUp, withCsrf } from '../../support/session';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await startTestApp();
+});
+afterAll(async () => {
+  await t?.close();
+});
+
+/** A session token shaped like the server's (RFC 7519 claims), signed with `secret`. */
+function token(secret: string, claims: { sub: string; jti: string; exp: number }): Promise<string> {
+  return new SignJWT({})
+    .setProtectedHeader({ alg: 'HS256' })
+    .setIssuer('lariat')
+    .setAudience('lariat-session')
+    .setSubject(claims.sub)
+    .setJti(claims.jti)
+    .setIssuedAt(claims.exp - 3600)
+    .setExpirationTime(claims.exp)
+    .sign(new TextEncoder().encode(secret));
+}
+
+const inAnHour = () => Math.floor(Date.now() / 1000) + 3600;
+
+describe('session tokens', () => {
+  it('rejects a token with a bad signature (401)', async () => {
+    const s = await signUp(t.app);
+    const forged = await token('an-attacker-guess-at-the-secret-of-32-chars', { sub: s.userId, jti: randomUUID(), exp: inAnHour() });
+    const res = await request(t.app).get('/api/auth/me').set('Cookie', `lariat_session=${forged}`);
+    expect(res.status).toBe(401);
+    expect(res.body.error.message).toMatch(/not valid/i);
+  });
+
+  it('rejects a correctly signed token whose session row does not exist (401)', async () => {
+    const s = await signUp(t.app);
+    const made = await token(t.ctx.config.sessionSecret, { sub: s.userId, jti: randomUUID(), exp: inAnHour() });
+    const res = await request(t.app).get('/api/auth/me').set('Cookie', `lariat_session=${made}`);
+    expect(res.status).toBe(401);
+  });
+
+  it('rejects an expired token (401 saying it expired)', async () => {
+    const s = await signUp(t.app);
+    const expired = await token(t.ctx.config.sessionSecret, { sub: s.userId, jti: randomUUID(), exp: Math.floor(Date.now() / 1000) - 60 });
+    const res = await request(t.app).get('/api/auth/me').set('Cookie', `lariat_session=${expired}`);
+    expect(res.status).toBe(401);
+    expect(res.body.error.message).toMatch(/expired/i);
+  });
+
+  it('rejects garbage in the cookie (401)', async () => {
+    const res = await request(t.app).get('/api/workspaces').set('Cookie', 'lariat_session=not.a.jwt');
+    expect(res.status).toBe(401);
+  });
+
+  it('a revoked session cookie replayed by another client is refused', async () => {
+    const s = await signUp(t.app);
+    const me = await s.agent.get('/api/auth/me');
+    const sessionCookie = String(me.request.cookies).match(/lariat_session=[^;]+/)?.[0];
+    expect(sessionCookie, 'the agent sent a session cookie').toBeDefined();
+    expect((await request(t.app).get('/api/auth/me').set('Cookie', sessionCookie as string)).status).toBe(200);
+    expect((await withCsrf(s.agent.post('/api/auth/sign-out'), s.csrf)).status).toBe(204);
+    const replay = await request(t.app).get('/api/auth/me').set('Cookie', sessionCookie as string);
+    expect(replay.status).toBe(401);
+    expect(replay.body.error.message).toMatch(/signed out or expired/i);
+  });
+});
+
+describe('CSRF', () => {
+  it('refuses a state-changing request without the header, or with a wrong one (403)', async () => {
+    const s = await signUp(t.app);
+    const none = await s.agent.post('/api/workspaces').send({ name: 'Sneaky' });
+    expect(none.status).toBe(403);
+    expect(none.body.error.message).toMatch(/X-Lariat-CSRF/);
+    const wrong = await withCsrf(s.agent.post('/api/workspaces'), 'x'.repeat(43)).send({ name: 'Sneaky' });
+    expect(wrong.status).toBe(403);
+    const list = await s.agent.get('/api/workspaces');
+    expect(list.body.workspaces).toHaveLength(1);
+    const right = await withCsrf(s.agent.post('/api/workspaces'), s.csrf).send({ name: 'Fine' });
+    expect(right.status).toBe(201);
+  });
+
+  it('refuses a request from a foreign Origin even with the right token', async () => {
+    const s = await signUp(t.app);
+    const res = await withCsrf(s.agent.post('/api/workspaces'), s.csrf).set('Origin', 'https://evil.example').send({ name: 'X' });
+    expect(res.status).toBe(403);
+    expect(res.body.error.message).toMatch(/evil\.example/);
+    const signIn = await request(t.app).post('/api/auth/sign-in').set('Origin', 'https://evil.example').send({ email: s.email, password: s.password });
+    expect(signIn.status).toBe(403);
+  });
+
+  it('accepts the public origin', async () => {
+    const s = await signUp(t.app);
+    const res = await withCsrf(s.agent.post('/api/workspaces'), s.csrf).set('Origin', new URL(t.ctx.config.publicUrl).origin).send({ name: 'Y' });
+    expect(res.status).toBe(201);
+  });
+
+  it('GET /me hands out the CSRF token the client must echo', async () => {
+    const s = await signUp(t.app);
+    const me = await s.agent.get('/api/auth/me');
+    expect(me.body.csrfToken).toBe(s.csrf);
+  });
+});
+
+describe('cookie flags', () => {
+  it('marks cookies Secure when the public URL is https', async () => {
+    const secure = await startTestApp({ LARIAT_PUBLIC_URL: 'https://lariat.example.test' });
+    try {
+      const res = await request(secure.app).post('/api/auth/sign-up').send({ email: 'secure@example.test', password: 'a fine long passphrase', name: 'S' });
+      expect(res.status).toBe(201);
+      const cookies = (res.headers['set-cookie'] as unknown as string[]).join('\n');
+      expect(cookies).toMatch(/lariat_session=[^\n]*Secure/);
+      expect(cookies).toMatch(/lariat_csrf=[^\n]*Secure/);
+      expect(cookies).not.toMatch(/lariat_csrf=[^\n]*HttpOnly/);
+    } finally {
+      await secure.close();
+    }
+  });
+});
