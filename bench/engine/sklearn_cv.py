@@ -6,7 +6,7 @@ standard deviation, the penalty applies to the standardized coefficients, the la
 and the CV error is the mean over folds of each fold's mean held-out loss. Also fits the full-data
 path, as Lariat does. Prints one JSON object.
 
-usage: sklearn_cv.py DATA.csv RESPONSE FOLD_COLUMN GRID.json TOL FAMILY
+usage: sklearn_cv.py DATA.csv RESPONSE FOLD_COLUMN GRID.json TOL   (gaussian lasso only)
 """
 import json
 import sys
@@ -15,7 +15,7 @@ import time
 import numpy as np
 import sklearn
 from sklearn.exceptions import ConvergenceWarning
-from sklearn.linear_model import LogisticRegression, enet_path
+from sklearn.linear_model import enet_path
 import warnings
 
 warnings.simplefilter("ignore", ConvergenceWarning)
@@ -34,28 +34,14 @@ def gaussian_fold(x_train, y_train, x_test, y_test, grid, tol):
     # precompute='auto' uses the Gram matrix when n > p, as Lariat's design says.
     _, coefs, _ = enet_path(xs, y_train - y_mean, l1_ratio=1.0, alphas=grid, tol=tol,
                             max_iter=100000, precompute="auto")
-    if x_test is None:
+    if y_test is None:
         return None
     eta = y_mean + xt @ coefs  # (n_test, n_lambda)
     return ((y_test[:, None] - eta) ** 2).mean(axis=0)
 
 
-def binomial_fold(x_train, y_train, x_test, y_test, grid, tol):
-    xs, xt = standardize(x_train, x_test)
-    n = xs.shape[0]
-    model = LogisticRegression(penalty="l1", solver="saga", tol=tol, max_iter=100000, warm_start=True)
-    losses = []
-    for lam in grid:
-        model.set_params(C=1.0 / (lam * n))  # Lariat's lambda = 1 / (C n)
-        model.fit(xs, y_train)
-        if x_test is not None:
-            eta = model.decision_function(xt)
-            losses.append(np.mean(-2 * (y_test * eta - np.logaddexp(0, eta))))
-    return np.array(losses) if x_test is not None else None
-
-
 def main():
-    data, response, fold_column, grid_file, tol, family = sys.argv[1:7]
+    data, response, fold_column, grid_file, tol = sys.argv[1:6]
     started = time.perf_counter()
     with open(data) as f:
         header = f.readline().strip().split(",")
@@ -67,12 +53,11 @@ def main():
     with open(grid_file) as f:
         grid = np.array(json.load(f), dtype=float)
     tol = float(tol)
-    fold_fn = gaussian_fold if family == "gaussian" else binomial_fold
-    fold_fn(x, y, x, None, grid, tol)  # the full-data path, as Lariat fits it
+    gaussian_fold(x, y, x, None, grid, tol)  # the full-data path, as Lariat fits it
     per_fold = []
     for k in np.unique(folds):
         test = folds == k
-        per_fold.append(fold_fn(x[~test], y[~test], x[test], y[test], grid, tol))
+        per_fold.append(gaussian_fold(x[~test], y[~test], x[test], y[test], grid, tol))
     mean = np.mean(per_fold, axis=0)
     print(json.dumps({
         "sklearn": sklearn.__version__,

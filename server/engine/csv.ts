@@ -6,6 +6,7 @@
  */
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
+import { parseQuoteFreeRows } from './csv-fast';
 import { EngineInputError, type EngineColumn, type EngineTable } from './types';
 
 const MISSING = new Set(['', 'na', 'n/a', 'nan', 'null', '?']);
@@ -15,16 +16,19 @@ export function isMissingCell(cell: string): boolean {
   return MISSING.has(cell.trim().toLowerCase());
 }
 
-function toColumn(name: string, cells: string[]): EngineColumn {
-  const values = new Float64Array(cells.length);
-  let numeric = true;
-  for (let i = 0; i < cells.length && numeric; i++) {
-    const cell = cells[i].trim();
-    if (isMissingCell(cell)) values[i] = Number.NaN;
-    else if (DECIMAL.test(cell) && Number.isFinite(Number(cell))) values[i] = Number(cell);
-    else numeric = false;
+/** One cell: NaN when missing, its value when a finite decimal, undefined when text. */
+export function classifyCell(raw: string): number | undefined {
+  const cell = raw.trim();
+  if (isMissingCell(cell)) return Number.NaN;
+  if (DECIMAL.test(cell)) {
+    const v = Number(cell);
+    if (Number.isFinite(v)) return v;
   }
-  if (numeric) return { name, kind: 'numeric', values };
+  return undefined;
+}
+
+/** A column of text cells: categorical (levels sorted), missing cells coded -1. */
+export function textColumn(name: string, cells: string[]): EngineColumn {
   const present = cells.map((c) => c.trim()).filter((c) => !isMissingCell(c));
   const levels = [...new Set(present)].sort();
   const code = new Map(levels.map((level, k) => [level, k]));
@@ -35,9 +39,51 @@ function toColumn(name: string, cells: string[]): EngineColumn {
   return { name, kind: 'categorical', codes, levels };
 }
 
+function toColumn(name: string, cells: string[]): EngineColumn {
+  const values = new Float64Array(cells.length);
+  for (let i = 0; i < cells.length; i++) {
+    const v = classifyCell(cells[i]);
+    if (v === undefined) return textColumn(name, cells);
+    values[i] = v;
+  }
+  return { name, kind: 'numeric', values };
+}
+
+function checkHeader(header: string[], file: string): void {
+  header.forEach((name, j) => {
+    if (name === '') throw new EngineInputError(`${file}: column ${j + 1} has an empty name in the header`, 'data');
+    const first = header.indexOf(name);
+    if (first !== j) {
+      throw new EngineInputError(`${file}: column name "${name}" appears twice in the header (columns ${first + 1} and ${j + 1})`, 'data');
+    }
+  });
+}
+
 /** `file` names the source in error messages. Line numbers count the header as line 1. */
 export function parseCsvText(text: string, file: string): EngineTable {
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: false });
+  return parseCsvBytes(Buffer.from(text, 'utf8'), file);
+}
+
+/** UTF-8 bytes (with or without a byte-order mark) -> table; quote-free files take the fast path. */
+export function parseCsvBytes(input: Uint8Array, file: string): EngineTable {
+  const bom = input[0] === 0xef && input[1] === 0xbb && input[2] === 0xbf;
+  const bytes = bom ? input.subarray(3) : input;
+  const decoder = new TextDecoder();
+  if (bytes.indexOf(34) >= 0) return parseGeneralCsv(decoder.decode(bytes), file); // has a quote
+  let headerEnd = bytes.indexOf(10);
+  if (headerEnd < 0) headerEnd = bytes.length;
+  const headerLine = decoder.decode(bytes.subarray(0, headerEnd));
+  if (headerLine.trim() === '' && decoder.decode(bytes).trim() === '') {
+    throw new EngineInputError(`${file}: the file is empty`, 'data');
+  }
+  const header = headerLine.split(',').map((h) => h.trim());
+  checkHeader(header, file);
+  return parseQuoteFreeRows(bytes, file, header, headerEnd + 1, classifyCell, textColumn);
+}
+
+/** Any CSV (quoted cells, embedded commas or newlines) through papaparse. */
+function parseGeneralCsv(text: string, file: string): EngineTable {
+  const parsed = Papa.parse<string[]>(text, { skipEmptyLines: false, delimiter: ',' });
   const bad = parsed.errors.find((e) => e.type !== 'Delimiter');
   if (bad) {
     const line = bad.row === undefined ? '' : ` at line ${bad.row + 1}`;
@@ -47,13 +93,7 @@ export function parseCsvText(text: string, file: string): EngineTable {
   while (rows.length > 0 && rows[rows.length - 1].every((c) => c.trim() === '')) rows.pop();
   if (rows.length === 0) throw new EngineInputError(`${file}: the file is empty`, 'data');
   const header = rows[0].map((h) => h.trim());
-  header.forEach((name, j) => {
-    if (name === '') throw new EngineInputError(`${file}: column ${j + 1} has an empty name in the header`, 'data');
-    const first = header.indexOf(name);
-    if (first !== j) {
-      throw new EngineInputError(`${file}: column name "${name}" appears twice in the header (columns ${first + 1} and ${j + 1})`, 'data');
-    }
-  });
+  checkHeader(header, file);
   const cells: string[][] = header.map(() => []);
   for (let r = 1; r < rows.length; r++) {
     const row = rows[r];
@@ -71,11 +111,11 @@ export function parseCsvText(text: string, file: string): EngineTable {
 }
 
 export function readCsvFile(path: string): EngineTable {
-  let text: string;
+  let bytes: Uint8Array;
   try {
-    text = readFileSync(path, 'utf8');
+    bytes = readFileSync(path);
   } catch (error) {
     throw new EngineInputError(`cannot read data file ${path}: ${(error as Error).message}`, 'data');
   }
-  return parseCsvText(text, path);
+  return parseCsvBytes(bytes, path);
 }
