@@ -1,16 +1,126 @@
-import type { DesignMatrix, EngineTable, FitSpec, PathOptions, PathResult } from '../types';
+import { buildDesign } from '../design/build';
+import { validateSpec } from '../design/validate';
+import type { DesignMatrix, EngineTable, FitSpec, PathOptions, PathResult, SolveInfo } from '../types';
+import { defaultLambdaRatio, lambdaGrid } from './grid';
+import { pathOptionsFromSpec } from './fromSpec';
+import { checkPathOptions, prepareProblem } from './setup';
+import { solveAtLambda, type LambdaState } from './solveAtLambda';
 
-/** Not yet implemented (signature stable). */
+const DEFAULT_TOLERANCE = 1e-7;
+const DEFAULT_MAX_ITERATIONS = 10000;
+
+/**
+ * Fits the regularization path on an encoded design (objectives in types.ts). Standardization is
+ * learnt from these rows. The path (scikit-learn's path functions are the model, STYLE.md 11): exact
+ * lambda_max from the null model, the log-spaced grid or the explicit lambdas, warm starts, screening
+ * and one typed SolveInfo per lambda. Early stop (options.earlyStop, off by default): after the
+ * third lambda, stop once the deviance ratio changes by less than 1e-5 (relative) between lambdas or
+ * exceeds 0.999.
+ */
 export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
-  void design;
-  void y;
-  void options;
-  throw new Error('fitPathOnDesign: not implemented yet');
+  checkPathOptions(design, y, options);
+  const { problem, std, nullFit, dual, lambdaMax } = prepareProblem(design, y, options);
+  const { n, p } = design;
+  const notes: string[] = [];
+  for (let j = 0; j < p; j++) {
+    if (std.constant[j]) notes.push(`column "${design.terms[j]}" is constant over the rows fitted; its coefficient is 0`);
+  }
+  let grid = options.lambda ? [...options.lambda] : null;
+  if (!grid) {
+    if (lambdaMax > 0) grid = lambdaGrid(lambdaMax, options.pathLength ?? 100, options.lambdaRatio ?? defaultLambdaRatio(n, p));
+    else {
+      notes.push('no penalized column has a non-zero gradient at the null model: the path is the single lambda 0');
+      grid = [0];
+    }
+  }
+  const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
+  const state: LambdaState = { coef: Float64Array.from(nullFit.coef), intercept: nullFit.intercept, g: Float64Array.from(nullFit.g), loss: problem.nullObjective };
+  const lipschitz = { value: 0 };
+  const result: PathResult = {
+    family: options.family,
+    terms: [...design.terms],
+    lambda: [],
+    lambdaMax,
+    intercept: [],
+    coefficients: [],
+    standardizedIntercept: [],
+    standardizedCoefficients: [],
+    solves: [],
+    nonzero: [],
+    devianceRatio: [],
+    notes,
+    centers: std.centers,
+    scales: std.scales,
+    nullObjective: problem.nullObjective,
+  };
+  let previous = Math.max(lambdaMax, grid[0]);
+  for (const lambda of grid) {
+    const info: SolveInfo = solveAtLambda(problem, dual, state, {
+      lambda,
+      previousLambda: previous,
+      tolerance,
+      maxIterations: options.maxIterations ?? DEFAULT_MAX_ITERATIONS,
+      screening: options.screening ?? 'strong',
+    }, lipschitz);
+    previous = lambda;
+    record(result, state, info, lambda, problem.yMean, std, options.standardize, dual, problem);
+    if (options.earlyStop && shouldStop(result.devianceRatio)) {
+      notes.push(`path stopped early after ${result.lambda.length} lambdas: the deviance ratio stopped improving`);
+      break;
+    }
+  }
+  return result;
 }
 
-/** Not yet implemented (signature stable). */
+function shouldStop(ratios: number[]): boolean {
+  const k = ratios.length;
+  if (k < 3) return false;
+  const last = ratios[k - 1];
+  return last > 0.999 || Math.abs(last - ratios[k - 2]) < 1e-5 * Math.max(Math.abs(last), 1e-12);
+}
+
+function record(
+  result: PathResult,
+  state: LambdaState,
+  info: SolveInfo,
+  lambda: number,
+  yMean: number,
+  std: ReturnType<typeof prepareProblem>['std'],
+  standardize: boolean,
+  dual: ReturnType<typeof prepareProblem>['dual'],
+  problem: ReturnType<typeof prepareProblem>['problem'],
+): void {
+  void dual;
+  const p = state.coef.length;
+  const standardized = Float64Array.from(state.coef);
+  const original = new Float64Array(p);
+  let nonzero = 0;
+  const internalIntercept = problem.family === 'gaussian' ? yMean : state.intercept;
+  let intercept = internalIntercept;
+  for (let j = 0; j < p; j++) {
+    if (standardized[j] === 0 || std.scales[j] === 0) continue;
+    nonzero++;
+    original[j] = standardized[j] / std.scales[j];
+    intercept -= std.centers[j] * original[j];
+  }
+  result.lambda.push(lambda);
+  result.coefficients.push(original);
+  result.intercept.push(intercept);
+  result.standardizedCoefficients.push(standardize ? standardized : original);
+  // On the standardized scale the columns are centred, so the intercept is the internal one.
+  result.standardizedIntercept.push(standardize ? internalIntercept : intercept);
+  result.solves.push(info);
+  result.nonzero.push(nonzero);
+  result.devianceRatio.push(1 - state.loss / problem.nullObjective);
+}
+
+/** Table level: validateSpec, buildDesign, then fitPathOnDesign; the result carries the encoding. */
 export function fitPath(table: EngineTable, spec: FitSpec): PathResult {
-  void table;
-  void spec;
-  throw new Error('fitPath: not implemented yet');
+  validateSpec(table, spec);
+  const built = buildDesign(table, spec);
+  const options = pathOptionsFromSpec(spec, built);
+  const result = fitPathOnDesign(built.design, built.y, options);
+  result.notes.unshift(...built.notes);
+  result.encoding = built.encoding;
+  return result;
 }

@@ -1,4 +1,5 @@
 import type { DesignMatrix, PathOptions } from '../types';
+import { checkPathOptions, prepareProblem } from './setup';
 
 /** Common practice: lambda_min / lambda_max = 1e-4 when n > p, 1e-2 otherwise. */
 export function defaultLambdaRatio(n: number, p: number): number {
@@ -16,13 +17,11 @@ export function lambdaGrid(lambdaMax: number, length: number, ratio: number): nu
 }
 
 /**
- * The smallest lambda at which every penalized coefficient is zero, from the gradient of the loss
- * at the null model (intercept and unpenalized columns fitted, the rest zero), on the standardized
- * scale when options.standardize. Not yet implemented.
+ * The smallest lambda at which every penalized coefficient is zero: max over penalized blocks of
+ * ||grad_u|| / (w_u alpha), the gradient taken at the null model (intercept and unpenalized columns
+ * fitted, the rest zero), on the standardized scale when options.standardize.
  */
 export function computeLambdaMax(design: DesignMatrix, y: Float64Array, options: PathOptions): number {
-  void design;
-  void y;
-  void options;
-  throw new Error('computeLambdaMax: not implemented yet');
+  checkPathOptions(design, y, options);
+  return prepareProblem(design, y, options).lambdaMax;
 }

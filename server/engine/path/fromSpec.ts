@@ -1,0 +1,61 @@
+import type { BuiltDesign } from '../design/build';
+import { EngineInputError, type FitSpec, type PathOptions } from '../types';
+
+/**
+ * Table-level spec -> PathOptions for the encoded design. Groups: each named group of columns is one
+ * group; a categorical predictor's indicators always share a group; remaining columns are groups of
+ * their own. Penalty factors may be given per predictor (applied to all its indicators) or per term.
+ */
+export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOptions {
+  const terms = built.design.terms;
+  const p = terms.length;
+  const columnOf = terms.map((term) => {
+    const enc = built.encoding.columns.find((c) => (c.kind === 'numeric' ? c.term === terms.indexOf(term) : c.terms.includes(terms.indexOf(term))));
+    return enc ? enc.column : term;
+  });
+  const factors = new Float64Array(p).fill(1);
+  for (const [key, value] of Object.entries(spec.penaltyFactors ?? {})) {
+    let matched = false;
+    for (let j = 0; j < p; j++) {
+      if (terms[j] === key || columnOf[j] === key) {
+        factors[j] = value;
+        matched = true;
+      }
+    }
+    if (!matched && !spec.predictors.includes(key)) {
+      throw new EngineInputError(`penalty factor for unknown column "${key}"`, 'penaltyFactors');
+    }
+  }
+  const options: PathOptions = {
+    family: spec.family,
+    penalty: spec.penalty,
+    alpha: spec.alpha,
+    penaltyFactors: factors,
+    standardize: spec.standardize,
+    pathLength: spec.pathLength,
+    tolerance: spec.tolerance,
+    maxIterations: spec.maxIterations,
+    screening: spec.screening,
+  };
+  if (spec.lambda) options.lambda = spec.lambda;
+  if (spec.lambdaRatio !== undefined) options.lambdaRatio = spec.lambdaRatio;
+  if (spec.penalty === 'group-lasso') {
+    const groupOf = new Int32Array(p).fill(-1);
+    let next = 0;
+    for (const columns of Object.values(spec.groups ?? {})) {
+      const id = next++;
+      for (let j = 0; j < p; j++) if (columns.includes(columnOf[j])) groupOf[j] = id;
+    }
+    const categoricalGroup = new Map<number, number>();
+    for (let j = 0; j < p; j++) {
+      if (groupOf[j] >= 0) continue;
+      const cat = built.groupsOfTerms[j];
+      if (cat >= 0) {
+        if (!categoricalGroup.has(cat)) categoricalGroup.set(cat, next++);
+        groupOf[j] = categoricalGroup.get(cat) as number;
+      } else groupOf[j] = next++;
+    }
+    options.groupOfTerm = groupOf;
+  }
+  return options;
+}

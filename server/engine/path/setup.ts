@@ -1,0 +1,149 @@
+import { DualContext } from '../core/dual';
+import { GramCache } from '../core/gram';
+import { buildBlockPenalty } from '../core/penalty';
+import type { Problem } from '../core/problem';
+import { standardizeDesign, type StandardizedDesign } from '../core/standardize';
+import { EngineInputError, type DesignMatrix, type PathOptions } from '../types';
+import { fitNullModel, type NullFit } from './nullFit';
+import { penaltyLambdaMax } from '../core/penalty';
+
+export interface PreparedProblem {
+  problem: Problem;
+  std: StandardizedDesign;
+  nullFit: NullFit;
+  dual: DualContext;
+  lambdaMax: number;
+}
+
+/** Checks PathOptions on a design; throws EngineInputError naming the field. */
+export function checkPathOptions(design: DesignMatrix, y: Float64Array, options: PathOptions): void {
+  const { n, p } = design;
+  if (n < 2) throw new EngineInputError(`at least two rows are needed to fit; got ${n}`, 'data');
+  if (y.length !== n) throw new EngineInputError(`response has ${y.length} values for ${n} rows`, 'response');
+  if (options.penalty !== 'group-lasso' && !(options.alpha > 0 && options.alpha <= 1)) {
+    throw new EngineInputError(`alpha must be in (0, 1]; got ${options.alpha}`, 'alpha');
+  }
+  if (options.lambda) {
+    if (options.lambda.length === 0) throw new EngineInputError('lambda: give at least one value', 'lambda');
+    options.lambda.forEach((l, k) => {
+      if (!Number.isFinite(l) || l < 0) throw new EngineInputError(`lambda values must be finite and >= 0; value ${k + 1} is ${l}`, 'lambda');
+      if (k > 0 && !(l < options.lambda![k - 1])) {
+        throw new EngineInputError(`lambda values must be strictly descending; value ${k + 1} (${l}) follows ${options.lambda![k - 1]}`, 'lambda');
+      }
+    });
+  }
+  if (options.pathLength !== undefined && !(Number.isInteger(options.pathLength) && options.pathLength >= 1)) {
+    throw new EngineInputError(`path length must be a whole number >= 1; got ${options.pathLength}`, 'pathLength');
+  }
+  if (options.lambdaRatio !== undefined && !(options.lambdaRatio > 0 && options.lambdaRatio < 1)) {
+    throw new EngineInputError(`lambda ratio must be in (0, 1); got ${options.lambdaRatio}`, 'lambdaRatio');
+  }
+  if (options.tolerance !== undefined && !(options.tolerance > 0 && Number.isFinite(options.tolerance))) {
+    throw new EngineInputError(`tolerance must be a positive number; got ${options.tolerance}`, 'tolerance');
+  }
+  if (options.maxIterations !== undefined && !(Number.isInteger(options.maxIterations) && options.maxIterations >= 1)) {
+    throw new EngineInputError(`iteration limit must be a whole number >= 1; got ${options.maxIterations}`, 'maxIterations');
+  }
+  const factors = options.penaltyFactors;
+  if (factors) {
+    if (factors.length !== p) throw new EngineInputError(`penalty factors: ${factors.length} values for ${p} columns`, 'penaltyFactors');
+    for (let j = 0; j < p; j++) {
+      if (!(factors[j] >= 0 && Number.isFinite(factors[j]))) {
+        throw new EngineInputError(`penalty factor of "${design.terms[j]}" must be finite and >= 0; got ${factors[j]}`, 'penaltyFactors');
+      }
+    }
+  }
+  if (options.groupOfTerm && options.groupOfTerm.length !== p) {
+    throw new EngineInputError(`groups: ${options.groupOfTerm.length} assignments for ${p} columns`, 'groups');
+  }
+  if (options.groupWeights) {
+    for (let g = 0; g < options.groupWeights.length; g++) {
+      if (!(options.groupWeights[g] >= 0 && Number.isFinite(options.groupWeights[g]))) {
+        throw new EngineInputError(`group weight ${g} must be finite and >= 0; got ${options.groupWeights[g]}`, 'groups');
+      }
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(y[i])) throw new EngineInputError(`response has a non-finite value in row ${i + 1}`, 'response');
+    if (options.family === 'binomial' && y[i] !== 0 && y[i] !== 1) {
+      throw new EngineInputError(`binomial response must be 0 or 1; row ${i + 1} has ${y[i]}`, 'response');
+    }
+  }
+  for (let k = 0; k < n * p; k++) {
+    if (!Number.isFinite(design.x[k])) {
+      const j = Math.floor(k / n);
+      throw new EngineInputError(`column "${design.terms[j]}" has a non-finite value in row ${(k % n) + 1}`, design.terms[j]);
+    }
+  }
+}
+
+/** Gram form for gaussian fits when n is well above p (n >= 2p and p <= 2000), unless overridden. */
+function wantsGram(options: PathOptions, n: number, p: number): boolean {
+  if (options.family !== 'gaussian') return false;
+  if (options.gram === 'always') return true;
+  if (options.gram === 'never') return false;
+  return n >= 2 * p && p <= 2000;
+}
+
+export function prepareProblem(design: DesignMatrix, y: Float64Array, options: PathOptions): PreparedProblem {
+  const { n, p } = design;
+  const std = standardizeDesign(design, options.standardize);
+  const isGroup = options.penalty === 'group-lasso';
+  const alpha = options.penalty === 'elastic-net' ? options.alpha : 1;
+  const factor = (j: number): number => (options.penaltyFactors ? options.penaltyFactors[j] : 1);
+  const penalty = buildBlockPenalty(p, std.constant, alpha, isGroup ? (options.groupOfTerm ?? null) : null, (id, size, members) =>
+    isGroup ? (options.groupWeights && id < options.groupWeights.length ? options.groupWeights[id] : Math.sqrt(size)) * factor(members[0]) : factor(members[0]),
+  );
+
+  let yMean = 0;
+  for (let i = 0; i < n; i++) yMean += y[i];
+  yMean /= n;
+  const yWork = new Float64Array(n);
+  let yy = 0;
+  for (let i = 0; i < n; i++) {
+    yWork[i] = options.family === 'gaussian' ? y[i] - yMean : y[i];
+    yy += (y[i] - yMean) * (y[i] - yMean);
+  }
+  if (options.family === 'gaussian' && yy === 0) throw new EngineInputError('the response is constant: there is nothing to fit', 'response');
+  if (options.family === 'binomial' && (yMean === 0 || yMean === 1)) {
+    throw new EngineInputError(`the binomial response has only ${yMean === 0 ? 0 : 1}s: both classes are needed`, 'response');
+  }
+  const c = new Float64Array(p);
+  const colNormSq = new Float64Array(p);
+  for (let j = 0; j < p; j++) {
+    let s = 0;
+    let sq = 0;
+    const off = j * n;
+    for (let i = 0; i < n; i++) {
+      s += std.x[off + i] * yWork[i];
+      sq += std.x[off + i] * std.x[off + i];
+    }
+    c[j] = options.family === 'gaussian' ? s / n : 0;
+    colNormSq[j] = sq;
+  }
+  const nullObjective =
+    options.family === 'gaussian' ? yy / (2 * n) : -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean));
+  const problem: Problem = {
+    family: options.family,
+    n,
+    p,
+    x: std.x,
+    y: yWork,
+    yMean,
+    yy,
+    c,
+    gram: new GramCache(std.x, n, p),
+    useGram: wantsGram(options, n, p),
+    penalty,
+    colNormSq,
+    nullObjective,
+  };
+  const fixedU: number[] = [];
+  for (let u = 0; u < penalty.nBlocks; u++) {
+    if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);
+  }
+  const nullFit = fitNullModel(problem, Int32Array.from(fixedU));
+  const lambdaMax = penaltyLambdaMax(penalty, nullFit.g);
+  const dual = new DualContext(problem, nullFit.theta, nullFit.g, lambdaMax);
+  return { problem, std, nullFit, dual, lambdaMax };
+}

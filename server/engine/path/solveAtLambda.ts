@@ -1,0 +1,193 @@
+import type { DualContext } from '../core/dual';
+import { fista } from '../core/fista';
+import { bindLoss } from '../core/loss';
+import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
+import type { Problem, WorkingSet } from '../core/problem';
+import { makeWorkingSet, sigmoid } from '../core/problem';
+import type { Screening, SolveInfo } from '../types';
+import { checkFull, type FullCheck } from './check';
+
+export interface LambdaState {
+  /** Standardized-scale coefficients (column-indexed), updated in place. */
+  coef: Float64Array;
+  /** binomial intercept (standardized scale). */
+  intercept: number;
+  /** X'theta_raw at the current point (-gradient), from the last full check. */
+  g: Float64Array;
+  /** Loss value at the current point, from the last full check. */
+  loss: number;
+}
+
+export interface LambdaOptions {
+  lambda: number;
+  previousLambda: number;
+  tolerance: number;
+  maxIterations: number;
+  screening: Screening;
+}
+
+const CHECK_EVERY = 10;
+
+/**
+ * Solves at one lambda from the warm start in `state`. Working set: with 'strong', the sequential
+ * strong rule (Tibshirani et al. 2012, "Strong rules for discarding predictors in lasso-type
+ * problems", JRSS B 74): keep block u if ||g_u(previous)|| >= w_u alpha (2 lambda - previous
+ * lambda), plus the blocks already non-zero and the unpenalized ones; after solving, the KKT
+ * conditions are checked on every discarded block and violators are added and the problem re-solved.
+ * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda w_u,
+ * r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong concavity
+ * (alpha = 1 only; the elastic net falls back to the strong rule). 'none': every block.
+ */
+export function solveAtLambda(
+  problem: Problem,
+  dual: DualContext,
+  state: LambdaState,
+  options: LambdaOptions,
+  lipschitz: { value: number },
+): SolveInfo {
+  const started = performance.now();
+  const pen = problem.penalty;
+  const allBlocks = Int32Array.from({ length: pen.nBlocks }, (_, u) => u);
+  const { lambda, tolerance } = options;
+  const intercept = problem.family === 'binomial';
+  const keep = new Uint8Array(pen.nBlocks);
+  if (options.screening === 'none' || lambda === 0) keep.fill(1);
+  else if (options.screening === 'gap-safe' && pen.alpha >= 1) gapSafe(problem, dual, state, allBlocks, lambda, keep);
+  else {
+    const threshold = pen.alpha * (2 * lambda - options.previousLambda);
+    for (let u = 0; u < pen.nBlocks; u++) {
+      if (pen.weight[u] === 0 || blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) {
+        keep[u] = 1;
+      }
+    }
+  }
+
+  let iterations = 0;
+  let status: SolveInfo['status'] = 'converged';
+  let check: FullCheck | null = null;
+  let restrictedTolerance = tolerance;
+  for (let round = 0; round < 50; round++) {
+    const ws = makeWorkingSet(pen, allBlocks.filter((u) => keep[u] === 1), intercept);
+    const outcome = solveRestricted(problem, dual, ws, state, lambda, {
+      tolerance: restrictedTolerance,
+      maxIterations: Math.max(1, options.maxIterations - iterations),
+      lipschitz,
+    });
+    iterations += outcome.iterations;
+    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+    state.g = check.g;
+    state.loss = check.loss;
+    if (outcome.status !== 'converged' || !Number.isFinite(check.gap)) {
+      status = Number.isFinite(check.gap) && outcome.status !== 'numerical-failure' ? 'iteration-limit' : 'numerical-failure';
+      break;
+    }
+    let violations = 0;
+    for (let u = 0; u < pen.nBlocks; u++) {
+      if (!keep[u] && blockNorm(pen, u, check.g) > lambda * pen.weight[u] * pen.alpha) {
+        keep[u] = 1;
+        violations++;
+      }
+    }
+    if (violations === 0) {
+      if (check.gap <= tolerance) break;
+      // Rounding can leave the full gap a hair above the restricted one: tighten and go again.
+      restrictedTolerance /= 10;
+    }
+    if (iterations >= options.maxIterations) {
+      status = check.gap <= tolerance ? 'converged' : 'iteration-limit';
+      break;
+    }
+  }
+  const gap = check ? check.gap : NaN;
+  if (status === 'converged' && !(gap <= tolerance)) status = 'iteration-limit';
+  return {
+    status,
+    message: describe(status, gap, tolerance, iterations),
+    gap,
+    tolerance,
+    iterations,
+    timeMs: performance.now() - started,
+  };
+}
+
+function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number): string {
+  if (status === 'converged') return `converged: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+  if (status === 'iteration-limit') {
+    return `stopped at the iteration limit (${iterations}) with relative duality gap ${gap.toExponential(2)} > tolerance ${tolerance}`;
+  }
+  return `numerical failure (non-finite values) after ${iterations} iterations`;
+}
+
+function gapSafe(problem: Problem, dual: DualContext, state: LambdaState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
+  const pen = problem.penalty;
+  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+  const gamma = problem.family === 'gaussian' ? problem.n : 4 * problem.n;
+  const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / gamma);
+  for (let u = 0; u < pen.nBlocks; u++) {
+    if (pen.weight[u] === 0) {
+      keep[u] = 1;
+      continue;
+    }
+    let frob = 0;
+    for (let i = pen.start[u]; i < pen.start[u + 1]; i++) frob += problem.colNormSq[pen.features[i]];
+    const bound = blockNorm(pen, u, check.dual.a) + radius * Math.sqrt(frob);
+    keep[u] = !Number.isFinite(bound) || bound >= lambda * pen.weight[u] ? 1 : 0;
+    if (!keep[u]) for (let i = pen.start[u]; i < pen.start[u + 1]; i++) state.coef[pen.features[i]] = 0;
+  }
+}
+
+function solveRestricted(
+  problem: Problem,
+  dual: DualContext,
+  ws: WorkingSet,
+  state: LambdaState,
+  lambda: number,
+  options: { tolerance: number; maxIterations: number; lipschitz: { value: number } },
+) {
+  const { n, y } = problem;
+  const pen = problem.penalty;
+  const loss = bindLoss(problem, ws);
+  const w = new Float64Array(ws.size);
+  for (let b = 0; b < ws.k; b++) w[b] = state.coef[ws.features[b]];
+  if (ws.size > ws.k) w[ws.k] = state.intercept;
+  const g = new Float64Array(problem.p);
+  const grad = new Float64Array(ws.size);
+  const theta = problem.family === 'binomial' ? new Float64Array(n) : null;
+  const gap = (v: Float64Array, img: Float64Array): number => {
+    const value = loss.value(img, v);
+    let ycTheta = 0;
+    if (problem.family === 'binomial' && theta) {
+      for (let i = 0; i < n; i++) theta[i] = (y[i] - sigmoid(img[i])) / n;
+      loss.gradient(img, v, grad);
+    } else if (problem.useGram) {
+      loss.gradient(img, v, grad);
+      ycTheta = problem.yy / n;
+      for (let b = 0; b < ws.k; b++) ycTheta -= problem.c[ws.features[b]] * v[b];
+    } else {
+      for (let i = 0; i < n; i++) ycTheta += (y[i] * (y[i] - img[i])) / n;
+      loss.gradient(img, v, grad);
+    }
+    for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
+    const penalty = penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda);
+    const result = dual.gap({ lambda, blocks: ws.blocks, g, loss: value, penalty, ycTheta, theta });
+    return result.gap / problem.nullObjective;
+  };
+  // The Lipschitz estimate is carried along the path; a power iteration only starts it off.
+  if (options.lipschitz.value <= 0) options.lipschitz.value = loss.lipschitz();
+  const estimate = options.lipschitz.value;
+  const outcome = fista(
+    {
+      size: ws.size,
+      loss,
+      prox: (z, out, step) => penaltyProx(pen, ws.blocks, ws.blockStart, z, out, step * lambda),
+      penalty: (v) => penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda),
+      gap,
+    },
+    w,
+    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
+  );
+  options.lipschitz.value = outcome.lipschitz;
+  for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
+  if (ws.size > ws.k) state.intercept = w[ws.k];
+  return outcome;
+}
