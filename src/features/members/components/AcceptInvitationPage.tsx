@@ -1,5 +1,4 @@
 import { useNavigate, useParams } from 'react-router';
-import type { MeDto } from '@shared/auth';
 import { ROLE_LABELS } from '@shared/members';
 import { paths } from '@/app/paths';
 import { AuthCard, TextLink } from '@/components/AuthCard';
@@ -19,12 +18,7 @@ export function AcceptInvitationPage() {
   const me = useMe();
   const accept = useAcceptInvitation(token);
 
-  const goToWorkspace = (answer: MeDto | undefined, workspaceName: string) => {
-    // The invitation names its workspace but not its id; the membership list after joining does both.
-    const memberships = answer?.memberships ?? [];
-    const joined = [...memberships].reverse().find((m) => m.workspaceName === workspaceName) ?? memberships[0];
-    navigate(joined ? paths.workspace.root.getHref(joined.workspaceId) : paths.home.getHref(), { replace: true });
-  };
+  const goToWorkspace = (workspaceId: string) => navigate(paths.workspace.root.getHref(workspaceId), { replace: true });
 
   if (preview.isPending || me.isPending) {
     return (
@@ -65,8 +59,7 @@ export function AcceptInvitationPage() {
               busyLabel="Joining…"
               onClick={async () => {
                 try {
-                  const answer = await accept.mutateAsync({});
-                  goToWorkspace(answer ?? (await me.refetch()).data ?? undefined, invite.workspaceName);
+                  goToWorkspace((await accept.mutateAsync({})).workspaceId);
                 } catch {
                   // shown above from accept.error
                 }
@@ -93,8 +86,7 @@ export function AcceptInvitationPage() {
       <NewAccountForm
         email={invite.email}
         onSubmit={async (values) => {
-          const answer = await accept.mutateAsync(values);
-          goToWorkspace(answer ?? (await me.refetch()).data ?? undefined, invite.workspaceName);
+          goToWorkspace((await accept.mutateAsync(values)).workspaceId);
         }}
       />
     </AuthCard>

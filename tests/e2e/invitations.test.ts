@@ -1,0 +1,132 @@
+/**
+ * Invitations end to end: an admin invites by e-mail, the link is read from the captured e-mail,
+ * the invitee sets a password in another browser profile and lands in the workspace with the
+ * invited role; a viewer sees members read-only and the server refuses forced requests.
+ */
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkA11y, expectVisible, launchBrowser, newContext } from '../support/browser';
+import { PASSWORD, csrfHeader, newAccount, signUp, uniqueEmail, waitForEmail } from '../support/e2e-flows';
+
+let browser: Browser;
+let adminContext: BrowserContext;
+let admin: Page;
+let viewerContext: BrowserContext;
+let viewer: Page;
+const owner = newAccount('owner');
+const viewerEmail = uniqueEmail('viewer');
+let workspaceId = '';
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  adminContext = await newContext(browser);
+  admin = await adminContext.newPage();
+  viewerContext = await newContext(browser);
+  viewer = await viewerContext.newPage();
+  workspaceId = await signUp(admin, owner);
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function invite(email: string, role: string): Promise<void> {
+  await admin.goto(`/w/${workspaceId}/members`);
+  const form = admin.getByRole('region', { name: 'Invite a teammate' });
+  await form.getByLabel('E-mail').fill(email);
+  await form.getByLabel('Role').selectOption({ label: role });
+  await form.getByRole('button', { name: 'Send invitation' }).click();
+  await expectVisible(admin.getByText(`Invitation sent to ${email}.`));
+}
+
+describe('invitations', () => {
+  it('lets the admin invite by e-mail, and lists the invitation as pending', async () => {
+    await invite(viewerEmail, 'Viewer');
+    const pending = admin.getByRole('region', { name: 'Pending invitations' });
+    await expectVisible(pending.getByText(viewerEmail));
+    await checkA11y(admin, 'members page with a pending invitation');
+  });
+
+  it('shows the captured e-mail in the outbox with its link clickable', async () => {
+    const { link } = await waitForEmail(adminContext, viewerEmail, '/invitations/');
+    await admin.goto(`/w/${workspaceId}/outbox`);
+    await expectVisible(admin.getByRole('link', { name: link }));
+    await checkA11y(admin, 'outbox with messages');
+  });
+
+  it('lets the invitee set a name and password and land in the workspace as a viewer', async () => {
+    const { link } = await waitForEmail(adminContext, viewerEmail, '/invitations/');
+    await viewer.goto(new URL(link).pathname);
+    await expectVisible(viewer.getByRole('heading', { name: `Join ${owner.workspaceName}` }));
+    expect(await viewer.getByLabel('E-mail').inputValue()).toBe(viewerEmail);
+    await checkA11y(viewer, 'accept-invitation page');
+
+    await viewer.getByLabel('Your name').fill('Vera Viewer');
+    await viewer.getByLabel('Choose a password').fill(PASSWORD);
+    await viewer.getByRole('button', { name: 'Join workspace' }).click();
+    await viewer.waitForURL(new RegExp(`/w/${workspaceId}/datasets$`));
+    expect(await viewer.locator('#workspace-switcher option:checked').textContent()).toBe(`${owner.workspaceName} (Viewer)`);
+  });
+
+  it('shows a viewer the members read-only: no invite form, no role or remove controls, no outbox', async () => {
+    await viewer.getByRole('link', { name: 'Members' }).click();
+    await expectVisible(viewer.getByRole('cell', { name: owner.email }));
+    await expectVisible(viewer.getByText('Only admins can invite people or change roles.'));
+    expect(await viewer.getByRole('heading', { name: 'Invite a teammate' }).count()).toBe(0);
+    expect(await viewer.getByRole('button', { name: /Remove/ }).count()).toBe(0);
+    expect(await viewer.getByRole('region', { name: 'Pending invitations' }).count()).toBe(0);
+    // The only select on the page is the workspace switcher: roles are plain text.
+    expect(await viewer.getByRole('combobox').count()).toBe(1);
+    expect(await viewer.getByRole('link', { name: /Outbox/ }).count()).toBe(0);
+    await checkA11y(viewer, 'members page (viewer)');
+  });
+
+  it('answers 403 when a viewer forces the admin-only requests', async () => {
+    const headers = await csrfHeader(viewerContext);
+    const inviteAttempt = await viewerContext.request.post(`/api/workspaces/${workspaceId}/invitations`, {
+      data: { email: uniqueEmail('sneaky'), role: 'admin' },
+      headers,
+    });
+    expect(inviteAttempt.status()).toBe(403);
+    const members = (await (await viewerContext.request.get(`/api/workspaces/${workspaceId}/members`)).json()) as { members: { userId: string; email: string }[] };
+    const ownerId = members.members.find((m) => m.email === owner.email)?.userId;
+    expect(ownerId).toBeTruthy();
+    const demote = await viewerContext.request.patch(`/api/workspaces/${workspaceId}/members/${ownerId}`, { data: { role: 'viewer' }, headers });
+    expect(demote.status()).toBe(403);
+    expect((await viewerContext.request.get('/api/dev/outbox')).status()).toBe(403);
+  });
+
+  it('lets the admin change the new member\'s role, which the member then sees', async () => {
+    await admin.goto(`/w/${workspaceId}/members`);
+    await expectVisible(admin.getByText('No invitations are waiting for an answer.'));
+    const roleSelect = admin.getByLabel('Role of Vera Viewer');
+    expect(await roleSelect.inputValue()).toBe('viewer');
+    await roleSelect.selectOption('analyst');
+    await admin.waitForResponse((r) => r.url().includes('/members') && r.request().method() === 'GET');
+    await viewer.reload();
+    await expectVisible(viewer.getByText('Analyst', { exact: true }).first());
+    expect(await viewer.locator('#workspace-switcher option:checked').textContent()).toBe(`${owner.workspaceName} (Analyst)`);
+  });
+
+  it('revokes a pending invitation, after which its link no longer works', async () => {
+    const email = uniqueEmail('revoked');
+    await invite(email, 'Reviewer');
+    const { link } = await waitForEmail(adminContext, email, '/invitations/');
+    await admin.getByRole('button', { name: `Revoke the invitation for ${email}` }).click();
+    await expectVisible(admin.getByText('No invitations are waiting for an answer.'));
+
+    const stranger = await newContext(browser);
+    const page = await stranger.newPage();
+    await page.goto(new URL(link).pathname);
+    await expectVisible(page.getByRole('heading', { name: 'This invitation cannot be used' }));
+    await checkA11y(page, 'revoked invitation page');
+    await stranger.close();
+  });
+
+  it('lets the admin remove a member after confirming', async () => {
+    await admin.getByRole('button', { name: 'Remove Vera Viewer' }).click();
+    await admin.getByRole('button', { name: 'Yes, remove' }).click();
+    await admin.getByRole('cell', { name: viewerEmail }).waitFor({ state: 'detached' });
+    expect((await viewerContext.request.get(`/api/workspaces/${workspaceId}/members`)).status()).toBeGreaterThanOrEqual(403);
+  });
+});

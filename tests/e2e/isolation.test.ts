@@ -1,0 +1,59 @@
+/** No data crosses workspaces: someone from workspace B who opens A's address gets "not found". */
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkA11y, expectVisible, launchBrowser, newContext } from '../support/browser';
+import { newAccount, signUp } from '../support/e2e-flows';
+
+let browser: Browser;
+let contextA: BrowserContext;
+let contextB: BrowserContext;
+let pageA: Page;
+let pageB: Page;
+const alice = newAccount('alice');
+const bruno = newAccount('bruno');
+let workspaceA = '';
+let workspaceB = '';
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  contextA = await newContext(browser);
+  contextB = await newContext(browser);
+  pageA = await contextA.newPage();
+  pageB = await contextB.newPage();
+  workspaceA = await signUp(pageA, alice);
+  workspaceB = await signUp(pageB, bruno);
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe('workspace isolation', () => {
+  it('gives separate sign-ups separate workspaces', () => {
+    expect(workspaceA).not.toBe(workspaceB);
+  });
+
+  it("shows B a not-found page at A's members address, without A's data", async () => {
+    for (const area of ['members', 'models', 'datasets']) {
+      await pageB.goto(`/w/${workspaceA}/${area}`);
+      await expectVisible(pageB.getByRole('heading', { name: 'Page not found' }));
+      const text = await pageB.locator('body').innerText();
+      expect(text).not.toContain(alice.email);
+      expect(text).not.toContain(alice.workspaceName);
+    }
+    await checkA11y(pageB, 'workspace not found page');
+  });
+
+  it("refuses B's direct API requests for A's members", async () => {
+    const response = await contextB.request.get(`/api/workspaces/${workspaceA}/members`);
+    expect([403, 404]).toContain(response.status());
+    expect(await response.text()).not.toContain(alice.email);
+  });
+
+  it("offers B only B's own workspace in the switcher", async () => {
+    await pageB.goto(`/w/${workspaceB}/members`);
+    await expectVisible(pageB.getByRole('cell', { name: bruno.email }));
+    const options = await pageB.locator('#workspace-switcher option').allTextContents();
+    expect(options).toEqual([`${bruno.workspaceName} (Admin)`, 'New workspace…']);
+  });
+});
