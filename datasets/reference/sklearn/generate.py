@@ -2,8 +2,8 @@
 
 Run with Debian's system Python and its python3-sklearn:
     /usr/bin/python3 datasets/reference/sklearn/generate.py
-Writes gaussian-paths.json, logistic-paths.json, logistic-unpenalized.json and separation.json beside this
-file. Each
+Writes gaussian-paths.json, logistic-paths.json, logistic-unpenalized.json, separation.json and
+longley-inference.json beside this file. Each
 fixture records the scikit-learn, numpy and Python versions and the exact calls with their parameters.
 
 Objective scalings (checked against the scikit-learn 1.2.1 doc strings and source):
@@ -238,6 +238,9 @@ def unpenalized_fixture():
     info = X1.T @ (X1 * (mu * (1 - mu))[:, None])
     se = np.sqrt(np.diag(np.linalg.inv(info)))
     score = X1.T @ (y - mu)
+    from scipy.stats import norm
+
+    z = np.concatenate([[b0], w]) / se
     return {
         "source": "scikit-learn LogisticRegression(penalty=None), an outside reference; standard errors from numpy as sqrt(diag((X1' W X1)^-1)) at sklearn's estimate",
         "generator": "datasets/reference/sklearn/generate.py",
@@ -250,6 +253,28 @@ def unpenalized_fixture():
         "coef": list(w),
         "interceptStandardError": float(se[0]),
         "coefStandardError": list(se[1:]),
+        "pValueSource": "two-sided Wald p-values 2 * scipy.stats.norm.sf(|estimate / SE|), intercept first",
+        "pValue": [float(v) for v in 2 * norm.sf(np.abs(z))],
+    }
+
+
+def longley_inference_fixture():
+    """t statistics and two-sided p-values of NIST's certified Longley estimates (scipy's t distribution)."""
+    import scipy
+    from scipy.stats import t
+
+    with open(os.path.join(ROOT, "datasets", "reference", "nist", "longley.json")) as f:
+        nist = json.load(f)
+    est = np.array([float(v) for v in nist["certified"]["estimates"]])
+    sd = np.array([float(v) for v in nist["certified"]["standardDeviations"]])
+    df = len(nist["y"]) - len(est)
+    stat = est / sd
+    return {
+        "source": "NIST StRD Longley certified estimates and standard deviations (datasets/reference/nist/longley.json); t = estimate / SD, p = 2 * scipy.stats.t.sf(|t|, df)",
+        "versions": {**versions(), "scipy": scipy.__version__},
+        "residualDf": df,
+        "statistic": list(stat),
+        "pValue": [float(v) for v in 2 * t.sf(np.abs(stat), df)],
     }
 
 
@@ -294,6 +319,7 @@ def main(out_dir=None):
         HERE = out_dir
     write("logistic-unpenalized.json", unpenalized_fixture())
     write("separation.json", separation_fixture())
+    write("longley-inference.json", longley_inference_fixture())
     write("gaussian-paths.json", gaussian_fixture())
     write("logistic-paths.json", logistic_fixture())
 

@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';
-import { designFrom, expectDigits, readJson } from './helpers';
+import { designFrom, expectClose, expectDigits, readJson } from './helpers';
 
 interface NistFixture {
   dataset: string;
@@ -62,4 +62,23 @@ describe('unpenalized gaussian fit reaches NIST StRD certified values', () => {
       });
     });
   }
+});
+
+describe('t statistics and p-values on the Longley fit', () => {
+  // Expected: NIST's certified estimates / SDs, p-values from scipy.stats.t (generate.py wrote them).
+  const inference = readJson<{ source: string; residualDf: number; statistic: number[]; pValue: number[] }>(
+    'datasets/reference/sklearn/longley-inference.json',
+  );
+  const fixture = readJson<NistFixture>('datasets/reference/nist/longley.json');
+
+  it(`match ${inference.source}`, () => {
+    const fit = fitUnpenalized(designFrom(fixture.predictors), Float64Array.from(fixture.y), 'gaussian');
+    expect(fit.statisticKind).toBe('t');
+    expect(fit.residualDf).toBe(inference.residualDf);
+    [fit.intercept, ...fit.coefficients].forEach((row, k) => {
+      expectClose(`Longley ${row.term} t`, row.statistic ?? Number.NaN, inference.statistic[k], 1e-9);
+      // p-values compared relative to themselves (they are small), to 1e-7.
+      expectDigits(`Longley ${row.term} p-value`, row.pValue, inference.pValue[k], 7);
+    });
+  });
 });

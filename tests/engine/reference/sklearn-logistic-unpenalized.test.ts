@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';
-import { designFrom, expectClose, readJson, readNumericCsv } from './helpers';
+import { designFrom, expectClose, expectDigits, readJson, readNumericCsv } from './helpers';
 
 interface UnpenalizedFixture {
   source: string;
@@ -18,6 +18,8 @@ interface UnpenalizedFixture {
   coef: number[];
   interceptStandardError: number;
   coefStandardError: number[];
+  pValueSource: string;
+  pValue: number[];
 }
 
 const fixture = readJson<UnpenalizedFixture>('datasets/reference/sklearn/logistic-unpenalized.json');
@@ -43,9 +45,10 @@ describe('unpenalized logistic fit matches scikit-learn (breast cancer, 4 column
       expectClose(`${term} SE (${source})`, row.standardError ?? Number.NaN, fixture.coefStandardError[j], 1e-7);
       // Wald z and its two-sided normal p-value follow from the reference estimate and SE.
       expectClose(`${term} z`, row.statistic ?? Number.NaN, fixture.coef[j] / fixture.coefStandardError[j], 1e-6);
-      expect(row.pValue).toBeGreaterThanOrEqual(0);
-      expect(row.pValue).toBeLessThanOrEqual(1);
+      // p-values relative to themselves (down to 1e-19 here), from scipy's normal distribution.
+      expectDigits(`${term} p-value (${fixture.pValueSource})`, row.pValue, fixture.pValue[j + 1], 5);
     });
+    expectDigits(`intercept p-value (${fixture.pValueSource})`, fit.intercept.pValue, fixture.pValue[0], 5);
   });
 
   it('the refit on a selected support carries the post-selection caution', () => {
