@@ -24,7 +24,8 @@ export function invitationsRouter(ctx: AppContext): Router {
   router.post('/invitations/:token/accept', async (req, res) => {
     const token = tokenParam(req.params.token);
     const body = parseBody(acceptInvitationSchema, req.body);
-    const signedIn = await loadSession(req, res);
+    // A stale session cookie must not block a new person from accepting: treat it as signed out.
+    const signedIn = await loadSession(req, res).catch(() => null);
     const result = await acceptInvitation(ctx.db, token, signedIn, body);
     // A brand-new account is signed in straight away; an existing one already is.
     const csrfToken = result.created ? await startSession(ctx, res, result.user.id) : undefined;

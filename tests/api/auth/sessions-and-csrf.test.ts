@@ -1,8 +1,10 @@
 /** Forged, expired and revoked session tokens; CSRF double-submit and Origin checks. */
 import { randomUUID } from 'node:crypto';
 import { SignJWT } from 'jose';
+import { eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { sessions } from '../../../server/db/schema/auth';
 import { startTestApp, type TestApp } from '../../support/app';
 import { signUp, withCsrf } from '../../support/session';
 
@@ -68,6 +70,29 @@ describe('session tokens', () => {
     const replay = await request(t.app).get('/api/auth/me').set('Cookie', sessionCookie as string);
     expect(replay.status).toBe(401);
     expect(replay.body.error.message).toMatch(/signed out or expired/i);
+  });
+});
+
+describe('sliding renewal', () => {
+  it('replaces a token past half its life with a later one for the same session row', async () => {
+    const s = await signUp(t.app);
+    const jti = randomUUID();
+    const soon = Math.floor(Date.now() / 1000) + 60; // 1 of the 60 configured minutes left
+    await t.ctx.db.insert(sessions).values({ id: jti, userId: s.userId, expiresAt: new Date(soon * 1000) });
+    const old = await token(t.ctx.config.sessionSecret, { sub: s.userId, jti, exp: soon });
+    const res = await request(t.app).get('/api/auth/me').set('Cookie', `lariat_session=${old}`);
+    expect(res.status).toBe(200);
+    const renewed = (res.headers['set-cookie'] as unknown as string[] | undefined)?.find((c) => c.startsWith('lariat_session='));
+    expect(renewed, 'a renewed session cookie').toBeDefined();
+    const [row] = await t.ctx.db.select().from(sessions).where(eq(sessions.id, jti));
+    const minutesLeft = (row.expiresAt.getTime() - Date.now()) / 60_000;
+    expect(minutesLeft).toBeGreaterThan(t.ctx.config.LARIAT_SESSION_MINUTES - 1);
+  });
+
+  it('leaves a fresh token alone', async () => {
+    const s = await signUp(t.app);
+    const res = await s.agent.get('/api/auth/me');
+    expect((res.headers['set-cookie'] as unknown as string[] | undefined) ?? []).not.toContainEqual(expect.stringMatching(/^lariat_session=/));
   });
 });
 
