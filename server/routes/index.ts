@@ -1,5 +1,6 @@
 import { Router } from 'express';
 import { authBase } from '../auth/middleware';
+import { datasetsApi } from '../datasets/routes/index';
 import type { AppContext } from '../context';
 import { devOutboxRouter } from '../dev/outbox';
 import { authRouter } from './auth';
@@ -17,5 +18,6 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(workspacesRouter(ctx));
   router.use(invitationsRouter(ctx));
   router.use(devOutboxRouter(ctx));
+  router.use(datasetsApi(ctx));
   return router;
 }

@@ -20,6 +20,8 @@ export interface ParseFileOptions {
   fileName: string;
   missingMarkers: string[];
   columnLimit: number;
+  /** Where the column spill file goes (deleted by ParsedFile.spill.close()). */
+  spillPath: string;
   onProgress?: (bytesRead: number, rowsParsed: number) => void;
 }
 
@@ -89,7 +91,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
       if (header === null) {
         header = checkHeader(row, fileName, opts.columnLimit);
         profiles = header.map((h) => new ColumnProfile(h));
-        spill = new ColumnSpill(`${filePath}.columns`, header.length);
+        spill = new ColumnSpill(opts.spillPath, header.length);
         batchRows = Math.max(256, Math.floor(400_000 / header.length));
         return;
       }

@@ -1,0 +1,84 @@
+/** Reading, deleting, column settings, downloads and open-dataset imports under /api/workspaces/:workspaceId. */
+import { Router } from 'express';
+import { columnSettingsSchema } from '../../../shared/datasets';
+import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
+import type { AppContext } from '../../context';
+import { fromZod } from '../../http/errors';
+import { countFileChunks, readFileChunk } from '../data/uploads';
+import { changeColumnSettings } from '../service/column-settings';
+import { deleteDataset, getDataset, getVersion, listDatasets, requireVersion } from '../service/datasets';
+import { prepareCleanedCsv } from '../service/export';
+import { importOpenDataset, listOpenDatasets } from '../service/open-datasets';
+import { previewRows } from '../service/preview';
+import { contentDisposition, datasetIdParam, intQuery, versionParam } from './params';
+
+export function datasetsRouter(ctx: AppContext): Router {
+  const router = Router();
+  const editor = requireWorkspaceRole('admin', 'analyst');
+  const base = '/workspaces/:workspaceId/datasets';
+  const version = `${base}/:datasetId/versions/:number`;
+  const scope = (req: Parameters<typeof datasetIdParam>[0]) => ({
+    workspaceId: workspaceMembership(req).workspaceId,
+    datasetId: datasetIdParam(req),
+    number: versionParam(req),
+  });
+
+  router.get(base, anyMember, async (req, res) => {
+    const datasets = await listDatasets(ctx.db, workspaceMembership(req).workspaceId);
+    res.json({ datasets, uploadLimitBytes: Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024), columnLimit: ctx.config.LARIAT_COLUMN_LIMIT });
+  });
+
+  router.get(`${base}/:datasetId`, anyMember, async (req, res) => {
+    res.json(await getDataset(ctx.db, workspaceMembership(req).workspaceId, datasetIdParam(req)));
+  });
+
+  router.delete(`${base}/:datasetId`, editor, async (req, res) => {
+    await deleteDataset(ctx.db, workspaceMembership(req).workspaceId, datasetIdParam(req));
+    res.status(204).end();
+  });
+
+  router.get(version, anyMember, async (req, res) => {
+    const s = scope(req);
+    res.json(await getVersion(ctx.db, s.workspaceId, s.datasetId, s.number));
+  });
+
+  router.get(`${version}/rows`, anyMember, async (req, res) => {
+    res.json(await previewRows(ctx.db, scope(req), intQuery(req, 'offset', 0), intQuery(req, 'limit', 500)));
+  });
+
+  router.post(`${version}/column-settings`, editor, async (req, res) => {
+    const body = columnSettingsSchema.safeParse(req.body);
+    if (!body.success) throw fromZod(body.error);
+    res.status(201).json(await changeColumnSettings(ctx.db, { ...scope(req), userId: sessionUser(req).id }, body.data));
+  });
+
+  router.get(`${version}/original`, anyMember, async (req, res) => {
+    const s = scope(req);
+    const { version: v } = await requireVersion(ctx.db, s.workspaceId, s.datasetId, s.number);
+    const chunks = await countFileChunks(ctx.db, v.uploadId);
+    res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Length': String(v.sizeBytes), 'Content-Disposition': contentDisposition(v.fileName) });
+    for (let seq = 0; seq < chunks; seq++) {
+      const chunk = await readFileChunk(ctx.db, v.uploadId, seq);
+      if (chunk && !res.write(chunk)) await new Promise((resolve) => res.once('drain', resolve));
+    }
+    res.end();
+  });
+
+  router.get(`${version}/cleaned.csv`, anyMember, async (req, res) => {
+    const csv = await prepareCleanedCsv(ctx.db, scope(req));
+    res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': contentDisposition(csv.fileName) });
+    await csv.writeTo(res);
+    res.end();
+  });
+
+  router.get('/workspaces/:workspaceId/open-datasets', anyMember, async (req, res) => {
+    res.json({ openDatasets: await listOpenDatasets(ctx.db, workspaceMembership(req).workspaceId) });
+  });
+
+  router.post('/workspaces/:workspaceId/open-datasets/:key/import', editor, async (req, res) => {
+    const result = await importOpenDataset(ctx.db, workspaceMembership(req).workspaceId, sessionUser(req).id, String(req.params.key));
+    res.status(result.duplicate ? 200 : 201).json(result);
+  });
+
+  return router;
+}

@@ -1,0 +1,73 @@
+/**
+ * POST .../datasets/uploads?ingest=<uuid>: multipart upload (fields name, description, datasetId,
+ * missing; then the part "file"). The request stays open until the ingest ends and answers 201 (new
+ * version), 200 (identical file, nothing stored) or 4xx; meanwhile GET .../ingests/<uuid> reports
+ * progress (docs/decisions/0003-upload-progress.md).
+ */
+import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { Router } from 'express';
+import { ingestIdSchema, parseMissingMarkers, uploadFieldsSchema } from '../../../shared/datasets';
+import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
+import type { AppContext } from '../../context';
+import { fromZod, HttpError, notFound } from '../../http/errors';
+import { FileProblem } from '../parse/errors';
+import { ingestFile } from '../service/ingest';
+import { readProgress, startProgress } from '../service/progress';
+import { ClientGone, receiveUpload } from './receive-upload';
+
+export function uploadsRouter(ctx: AppContext): Router {
+  const router = Router();
+  const tempDir = path.resolve(ctx.config.LARIAT_STATE_DIR, 'ingest');
+  const limitBytes = Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024);
+
+  router.post('/workspaces/:workspaceId/datasets/uploads', requireWorkspaceRole('admin', 'analyst'), async (req, res) => {
+    const { workspaceId } = workspaceMembership(req);
+    const ingest = ingestIdSchema.safeParse(req.query.ingest ?? randomUUID());
+    if (!ingest.success) throw fromZod(ingest.error, 'ingest');
+    const progress = startProgress(ingest.data, workspaceId);
+    let filePath: string | null = null;
+    try {
+      const upload = await receiveUpload(req, { limitBytes, tempDir, onBytes: (b) => progress.receiving(b) });
+      filePath = upload.filePath;
+      const fields = uploadFieldsSchema.safeParse(upload.fields);
+      if (!fields.success) throw fromZod(fields.error, 'fields');
+      const result = await ingestFile(ctx.db, {
+        workspaceId,
+        userId: sessionUser(req).id,
+        datasetId: fields.data.datasetId,
+        name: fields.data.name,
+        description: fields.data.description,
+        filePath: upload.filePath,
+        fileName: upload.fileName,
+        sha256: upload.sha256,
+        sizeBytes: upload.sizeBytes,
+        missingMarkers: parseMissingMarkers(fields.data.missing),
+        columnLimit: ctx.config.LARIAT_COLUMN_LIMIT,
+        tempDir,
+        progress,
+      });
+      progress.finish(result.message);
+      res.status(result.duplicate ? 200 : 201).json(result);
+    } catch (error) {
+      progress.fail(error instanceof Error ? error.message : 'The upload failed.');
+      if (error instanceof ClientGone) return;
+      if (error instanceof FileProblem) {
+        if (error.status === 413) res.set('Connection', 'close'); // stop receiving the rest
+        throw new HttpError(error.status, error.message, error.field);
+      }
+      throw error;
+    } finally {
+      if (filePath) fs.rm(filePath, { force: true }, () => undefined);
+    }
+  });
+
+  router.get('/workspaces/:workspaceId/ingests/:ingestId', anyMember, (req, res) => {
+    const found = readProgress(String(req.params.ingestId), workspaceMembership(req).workspaceId);
+    if (!found) throw notFound('No such upload in progress (it may have finished more than ten minutes ago).');
+    res.json(found);
+  });
+
+  return router;
+}

@@ -1,0 +1,61 @@
+/** Parsed cells -> stored columns, their schema and summaries, plus the parse report's notes. */
+import type { ColumnSchema, ParseReport } from '../../../shared/datasets';
+import { COLUMN_TYPE_LABELS } from '../../../shared/datasets';
+import type { Inference } from '../parse/infer';
+import type { MissingTest } from '../parse/missing';
+import type { ParsedFile } from '../parse/parse-file';
+import { describeDelimiter } from '../parse/sniff';
+import { encodeCodes, encodeFloat64, encodeText, typedBytes } from '../storage/codec';
+import { loadAs, type StoredColumn } from '../storage/convert';
+import { summarize } from '../summary';
+
+export function encodeColumn(name: string, cells: string[], inference: Inference, missing: MissingTest): StoredColumn {
+  if (inference.storage === 'float64') return { name, storage: 'float64', data: typedBytes(encodeFloat64(cells, missing)), levels: null };
+  if (inference.storage === 'codes') {
+    const { codes, levels } = encodeCodes(cells, missing);
+    return { name, storage: 'codes', data: typedBytes(codes), levels };
+  }
+  return { name, storage: 'text', data: encodeText(cells, missing), levels: null };
+}
+
+export function columnSchema(stored: StoredColumn, position: number, inference: Inference): ColumnSchema {
+  return {
+    name: stored.name,
+    position,
+    type: inference.type,
+    inferredType: inference.type,
+    reason: inference.reason,
+    excluded: inference.excluded,
+    overridden: false,
+    summary: summarize(loadAs(stored, inference.type)),
+  };
+}
+
+export function buildReport(parsed: ParsedFile, fileName: string, inferences: Inference[]): ParseReport {
+  const notes: string[] = [`Delimiter: ${describeDelimiter(parsed.delimiter)} (detected).`];
+  if (parsed.byteOrderMark) notes.push('A UTF-8 byte-order mark at the start of the file was removed.');
+  if (parsed.blankLinesSkipped > 0) notes.push(`${parsed.blankLinesSkipped} blank line(s) were skipped.`);
+  const counts = new Map<string, number>();
+  inferences.forEach((inf) => counts.set(inf.type, (counts.get(inf.type) ?? 0) + 1));
+  notes.push(`Inferred column types: ${[...counts].map(([t, n]) => `${n} ${COLUMN_TYPE_LABELS[t as keyof typeof COLUMN_TYPE_LABELS].toLowerCase()}`).join(', ')}.`);
+  inferences.forEach((inf, j) => {
+    if (inf.excluded) notes.push(`Column "${parsed.header[j]}" is left out of modelling: ${inf.reason}`);
+  });
+  const missingCols = parsed.profiles.filter((p) => p.missing > 0);
+  if (missingCols.length > 0) {
+    const shown = missingCols.slice(0, 10).map((p) => `"${p.name}" (${p.missing})`).join(', ');
+    notes.push(`Missing values in ${missingCols.length} column(s): ${shown}${missingCols.length > 10 ? ', ...' : ''}.`);
+  }
+  return {
+    fileName,
+    delimiter: parsed.delimiter,
+    encoding: 'utf-8',
+    byteOrderMark: parsed.byteOrderMark,
+    lineEndings: parsed.lineEndings,
+    missingMarkers: parsed.missing.markers,
+    rowCount: parsed.rowCount,
+    columnCount: parsed.header.length,
+    blankLinesSkipped: parsed.blankLinesSkipped,
+    notes,
+  };
+}
