@@ -1,7 +1,7 @@
-import { eq } from 'drizzle-orm';
+import { count, eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { users } from '../../../server/db/schema/auth';
+import { users, workspaces } from '../../../server/db/schema/auth';
 import { startTestApp, type TestApp } from '../../support/app';
 import { signIn, signUp, TEST_PASSWORD, uniqueEmail, withCsrf } from '../../support/session';
 
@@ -44,9 +44,12 @@ describe('sign-up', () => {
 
   it('refuses a second account for the same e-mail (409 naming email)', async () => {
     const s = await signUp(t.app);
-    const res = await request(t.app).post('/api/auth/sign-up').send({ email: s.email, password: TEST_PASSWORD, name: 'Again' });
+    const workspacesBefore = (await t.ctx.db.select({ n: count() }).from(workspaces))[0].n;
+    const res = await request(t.app).post('/api/auth/sign-up').send({ email: s.email.toUpperCase(), password: TEST_PASSWORD, name: 'Again', workspaceName: 'Orphan' });
     expect(res.status).toBe(409);
     expect(res.body.error.field).toBe('email');
+    // Nothing is written for a refused sign-up: no orphan workspace.
+    expect((await t.ctx.db.select({ n: count() }).from(workspaces))[0].n).toBe(workspacesBefore);
   });
 });
 
