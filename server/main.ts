@@ -25,7 +25,7 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
     '',
     `  Lariat is running at ${config.publicUrl}`,
     config.NODE_ENV !== 'production' ? `  Demo sign-in: ${DEMO_ACCOUNT.email} / ${DEMO_ACCOUNT.password}` : '',
-    devMailbox ? `  Outgoing e-mail is captured by a local fake SMTP server on port ${devMailbox.port} (admins: Settings > Outbox)` : '',
+    devMailbox ? `  Outgoing e-mail is captured by a local fake SMTP server on port ${devMailbox.port} (admins see it under Outbox)` : '',
     '  Press Ctrl-C to stop.',
     '',
   ];
