@@ -1,0 +1,86 @@
+/**
+ * Uploads stopped mid-way: over the size limit (refused while streaming, long before the client has
+ * sent everything) and cut off by the client (nothing stored, no temporary file left).
+ */
+import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import type http from 'node:http';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startTestApp, type TestApp } from '../../support/app';
+import { uniqueEmail } from '../../support/session';
+import { listen, multipartHead, rawSignUp, startUpload, type RawSession } from './raw-http';
+import { tableCounts } from './support';
+
+let t: TestApp;
+let server: http.Server;
+let port: number;
+let s: RawSession;
+const LIMIT_BYTES = Math.floor(0.01 * 1024 * 1024); // LARIAT_UPLOAD_LIMIT_MB = 0.01
+
+beforeAll(async () => {
+  t = await startTestApp({ LARIAT_UPLOAD_LIMIT_MB: '0.01' });
+  ({ server, port } = await listen(t.app));
+  s = await rawSignUp(t.app, uniqueEmail('raw'));
+});
+afterAll(async () => {
+  server?.close();
+  await t?.close();
+});
+
+const ROW = '1.5,2.5,3.5,4.5\n';
+const tempDir = () => path.resolve(t.ctx.config.LARIAT_STATE_DIR, 'ingest');
+const leftovers = () => (fs.existsSync(tempDir()) ? fs.readdirSync(tempDir()) : []);
+
+describe('upload limits', () => {
+  it('refuses a file over the limit while it streams: 413 after ~limit bytes, not the whole body', async () => {
+    const before = await tableCounts(t);
+    const req = startUpload(port, s, randomUUID());
+    const response = new Promise<{ status: number; body: string }>((resolve, reject) => {
+      req.on('response', (res) => {
+        let body = '';
+        res.on('data', (c: Buffer) => (body += c.toString()));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+      });
+      req.on('error', reject);
+    });
+    req.write(multipartHead('big.csv') + 'a,b,c,d\n');
+    // 64 KB, about six times the limit; the planned file is 5 MB, and the rest is never sent.
+    let sent = 0;
+    while (sent < 64 * 1024) {
+      const chunk = ROW.repeat(256);
+      req.write(chunk);
+      sent += chunk.length;
+    }
+    const res = await response; // arrives although the body is unfinished: the server stopped early
+    req.destroy();
+    expect(res.status).toBe(413);
+    const message = (JSON.parse(res.body) as { error: { message: string } }).error.message;
+    expect(message).toMatch(/big\.csv is larger than the upload limit of 0\.01 MB/);
+    expect(sent).toBeLessThan(5 * 1024 * 1024);
+    expect(LIMIT_BYTES).toBeLessThan(sent);
+    expect(await tableCounts(t)).toEqual(before);
+    await new Promise((r) => setTimeout(r, 100));
+    expect(leftovers()).toEqual([]);
+  });
+
+  it('stores nothing when the client cuts the upload off mid-way', async () => {
+    const before = await tableCounts(t);
+    const ingest = randomUUID();
+    const req = startUpload(port, s, ingest);
+    req.on('error', () => undefined); // the destroyed socket
+    req.write(multipartHead('cut.csv') + 'a,b\n' + '1,2\n'.repeat(500));
+    await new Promise((r) => setTimeout(r, 150));
+    req.destroy();
+    // The server notices the closed connection and marks the ingest failed.
+    let phase = '';
+    for (let i = 0; i < 40 && phase !== 'failed'; i++) {
+      await new Promise((r) => setTimeout(r, 50));
+      const res = await fetch(`http://127.0.0.1:${port}/api/workspaces/${s.workspaceId}/ingests/${ingest}`, { headers: { Cookie: s.cookie } });
+      phase = ((await res.json()) as { phase: string }).phase;
+    }
+    expect(phase).toBe('failed');
+    expect(await tableCounts(t)).toEqual(before);
+    expect(leftovers()).toEqual([]);
+  });
+});
