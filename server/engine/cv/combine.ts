@@ -17,6 +17,8 @@ export function combineFolds(
   folds: FoldLosses[],
   foldIds: Int32Array,
 ): CvResult {
+  // Folds may arrive in any order (workers, queue jobs); sum them in fold order for identical results.
+  folds = [...folds].sort((a, b) => a.fold - b.fold);
   const k = folds.length;
   const seen = new Set(folds.map((f) => f.fold));
   for (let f = 0; f < k; f++) {

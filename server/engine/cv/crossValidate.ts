@@ -7,7 +7,7 @@ import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type P
 import { foldAssignment } from './assign';
 import { combineFolds } from './combine';
 import { runFoldOnDesign } from './fold';
-import { pathOptionsFor } from './options';
+import { pathOptionsFromSpec } from '../path/fromSpec';
 
 export interface CvPlan {
   built: BuiltDesign;
@@ -22,7 +22,7 @@ export function planCrossValidation(table: EngineTable, spec: FitSpec, path: Pat
   if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
   const built = buildDesign(table, spec);
   const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  return { built, options: pathOptionsFor(spec, built), foldIds, folds, lambda: path.lambda };
+  return { built, options: pathOptionsFromSpec(spec, built), foldIds, folds, lambda: path.lambda };
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */

@@ -24,7 +24,7 @@ import {
   meanSquaredError,
   misclassificationRate,
 } from './metrics';
-import { pathOptionsFor } from './options';
+import { pathOptionsFromSpec } from '../path/fromSpec';
 
 /** One fold's result: plain arrays only, so it can travel as a queue job's output. */
 export interface FoldLosses {
@@ -115,5 +115,5 @@ export function runFold(
       'folds',
     );
   }
-  return runFoldOnDesign(built.design, built.y, pathOptionsFor(spec, built), foldIds, foldIndex, lambda);
+  return runFoldOnDesign(built.design, built.y, pathOptionsFromSpec(spec, built), foldIds, foldIndex, lambda);
 }

@@ -2,6 +2,21 @@
  * Cross-validation with folds spread over a small pool of worker threads (min(2, K) by default: the
  * target machine has 2 cores). Workers run TypeScript through tsx's loader.
  */
+
+/**
+ * Node 20 resolves a worker's entry file before `--import tsx` hooks apply, so a `.ts` entry fails;
+ * a small evaluated bootstrap registers tsx's ESM hooks first, then imports the TypeScript worker.
+ */
+function startWorker(): Worker {
+  const tsxRoot = dirname(createRequire(import.meta.url).resolve('tsx/package.json'));
+  const tsxApi = pathToFileURL(join(tsxRoot, 'dist', 'esm', 'api', 'index.mjs')).href;
+  const entry = new URL('./worker.ts', import.meta.url).href;
+  const code = `import(${JSON.stringify(tsxApi)}).then((api) => { api.register(); return import(${JSON.stringify(entry)}); })`;
+  return new Worker(code, { eval: true });
+}
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../types';
 import { combineFolds } from './combine';
@@ -27,10 +42,7 @@ export async function crossValidateInWorkers(
   };
   const results: FoldLosses[] = [];
   let next = 0;
-  const workers = Array.from(
-    { length: size },
-    () => new Worker(new URL('./worker.ts', import.meta.url), { execArgv: ['--import', 'tsx'] }),
-  );
+  const workers = Array.from({ length: size }, startWorker);
   try {
     await Promise.all(
       workers.map(
