@@ -31,8 +31,7 @@ export interface LeastSquaresFit {
 }
 
 interface Factorization {
-  n: number;
-  /** Reflected working matrix (column-major); below the diagonal rows it holds the reflectors. */
+  /** Unit Householder vectors; reflector k acts on rows k..n-1. */
   reflectors: Float64Array[];
   /** Upper-triangular R (rank x rank) row-major, for kept columns in order. */
   r: Float64Array;
@@ -111,7 +110,7 @@ function weightedMean(v: Float64Array, w: Float64Array | null, wsum: number): nu
 function factorize(n: number, p: number, a: Float64Array, scale: Float64Array): Factorization {
   const reflectors: Float64Array[] = [];
   const kept: number[] = [];
-  const rows: number[][] = [];
+  const diagonal: number[] = [];
   let k = 0;
   for (let j = 0; j < p && k < n; j++) {
     if (scale[j] === 0) continue; // constant column: aliased with the intercept
@@ -127,18 +126,17 @@ function factorize(n: number, p: number, a: Float64Array, scale: Float64Array): 
     for (let l = j + 1; l < p; l++) reflect(a.subarray(l * n + k, (l + 1) * n), v, vv);
     reflectors.push(normalized(v, vv));
     kept.push(j);
-    const row = [alpha];
-    rows.push(row);
+    diagonal.push(alpha);
     k++;
   }
   // R's rows: entry (r, kept[c]) for c >= r, read from the reflected matrix.
   const rank = kept.length;
   const r = new Float64Array(rank * rank);
   for (let row = 0; row < rank; row++) {
-    r[row * rank + row] = rows[row][0];
+    r[row * rank + row] = diagonal[row];
     for (let col = row + 1; col < rank; col++) r[row * rank + col] = a[kept[col] * n + row];
   }
-  return { n, reflectors, r, kept, scale };
+  return { reflectors, r, kept, scale };
 }
 
 /** Applies H = I - 2 v v' / (v'v) to u in place. */
