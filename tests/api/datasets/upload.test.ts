@@ -3,11 +3,12 @@
  * markers), inferred types with reasons, versions N+1, duplicates, originals byte for byte.
  * Expected values are worked out by hand from the small inputs written in each test.
  */
+import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { UploadResultDto, VersionDetailDto } from '../../../shared/datasets';
 import { startTestApp, type TestApp } from '../../support/app';
-import { signUp, type Session } from '../../support/session';
-import { apiBase, tableCounts, upload } from './support';
+import { signUp, withCsrf, type Session } from '../../support/session';
+import { apiBase, tableCounts, upload, uploadUrl } from './support';
 
 let t: TestApp;
 let alice: Session;
@@ -103,5 +104,16 @@ describe('CSV upload', () => {
     expect(res.status).toBe(200);
     expect(Buffer.compare(res.body as Buffer, content)).toBe(0);
     expect(res.headers['content-disposition']).toContain('orig.csv');
+  });
+
+  it('reports progress under the ingest id the client chose', async () => {
+    const ingest = randomUUID();
+    const content = 'k,v\n' + Array.from({ length: 300 }, (_, i) => `${i % 7},${i * 0.5}`).join('\n') + '\n';
+    const res = await withCsrf(alice.agent.post(uploadUrl(alice, ingest)), alice.csrf).attach('file', Buffer.from(content), 'progress.csv');
+    expect(res.status).toBe(201);
+    const p = await alice.agent.get(`${apiBase(alice)}/ingests/${ingest}`);
+    expect(p.body).toMatchObject({ id: ingest, phase: 'done', fraction: 1, bytesReceived: content.length, rowsParsed: 300 });
+    const other = await signUp(t.app);
+    expect((await other.agent.get(`${apiBase(other)}/ingests/${ingest}`)).status).toBe(404);
   });
 });
