@@ -1,6 +1,6 @@
 import { buildDesign } from '../design/build';
 import { validateSpec } from '../design/validate';
-import type { DesignMatrix, EngineTable, FitSpec, PathOptions, PathResult, SolveInfo } from '../types';
+import { EngineInputError, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
 import { defaultLambdaRatio, lambdaGrid } from './grid';
 import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, prepareProblem } from './setup';
@@ -118,6 +118,10 @@ function record(
 export function fitPath(table: EngineTable, spec: FitSpec): PathResult {
   validateSpec(table, spec);
   const built = buildDesign(table, spec);
+  if (built.design.p === 0) {
+    throw new EngineInputError('no usable predictor: every predictor is constant over the rows used', 'predictors');
+  }
+  if (built.design.n < 2) throw new EngineInputError(`only ${built.design.n} row remains after removing missing values`, 'data');
   const options = pathOptionsFromSpec(spec, built);
   const result = fitPathOnDesign(built.design, built.y, options);
   result.notes.unshift(...built.notes);
