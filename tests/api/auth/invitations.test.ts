@@ -132,6 +132,17 @@ describe('invitations', () => {
     expect(res.body.error.message).toMatch(/withdrawn/);
   });
 
+  it('inviting the same e-mail again replaces the older link', async () => {
+    const admin = await signUp(t.app);
+    const email = uniqueEmail('twice');
+    const first = await invite(admin, email, 'viewer');
+    const second = await invite(admin, email, 'analyst');
+    expect(second.token).not.toBe(first.token);
+    expect((await admin.agent.get(`/api/workspaces/${admin.workspaceId}/invitations`)).body.invitations).toEqual([expect.objectContaining({ id: second.id, role: 'analyst' })]);
+    expect((await request(t.app).get(`/api/invitations/${first.token}`)).status).toBe(410);
+    expect((await request(t.app).get(`/api/invitations/${second.token}`)).body.role).toBe('analyst');
+  });
+
   it('inviting someone who is already a member is a 409 naming email', async () => {
     const admin = await signUp(t.app);
     const res = await withCsrf(admin.agent.post(`/api/workspaces/${admin.workspaceId}/invitations`), admin.csrf).send({ email: admin.email, role: 'viewer' });
