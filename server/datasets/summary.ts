@@ -23,6 +23,7 @@ function histogram(sorted: Float64Array): HistogramBin[] {
 
 function levelCounts(counts: Map<string, number>): LevelCount[] {
   return [...counts]
+    .filter(([, count]) => count > 0)
     .map(([level, count]) => ({ level, count }))
     .sort((a, b) => b.count - a.count || (a.level < b.level ? -1 : 1))
     .slice(0, LEVELS_SHOWN);
@@ -51,7 +52,10 @@ export function summarize(col: LoadedColumn): ColumnSummary {
   if (col.kind === 'categorical') {
     const counts = new Array<number>(col.levels.length).fill(0);
     let missing = 0;
-    for (const k of col.codes) k < 0 ? missing++ : counts[k]++;
+    for (const k of col.codes) {
+      if (k < 0) missing++;
+      else counts[k]++;
+    }
     const map = new Map(col.levels.map((level, k) => [level, counts[k]]));
     return { count: col.codes.length, missing, distinct: counts.filter((c) => c > 0).length, levels: levelCounts(map) };
   }

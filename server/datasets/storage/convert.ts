@@ -59,7 +59,7 @@ export function loadAs(c: StoredColumn, type: ColumnType): LoadedColumn {
         const distinct = new Set(Array.from(values).filter((x) => !Number.isNaN(x)));
         if (distinct.size === 2 && distinct.has(0) && distinct.has(1)) return { name, kind: 'numeric', values };
       }
-      const col = toCategories(name, asText(c), 2);
+      const col = toCategories(name, asText(c), Number.POSITIVE_INFINITY);
       if (col.levels.length !== 2) {
         throw new ConversionProblem(`Column "${name}" has ${col.levels.length} distinct value(s); a yes/no column needs exactly two.`);
       }
