@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { crossValidate, crossValidateInWorkers } from '../engine/cv';
 import { readCsvFile } from '../engine/csv';
-import { fitPath, validateSpec } from '../engine/index';
+import { fitPath } from '../engine/index';
 import { EngineInputError, type CvResult, type EngineTable, type FitSpec } from '../engine/types';
 import { parseFitOptions, UsageError, type FitOptions } from './args';
 import { HELP } from './help';
@@ -34,8 +34,7 @@ export async function runFit(argv: string[]): Promise<string> {
   const options = parseFitOptions(argv);
   const table = readCsvFile(options.data);
   const spec = buildFitSpec(options, table);
-  validateSpec(table, spec);
-  const path = fitPath(table, spec);
+  const path = fitPath(table, spec); // validates the spec first
   let cv: CvResult | null = null;
   if (spec.cv) cv = useWorkers(options, table, spec) ? await crossValidateInWorkers(table, spec, path) : crossValidate(table, spec, path);
   return toJson(fitOutput(path, cv, engineVersion()));

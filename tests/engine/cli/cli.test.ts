@@ -1,0 +1,129 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, it, expect, beforeAll } from 'vitest';
+import { crossValidate } from '../../../server/engine/cv';
+import { parseCsvText } from '../../../server/engine/csv';
+import { fitPath } from '../../../server/engine/index';
+import { createRng } from '../../../server/engine/random';
+import type { FitSpec } from '../../../server/engine/types';
+
+const CLI = fileURLToPath(new URL('../../../server/cli/main.ts', import.meta.url));
+const TSX = fileURLToPath(new URL('../../../node_modules/.bin/tsx', import.meta.url));
+let dir = '';
+
+function cli(...args: string[]): { status: number | null; stdout: string; stderr: string } {
+  const r = spawnSync(TSX, [CLI, ...args], { encoding: 'utf8', cwd: dir });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+interface Output {
+  lambda: number[];
+  intercept: number[];
+  coefficients: Record<string, number[]>;
+  dualityGap: number[];
+  iterations: number[];
+  status: string[];
+  cv: null | { folds: number; metric: string; mean: number[]; standardError: number[]; minimum: { index: number; lambda: number }; oneStandardError: { index: number; lambda: number } };
+}
+
+function fitJson(...args: string[]): Output {
+  const r = cli('fit', ...args);
+  expect(r.status, r.stderr).toBe(0);
+  return JSON.parse(r.stdout) as Output;
+}
+
+let gaussianCsv = '';
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'lariat-cli-'));
+  const rng = createRng(21);
+  const lines = ['y,a,b,colour,fold,flag'];
+  for (let i = 0; i < 60; i++) {
+    const a = rng.normal();
+    const b = rng.normal();
+    const colour = ['red', 'green', 'blue'][i % 3];
+    const y = 1.5 * a - 0.5 * b + (colour === 'red' ? 1 : 0) + 0.3 * rng.normal();
+    lines.push([y.toFixed(5), a.toFixed(5), b.toFixed(5), colour, (i % 4) * 10, y > 0.5 ? 'yes' : 'no'].join(','));
+  }
+  gaussianCsv = `${lines.join('\n')}\n`;
+  writeFileSync(join(dir, 'data.csv'), gaussianCsv);
+  writeFileSync(join(dir, 'groups.json'), JSON.stringify({ ab: ['a', 'b'] }));
+  writeFileSync(join(dir, 'bad-groups.json'), JSON.stringify({ ab: ['a', 'nope'] }));
+  writeFileSync(join(dir, 'ragged.csv'), 'y,a\n1,2\n3\n');
+});
+
+const baseSpec: FitSpec = {
+  family: 'gaussian', response: 'y', predictors: ['a', 'b', 'colour'], penalty: 'lasso', alpha: 1,
+  standardize: true, pathLength: 8, tolerance: 1e-7, maxIterations: 10000, screening: 'strong',
+  missing: 'drop', cv: { folds: 5, seed: 3 },
+};
+
+describe('lariat fit (spawned CLI)', () => {
+  it('prints the contract keys and agrees with the in-process engine', () => {
+    const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '8', '--folds', '5', '--seed', '3');
+    const L = out.lambda.length;
+    expect(L).toBe(8);
+    for (const key of ['intercept', 'dualityGap', 'iterations', 'status'] as const) expect(out[key]).toHaveLength(L);
+    expect(Object.keys(out.coefficients)).toEqual(['a', 'b', 'colour=blue', 'colour=green', 'colour=red']);
+    const table = parseCsvText(gaussianCsv, 'data.csv');
+    const path = fitPath(table, baseSpec);
+    const cv = crossValidate(table, baseSpec, path);
+    expect(out.lambda).toEqual(path.lambda);
+    expect(out.intercept).toEqual(path.intercept);
+    expect(out.coefficients.a).toEqual(path.coefficients.map((b) => b[0]));
+    expect(out.status).toEqual(path.solves.map((s) => s.status));
+    expect(out.cv).toMatchObject({ folds: 5, metric: 'mse', mean: cv.mean, standardError: cv.standardError, minimum: cv.minimum, oneStandardError: cv.oneStandardError });
+  });
+
+  it('runs 10-fold cross-validation by default and none with --folds 0', () => {
+    const byDefault = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b', '--path-length', '4');
+    expect(byDefault.cv?.folds).toBe(10);
+    const none = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b', '--path-length', '4', '--folds', '0');
+    expect(none.cv).toBeNull();
+  });
+
+  it('takes folds from --fold-column and leaves that column out of the predictors', () => {
+    const out = fitJson('--data', 'data.csv', '--response', 'y', '--fold-column', 'fold', '--path-length', '4');
+    expect(out.cv?.folds).toBe(4);
+    expect(Object.keys(out.coefficients)).not.toContain('fold');
+    expect(Object.keys(out.coefficients)).toContain('flag=yes');
+  });
+
+  it('fits a binomial model on a two-level text response with an explicit lambda list', () => {
+    const out = fitJson('--data', 'data.csv', '--response', 'flag', '--predictors', 'a,b', '--family', 'binomial', '--lambda', '0.2,0.05,0.01', '--folds', '3');
+    expect(out.lambda).toEqual([0.2, 0.05, 0.01]);
+    expect(out.cv?.metric).toBe('deviance');
+  });
+
+  it('fits a group lasso from a groups file', () => {
+    const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--penalty', 'group-lasso', '--groups', 'groups.json', '--path-length', '5', '--folds', '0');
+    // a and b share one group, so they leave zero together along the path (group lasso property).
+    out.lambda.forEach((_, l) => expect(out.coefficients.a[l] === 0).toBe(out.coefficients.b[l] === 0));
+  });
+
+  it('prints help on --help and exits 0', () => {
+    const r = cli('fit', '--help');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/--folds K/);
+  });
+
+  const errors: [string, string[], RegExp][] = [
+    ['a missing data file', ['--data', 'none.csv', '--response', 'y'], /cannot read data file none\.csv/],
+    ['an unknown predictor, naming the file', ['--data', 'data.csv', '--response', 'y', '--predictors', 'a,zz'], /--predictors: column "zz" is not in data\.csv/],
+    ['a ragged CSV, naming file and line', ['--data', 'ragged.csv', '--response', 'y'], /ragged\.csv: line 3 has 1 fields but the header has 2/],
+    ['an ascending lambda list', ['--data', 'data.csv', '--response', 'y', '--lambda', '0.1,0.2'], /--lambda values must be strictly descending/],
+    ['a groups file naming a non-predictor', ['--data', 'data.csv', '--response', 'y', '--predictors', 'a,b', '--penalty', 'group-lasso', '--groups', 'bad-groups.json'], /group "ab" in bad-groups\.json names "nope"/],
+    ['a gaussian text response', ['--data', 'data.csv', '--response', 'flag', '--predictors', 'a'], /gaussian response "flag" must be numeric/],
+    ['too many folds', ['--data', 'data.csv', '--response', 'y', '--predictors', 'a', '--folds', '61'], /folds.*\b60\b.*61/],
+  ];
+  for (const [what, args, message] of errors) {
+    it(`fails on ${what}: stderr message, non-zero exit, empty stdout`, () => {
+      const r = cli('fit', ...args);
+      expect(r.status).not.toBe(0);
+      expect(r.stdout).toBe('');
+      expect(r.stderr).toMatch(message);
+    });
+  }
+});
