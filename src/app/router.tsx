@@ -53,7 +53,7 @@ export function createAppRouter() {
                 { path: paths.workspace.releases.path, element: <ReleasesEmptyPage /> },
                 { path: paths.workspace.members.path, element: <MembersPage /> },
                 { path: paths.workspace.outbox.path, element: <OutboxRoute /> },
-                { path: '*', element: <NotFoundPage /> },
+                { path: '*', element: <NotFoundPage inShell /> },
               ],
             },
           ],

@@ -3,6 +3,7 @@
  * the invitee sets a password in another browser profile and lands in the workspace with the
  * invited role; a viewer sees members read-only and the server refuses forced requests.
  */
+import fs from 'node:fs';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkA11y, expectVisible, launchBrowser, newContext } from '../support/browser';
@@ -45,6 +46,12 @@ describe('invitations', () => {
     const pending = admin.getByRole('region', { name: 'Pending invitations' });
     await expectVisible(pending.getByText(viewerEmail));
     await checkA11y(admin, 'members page with a pending invitation');
+    fs.mkdirSync('tests/e2e/screenshots', { recursive: true });
+    await admin.screenshot({ path: 'tests/e2e/screenshots/members-light.png', fullPage: true });
+    await admin.getByRole('button', { name: 'Use the dark theme' }).click();
+    await checkA11y(admin, 'members page with a pending invitation, dark');
+    await admin.screenshot({ path: 'tests/e2e/screenshots/members-dark.png', fullPage: true });
+    await admin.getByRole('button', { name: 'Use the light theme' }).click();
   });
 
   it('shows the captured e-mail in the outbox with its link clickable', async () => {
@@ -121,6 +128,30 @@ describe('invitations', () => {
     await expectVisible(page.getByRole('heading', { name: 'This invitation cannot be used' }));
     await checkA11y(page, 'revoked invitation page');
     await stranger.close();
+  });
+
+  it('lets someone who already has an account sign in from the link and join', async () => {
+    const other = newAccount('elsewhere');
+    const context = await newContext(browser);
+    const page = await context.newPage();
+    const ownWorkspace = await signUp(page, other);
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/\/sign-in/);
+
+    await invite(other.email, 'Reviewer');
+    const { link } = await waitForEmail(adminContext, other.email, '/invitations/');
+    await page.goto(new URL(link).pathname);
+    await page.getByRole('link', { name: `Sign in as ${other.email}` }).click();
+    await page.getByLabel('E-mail').fill(other.email);
+    await page.getByLabel('Password').fill(other.password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    // Back on the invitation, now signed in as the invited address.
+    await page.getByRole('button', { name: 'Join workspace' }).click();
+    await page.waitForURL(new RegExp(`/w/${workspaceId}/datasets$`));
+    const options = await page.locator('#workspace-switcher option').evaluateAll((els) => els.map((e) => (e as HTMLOptionElement).value));
+    expect(options).toEqual(expect.arrayContaining([ownWorkspace, workspaceId]));
+    expect(await page.locator('#workspace-switcher option:checked').textContent()).toBe(`${owner.workspaceName} (Reviewer)`);
+    await context.close();
   });
 
   it('lets the admin remove a member after confirming', async () => {

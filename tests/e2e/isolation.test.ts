@@ -50,6 +50,14 @@ describe('workspace isolation', () => {
     expect(await response.text()).not.toContain(alice.email);
   });
 
+  it('shows a not-found message inside the shell for an unknown area of a workspace', async () => {
+    await pageB.goto(`/w/${workspaceB}/no-such-area`);
+    await expectVisible(pageB.getByRole('heading', { name: 'Page not found' }));
+    await expectVisible(pageB.getByRole('navigation', { name: 'Workspace' }));
+    expect(await pageB.locator('main').count()).toBe(1);
+    await checkA11y(pageB, 'unknown area inside a workspace');
+  });
+
   it("offers B only B's own workspace in the switcher", async () => {
     await pageB.goto(`/w/${workspaceB}/members`);
     await expectVisible(pageB.getByRole('cell', { name: bruno.email }));

@@ -62,4 +62,18 @@ describe('app shell', () => {
     expect(await isDark(darkPage)).toBe(true);
     await darkContext.close();
   });
+
+  it('shows the error page, not a blank screen, when the server fails', async () => {
+    const failing = await newContext(browser);
+    await failing.route('**/api/auth/me', (route) =>
+      route.fulfill({ status: 500, contentType: 'application/json', body: JSON.stringify({ error: { message: 'Simulated outage for the test.' } }) }),
+    );
+    const failingPage = await failing.newPage();
+    await failingPage.goto('/w/00000000-0000-0000-0000-000000000000/models');
+    await expectVisible(failingPage.getByRole('heading', { name: 'Something went wrong' }), 20_000);
+    await expectVisible(failingPage.getByText('Simulated outage for the test.'));
+    await expectVisible(failingPage.getByRole('button', { name: 'Reload the page' }));
+    await checkA11y(failingPage, 'error page');
+    await failing.close();
+  });
 });

@@ -10,10 +10,10 @@ export function RouteErrorPage() {
   if (isRouteErrorResponse(error) && error.status === 404) return <NotFoundPage />;
   const message = error instanceof Error ? error.message : isRouteErrorResponse(error) ? `${error.status} ${error.statusText}` : String(error);
   return (
-    <main role="alert" className="flex min-h-screen flex-col items-center justify-center gap-6 px-4 text-center">
+    <main className="flex min-h-screen flex-col items-center justify-center gap-6 px-4 text-center">
       <DocumentTitle title="Something went wrong" />
       <Wordmark />
-      <div>
+      <div role="alert">
         <h1 className="text-3xl font-bold">Something went wrong</h1>
         <p className="mt-3 max-w-md text-slate-700 dark:text-slate-300">
           This page stopped working. Reloading usually helps; if it keeps happening, tell your admin what you were doing.

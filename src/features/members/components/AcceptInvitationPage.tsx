@@ -68,12 +68,14 @@ export function AcceptInvitationPage() {
               Join workspace
             </Button>
           </div>
+        ) : me.data ? (
+          <Notice>
+            You are signed in as {me.data.user.email}, but this invitation is for {invite.email}. Sign out first (the
+            button is at the bottom of the side bar), then open the link from the e-mail again.
+          </Notice>
         ) : (
           <p className="text-sm">
-            {me.data ? `You are signed in as ${me.data.user.email}. ` : ''}
-            <TextLink to={paths.auth.signIn.getHref(paths.auth.acceptInvitation.getHref(token))}>
-              Sign in as {invite.email}
-            </TextLink>{' '}
+            <TextLink to={paths.auth.signIn.getHref(paths.auth.acceptInvitation.getHref(token))}>Sign in as {invite.email}</TextLink>{' '}
             to accept this invitation.
           </p>
         )}
