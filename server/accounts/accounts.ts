@@ -1,5 +1,5 @@
 /**
- * Sign-up, sign-in and the "me" view. Decision (docs/decisions/accounts-and-sessions.md): every
+ * Sign-up, sign-in and the "me" view. Decision (docs/decisions/0002-accounts-sessions-csrf.md): every
  * sign-up, the first one of a fresh install included, creates its own new workspace with the new
  * person as its admin; joining someone else's workspace goes through an invitation.
  */

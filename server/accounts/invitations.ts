@@ -4,7 +4,7 @@
  * transaction that creates the membership (and the account, for a new person).
  */
 import { and, asc, eq, gt, isNull } from 'drizzle-orm';
-import { passwordProblem } from '../../shared/auth';
+import { passwordProblem, type UserDto } from '../../shared/auth';
 import { INVITATION_DAYS, type InvitationDto, type InvitationPreviewDto, type WorkspaceRole } from '../../shared/members';
 import { hashPassword } from '../auth/passwords';
 import { hashToken, randomToken } from '../auth/tokens';
@@ -16,7 +16,6 @@ import { isUniqueViolation } from './executor';
 import { invitationMail } from './mail';
 import { addMember, listMembers } from './memberships';
 import { findUserByEmail, insertUser } from './users';
-import type { UserDto } from '../../shared/auth';
 
 const DAY_MS = 86_400_000;
 const live = () => and(isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date()));
