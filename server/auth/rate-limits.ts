@@ -13,10 +13,11 @@ function emailOf(req: Request): string {
   return typeof email === 'string' ? email.trim().toLowerCase().slice(0, 254) : '';
 }
 
-function limiter(limit: number, key: (req: Request) => string, message: string): RequestHandler {
+function limiter(limit: number, key: (req: Request) => string, message: string, onlyFailures = false): RequestHandler {
   return rateLimit({
     windowMs: FIFTEEN_MINUTES,
     limit,
+    skipSuccessfulRequests: onlyFailures,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: key,
@@ -36,7 +37,8 @@ export interface AuthRateLimits {
 
 export function createAuthRateLimits(): AuthRateLimits {
   return {
-    signIn: limiter(10, (req) => `${ip(req)}|${emailOf(req)}`, 'Too many sign-in attempts for this e-mail address. Wait 15 minutes, or reset your password.'),
+    // Only failed attempts count: signing in often (browser tests, several tabs) is not suspicious.
+    signIn: limiter(10, (req) => `${ip(req)}|${emailOf(req)}`, 'Too many sign-in attempts for this e-mail address. Wait 15 minutes, or reset your password.', true),
     // Generous: API test files sign up many accounts from one address.
     signUp: limiter(100, ip, 'Too many sign-ups from this address. Wait 15 minutes and try again.'),
     resetRequest: limiter(5, (req) => `${ip(req)}|${emailOf(req)}`, 'Too many password-reset requests for this e-mail address. Wait 15 minutes and check your inbox.'),
