@@ -1,0 +1,92 @@
+/**
+ * Encoding (DESIGN.md): categorical -> one indicator per level named `column=level`; rows with a
+ * missing value dropped or mean/mode imputed; constant columns reported and left out; a two-level
+ * categorical binomial response mapped to 0/1 with the mapping in the notes. Expected values are
+ * worked out by hand from the small tables below.
+ */
+import { describe, expect, it } from 'vitest';
+import { buildDesign, fitPath, selectRows } from '../../../server/engine/index';
+import type { EngineColumn, EngineTable, FitSpec } from '../../../server/engine/types';
+
+const num = (name: string, values: number[]): EngineColumn => ({ name, kind: 'numeric', values: Float64Array.from(values) });
+const cat = (name: string, codes: number[], levels: string[]): EngineColumn => ({ name, kind: 'categorical', codes: Int32Array.from(codes), levels });
+
+const data: EngineTable = {
+  nRows: 5,
+  columns: [
+    num('y', [1, 2, NaN, 4, 5]),
+    num('a', [10, NaN, 30, 40, 50]),
+    cat('colour', [0, 1, 2, -1, 1], ['red', 'green', 'blue']),
+    num('flat', [7, 7, 7, 7, 7]),
+  ],
+};
+const spec = { family: 'gaussian' as const, response: 'y', predictors: ['a', 'colour', 'flat'], missing: 'drop' as const };
+
+describe('buildDesign', () => {
+  it('drops rows with missing values and names indicator columns column=level', () => {
+    const built = buildDesign(data, spec);
+    // Row 3 (missing y), row 2 (missing a) and row 4 (missing colour) go: rows 1 and 5 remain.
+    expect([...built.rows]).toEqual([0, 4]);
+    expect([...built.y]).toEqual([1, 5]);
+    // Over rows 1 and 5: a = 10, 50; colour red, green; blue never appears (constant 0); flat constant.
+    expect(built.design.terms).toEqual(['a', 'colour=red', 'colour=green']);
+    expect([...built.design.x]).toEqual([10, 50, 1, 0, 0, 1]);
+    expect(built.groupsOfTerms).toEqual([-1, 1, 1]);
+    expect(built.notes.join('\n')).toContain('"flat" is constant');
+    expect(built.notes.join('\n')).toContain('"colour=blue" is constant');
+    expect(built.notes.join('\n')).toContain('missing');
+  });
+
+  it('imputes the mean of a numeric column and the most frequent level of a categorical one', () => {
+    const built = buildDesign(data, { ...spec, missing: 'impute' });
+    expect([...built.rows]).toEqual([0, 1, 3, 4]);
+    // a over rows 1, 2, 4, 5 = 10, NaN, 40, 50 -> mean 100/3; colour: red, green, (missing -> green), green.
+    const n = 4;
+    expect(built.design.terms).toEqual(['a', 'colour=red', 'colour=green']);
+    expect(built.design.x[1]).toBeCloseTo(100 / 3, 12);
+    expect([...built.design.x.subarray(2 * n, 3 * n)]).toEqual([0, 1, 1, 1]);
+    const enc = built.encoding.columns.find((c) => c.column === 'colour');
+    expect(enc && enc.kind === 'categorical' ? enc.imputeLevel : undefined).toBe('green');
+  });
+
+  it('maps a two-level categorical binomial response to 0/1 in level order and says so', () => {
+    const table: EngineTable = {
+      nRows: 6,
+      columns: [cat('outcome', [1, 0, 1, 1, 0, 0], ['no', 'yes']), num('x', [1, 2, 3, 4, 5, 6])],
+    };
+    const built = buildDesign(table, { family: 'binomial', response: 'outcome', predictors: ['x'], missing: 'drop' });
+    expect([...built.y]).toEqual([1, 0, 1, 1, 0, 0]);
+    expect(built.encoding.responseLevels).toEqual(['no', 'yes']);
+    expect(built.notes.join('\n')).toContain('"no" -> 0, "yes" -> 1');
+  });
+
+  it('selectRows takes a sub-design (e.g. a fold) row by row', () => {
+    const built = buildDesign(data, { ...spec, missing: 'impute' });
+    const sub = selectRows(built.design, built.y, [3, 0]);
+    expect([...sub.y]).toEqual([5, 1]);
+    expect([...sub.design.x.subarray(0, 2)]).toEqual([50, 10]);
+  });
+});
+
+describe('fitPath on a table', () => {
+  it('reports original-scale coefficients that reproduce the standardized ones (b = b~ / sd)', () => {
+    const table: EngineTable = {
+      nRows: 8,
+      columns: [num('y', [3, 1, 4, 1, 5, 9, 2, 6]), num('u', [2, 7, 1, 8, 2, 8, 1, 8]), cat('k', [0, 1, 0, 1, 1, 0, 0, 1], ['p', 'q'])],
+    };
+    const fitSpec: FitSpec = {
+      family: 'gaussian', response: 'y', predictors: ['u', 'k'], penalty: 'lasso', alpha: 1, standardize: true, pathLength: 6,
+      tolerance: 1e-10, maxIterations: 10000, screening: 'strong', missing: 'drop', cv: null,
+    };
+    const result = fitPath(table, fitSpec);
+    expect(result.terms).toEqual(['u', 'k=p', 'k=q']);
+    const scales = result.scales as Float64Array;
+    // u: mean 37/8, population sd from the 8 values (worked by hand: sum of squares 251).
+    const mean = 37 / 8;
+    expect(scales[0]).toBeCloseTo(Math.sqrt(251 / 8 - mean * mean), 12);
+    result.coefficients.forEach((coef, k) => {
+      for (let j = 0; j < 3; j++) expect(coef[j]).toBeCloseTo(result.standardizedCoefficients[k][j] / scales[j], 12);
+    });
+    expect(result.encoding?.columns.map((c) => c.column)).toEqual(['u', 'k']);
+  });
+});
