@@ -101,3 +101,18 @@ describe('screening does not change the solutions', () => {
     });
   }
 });
+
+describe('KKT and duality gap with penalty factors (0 = unpenalized)', () => {
+  for (const c of cases) {
+    for (const screening of ['strong', 'gap-safe'] as Screening[]) {
+      it(`${c.name}, ${screening}`, () => {
+        const p = c.design.p;
+        const factors = Array.from({ length: p }, (_, j) => (j === 1 ? 0 : j % 4 === 0 ? 2 : j % 5 === 0 ? 0.5 : 1));
+        const result = fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'lasso', alpha: 1, standardize: true, penaltyFactors: factors, pathLength: 20, tolerance, screening });
+        const blocks = factors.map((weight, j) => ({ columns: [j], weight }));
+        checkPath(result, c.design, c.y, { family: c.family, alpha: 1, standardize: true, blocks }, `${c.name} factors`);
+        result.coefficients.forEach((coef) => expect(coef[1]).not.toBe(0));
+      });
+    }
+  }
+});
