@@ -6,10 +6,11 @@
  * Matching tolerances: Lariat stops when the duality gap of the 1/(2n)-scaled objective, divided by
  * the null-model objective ||y - mean y||^2 / (2n), is <= T. scikit-learn's coordinate descent works
  * on the n-times larger objective 0.5||y - Xb||^2 + n a ||b||_1 and stops when its gap is below
- * tol * ||y||^2 (y centred; from scikit-learn's _cd_fast.pyx, recalled from memory). Dividing both
- * sides by n: gap_Lariat < tol * 2 * nullObjective, so scikit-learn's tol = T / 2 asks for the same
- * relative gap. scikit-learn also checks the gap only once coefficient updates are small, so it may
- * stop at a smaller gap than asked.
+ * tol * ||y||^2 (y centred here; scikit-learn 1.2 _cd_fast.pyx: `tol = tol * y_norm2` with
+ * y_norm2 = y'y, in both the plain and the Gram kernel). Dividing both sides by n:
+ * gap_Lariat < tol * 2 * nullObjective, so scikit-learn's tol = T / 2 asks for the same relative gap.
+ * scikit-learn also checks the gap only once coefficient updates are small, so it may stop at a
+ * smaller gap than asked.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, writeFileSync } from 'node:fs';

@@ -164,3 +164,27 @@ describe('bad cross-validation input', () => {
     expect(() => crossValidate(table, b, p)).toThrow(/fold 1: every training row has class 0; a binomial fit needs both classes/);
   });
 });
+
+describe('a term constant on a fold\'s training rows', () => {
+  // "rare" is 1 only on fold 1's rows, so fold 1's training rows see it constant (all 0): it must get
+  // coefficient 0 there, making fold 1's fit the same as a fit without that column.
+  const rng = createRng(8);
+  const rows = Array.from({ length: 30 }, (_, i) => {
+    const fold = (i % 3) + 1;
+    const x = rng.normal();
+    const rare = fold === 1 && i < 9 ? 1 : 0;
+    return [x + 3 * rare + 0.2 * rng.normal(), x, rare, fold];
+  });
+  const withRare = csv('y,x,rare,fold', rows);
+  const withoutRare = csv('y,x,fold', rows.map(([y, x, , f]) => [y, x, f]));
+  const s = spec({ lambda: [0.5, 0.1, 0.01], pathLength: 3, cv: { folds: 0, seed: 0, foldColumn: 'fold' } });
+
+  it('gets coefficient 0 there: the fold matches a fit without the column', () => {
+    const sWith = { ...s, predictors: ['x', 'rare'] };
+    const planWith = planCrossValidation(withRare, sWith, fitPath(withRare, sWith));
+    const a = runFold(withRare, sWith, planWith.foldIds, 0, s.lambda as number[]);
+    const b = runFold(withoutRare, s, planWith.foldIds, 0, s.lambda as number[]);
+    a.losses.mse?.forEach((v, l) => expectClose(v, b.losses.mse?.[l] as number, 1e-6, `fold 1 mse at lambda ${l}`));
+    expect(a.statuses.every((st) => st === 'converged')).toBe(true);
+  });
+});
