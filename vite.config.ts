@@ -5,6 +5,8 @@ import { defineConfig } from 'vitest/config';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 const apiPort = process.env.LARIAT_PORT ?? '5180';
+// Test runs copy a per-run template database (tests/support/databases.ts); workers inherit the name.
+process.env.LARIAT_TEST_TEMPLATE ??= `lariat_test_template_${process.pid}`;
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],

@@ -12,6 +12,9 @@ export interface DatabaseHandle {
 
 export function connectDatabase(url: string, max = 10): DatabaseHandle {
   const pool = new pg.Pool({ connectionString: url, max });
+  // An idle client whose server connection ends (a restart, a dropped test database) must not crash
+  // the process; the pool replaces it on the next query.
+  pool.on('error', (err) => console.error('[lariat] idle database connection lost:', err.message));
   const db = drizzle(pool, { schema });
   return { db, pool, close: () => pool.end() };
 }
