@@ -102,7 +102,8 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   return finish('iteration-limit', gap, options.maxIterations);
 
   function finish(status: SolveStatus, finalGap: number, iterations: number): SolverOutcome {
-    w.set(x);
+    // After a numerical failure the warm start is kept: never hand back non-finite coefficients.
+    if (status !== 'numerical-failure') w.set(x);
     return { status, gap: finalGap, iterations, lipschitz };
   }
 }

@@ -1,4 +1,4 @@
-import type { DesignMatrix } from '../types';
+import { EngineInputError, type DesignMatrix } from '../types';
 
 export interface StandardizedDesign {
   n: number;
@@ -49,6 +49,9 @@ export function standardizeDesign(design: DesignMatrix, standardize: boolean): S
       ss += d * d;
     }
     const sd = Math.sqrt(ss / n);
+    if (!Number.isFinite(sd) || !Number.isFinite(mean)) {
+      throw new EngineInputError(`column "${design.terms[j]}" has values too large to fit (their squares overflow); rescale it`, design.terms[j]);
+    }
     scales[j] = standardize ? sd : 1;
     if (standardize) {
       const inv = 1 / sd;

@@ -25,6 +25,9 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
   for (let j = 0; j < p; j++) {
     if (std.constant[j]) notes.push(`column "${design.terms[j]}" is constant over the rows fitted; its coefficient is 0`);
   }
+  if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && options.alpha < 1) {
+    notes.push('Gap Safe screening is used for alpha = 1 only; this elastic-net fit uses the strong rule with KKT checks');
+  }
   let grid = options.lambda ? [...options.lambda] : null;
   if (!grid) {
     if (lambdaMax > 0) grid = lambdaGrid(lambdaMax, options.pathLength ?? 100, options.lambdaRatio ?? defaultLambdaRatio(n, p));

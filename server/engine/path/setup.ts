@@ -121,6 +121,11 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
     c[j] = options.family === 'gaussian' ? s / n : 0;
     colNormSq[j] = sq;
   }
+  for (let j = 0; j < p; j++) {
+    if (!Number.isFinite(colNormSq[j]) || !Number.isFinite(c[j])) {
+      throw new EngineInputError(`column "${design.terms[j]}" has values too large to fit (their squares overflow); rescale it`, design.terms[j]);
+    }
+  }
   const nullObjective =
     options.family === 'gaussian' ? yy / (2 * n) : -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean));
   const problem: Problem = {
@@ -144,6 +149,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
   }
   const nullFit = fitNullModel(problem, Int32Array.from(fixedU));
   const lambdaMax = penaltyLambdaMax(penalty, nullFit.g);
+  if (!Number.isFinite(lambdaMax)) throw new EngineInputError('the data are too large in scale to fit; rescale the columns or standardize', 'data');
   const dual = new DualContext(problem, nullFit.theta, nullFit.g, lambdaMax);
   return { problem, std, nullFit, dual, lambdaMax };
 }

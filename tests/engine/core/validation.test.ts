@@ -91,5 +91,8 @@ describe('validateSpec', () => {
     expectInputError(() => fitPathOnDesign(design, y, { ...options, penaltyFactors: [-2] }), 'penaltyFactors', '"a"');
     expectInputError(() => fitPathOnDesign(design, Float64Array.from([1, 1, 1, 1]), options), 'response', 'constant');
     expectInputError(() => fitPathOnDesign(design, y, { ...options, family: 'binomial' }), 'response', '0 or 1');
+    const huge = { ...design, x: Float64Array.from([1e160, -1e160, 3e160, 0]) };
+    expectInputError(() => fitPathOnDesign(huge, y, { ...options, standardize: false }), 'a', 'too large');
+    expectInputError(() => fitPathOnDesign(huge, y, options), 'a', 'too large');
   });
 });
