@@ -5,7 +5,8 @@ import { DatasetsPlaceholder } from './routes/DatasetsPlaceholder';
 /**
  * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
  * the shell, the session and `useCurrentWorkspace()`). A feature adds its routes with one line,
- * e.g. `...datasetsRoutes,` from '@/features/datasets/routes', replacing its placeholder.
+ * e.g. `...datasetsRoutes,` from '@/features/datasets/routes', replacing its placeholder. Prefer
+ * `lazy: () => import(...).then((m) => ({ Component: m.Page }))` for pages, as src/app/router.tsx does.
  */
 export const workspaceFeatureRoutes: RouteObject[] = [
   { path: paths.workspace.datasets.path, element: <DatasetsPlaceholder /> },

@@ -1,18 +1,8 @@
 import { createBrowserRouter, Navigate, useParams } from 'react-router';
-import { ForgotPasswordPage } from '@/features/auth/components/ForgotPasswordPage';
-import { ResetPasswordPage } from '@/features/auth/components/ResetPasswordPage';
-import { SignInPage } from '@/features/auth/components/SignInPage';
-import { SignUpPage } from '@/features/auth/components/SignUpPage';
-import { AcceptInvitationPage } from '@/features/members/components/AcceptInvitationPage';
-import { MembersPage } from '@/features/members/components/MembersPage';
-import { ModelsEmptyPage } from '@/features/models/components/ModelsEmptyPage';
-import { ReleasesEmptyPage } from '@/features/releases/components/ReleasesEmptyPage';
-import { ReviewsEmptyPage } from '@/features/reviews/components/ReviewsEmptyPage';
-import { NewWorkspacePage } from '@/features/workspaces/components/NewWorkspacePage';
+import { FullPageLoading } from '@/components/Loading';
 import { workspaceFeatureRoutes } from './feature-routes';
 import { paths } from './paths';
 import { NotFoundPage } from './routes/NotFoundPage';
-import { OutboxRoute } from './routes/OutboxRoute';
 import { RouteErrorPage } from './routes/RouteErrorPage';
 import { GuestOnly, HomeRedirect, RequireSession } from './routes/SessionGuards';
 import { WorkspaceLayout } from './routes/WorkspaceLayout';
@@ -22,37 +12,52 @@ function WorkspaceIndex() {
   return <Navigate to={paths.workspace.datasets.getHref(workspaceId)} replace />;
 }
 
+// Pages load on first visit (route `lazy`), so the first download stays small as features grow.
+const signIn = () => import('@/features/auth/components/SignInPage').then((m) => ({ Component: m.SignInPage }));
+const signUp = () => import('@/features/auth/components/SignUpPage').then((m) => ({ Component: m.SignUpPage }));
+const forgotPassword = () => import('@/features/auth/components/ForgotPasswordPage').then((m) => ({ Component: m.ForgotPasswordPage }));
+const resetPassword = () => import('@/features/auth/components/ResetPasswordPage').then((m) => ({ Component: m.ResetPasswordPage }));
+const acceptInvitation = () =>
+  import('@/features/members/components/AcceptInvitationPage').then((m) => ({ Component: m.AcceptInvitationPage }));
+const newWorkspace = () => import('@/features/workspaces/components/NewWorkspacePage').then((m) => ({ Component: m.NewWorkspacePage }));
+const members = () => import('@/features/members/components/MembersPage').then((m) => ({ Component: m.MembersPage }));
+const models = () => import('@/features/models/components/ModelsEmptyPage').then((m) => ({ Component: m.ModelsEmptyPage }));
+const reviews = () => import('@/features/reviews/components/ReviewsEmptyPage').then((m) => ({ Component: m.ReviewsEmptyPage }));
+const releases = () => import('@/features/releases/components/ReleasesEmptyPage').then((m) => ({ Component: m.ReleasesEmptyPage }));
+const outbox = () => import('./routes/OutboxRoute').then((m) => ({ Component: m.OutboxRoute }));
+
 export function createAppRouter() {
   return createBrowserRouter([
     {
       errorElement: <RouteErrorPage />,
+      hydrateFallbackElement: <FullPageLoading />,
       children: [
         { path: paths.home.path, element: <HomeRedirect /> },
         {
           element: <GuestOnly />,
           children: [
-            { path: paths.auth.signIn.path, element: <SignInPage /> },
-            { path: paths.auth.signUp.path, element: <SignUpPage /> },
-            { path: paths.auth.forgotPassword.path, element: <ForgotPasswordPage /> },
+            { path: paths.auth.signIn.path, lazy: signIn },
+            { path: paths.auth.signUp.path, lazy: signUp },
+            { path: paths.auth.forgotPassword.path, lazy: forgotPassword },
           ],
         },
-        { path: paths.auth.resetPassword.path, element: <ResetPasswordPage /> },
-        { path: paths.auth.acceptInvitation.path, element: <AcceptInvitationPage /> },
+        { path: paths.auth.resetPassword.path, lazy: resetPassword },
+        { path: paths.auth.acceptInvitation.path, lazy: acceptInvitation },
         {
           element: <RequireSession />,
           children: [
-            { path: paths.newWorkspace.path, element: <NewWorkspacePage /> },
+            { path: paths.newWorkspace.path, lazy: newWorkspace },
             {
               path: paths.workspace.root.path,
               element: <WorkspaceLayout />,
               children: [
                 { index: true, element: <WorkspaceIndex /> },
                 ...workspaceFeatureRoutes,
-                { path: paths.workspace.models.path, element: <ModelsEmptyPage /> },
-                { path: paths.workspace.reviews.path, element: <ReviewsEmptyPage /> },
-                { path: paths.workspace.releases.path, element: <ReleasesEmptyPage /> },
-                { path: paths.workspace.members.path, element: <MembersPage /> },
-                { path: paths.workspace.outbox.path, element: <OutboxRoute /> },
+                { path: paths.workspace.models.path, lazy: models },
+                { path: paths.workspace.reviews.path, lazy: reviews },
+                { path: paths.workspace.releases.path, lazy: releases },
+                { path: paths.workspace.members.path, lazy: members },
+                { path: paths.workspace.outbox.path, lazy: outbox },
                 { path: '*', element: <NotFoundPage inShell /> },
               ],
             },

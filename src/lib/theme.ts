@@ -22,9 +22,20 @@ export function initialTheme(): Theme {
   return storedTheme() ?? systemTheme();
 }
 
+/**
+ * Switches the class with transitions paused, so buttons don't fade through unreadable in-between
+ * colours (the same trick as next-themes' disableTransitionOnChange): pause, switch, force a style
+ * recalculation, resume.
+ */
 export function applyTheme(theme: Theme): void {
-  document.documentElement.classList.toggle('dark', theme === 'dark');
-  document.documentElement.style.colorScheme = theme;
+  const root = document.documentElement;
+  const pause = document.createElement('style');
+  pause.textContent = '*,*::before,*::after{transition:none!important}';
+  document.head.appendChild(pause);
+  root.classList.toggle('dark', theme === 'dark');
+  root.style.colorScheme = theme;
+  void window.getComputedStyle(document.body).color;
+  setTimeout(() => pause.remove(), 1);
 }
 
 export function saveTheme(theme: Theme): void {
