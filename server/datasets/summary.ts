@@ -31,9 +31,14 @@ function levelCounts(counts: Map<string, number>): LevelCount[] {
 
 export function summarize(col: LoadedColumn): ColumnSummary {
   if (col.kind === 'numeric') {
-    const present = col.values.filter((x) => !Number.isNaN(x)).sort();
-    const n = present.length;
-    const base = { count: col.values.length, missing: col.values.length - n, distinct: new Set(present).size };
+    const all = col.values;
+    let n = 0;
+    const buffer = new Float64Array(all.length);
+    for (let i = 0; i < all.length; i++) if (!Number.isNaN(all[i])) buffer[n++] = all[i];
+    const present = buffer.subarray(0, n).sort();
+    let distinct = n > 0 ? 1 : 0;
+    for (let i = 1; i < n; i++) if (present[i] !== present[i - 1]) distinct++;
+    const base = { count: col.values.length, missing: col.values.length - n, distinct };
     if (n === 0) return base;
     const xs = present as unknown as number[]; // simple-statistics only indexes and reads length
     return {

@@ -20,12 +20,12 @@ export interface Inference {
 const ID_NAME = /^(id|key|row|index|uuid)$|[_\s.-](id|key|uuid)$|[a-z]Id$/i;
 
 function examples(p: ColumnProfile, k = 3): string {
-  return [...p.distinct.keys()].slice(0, k).map((v) => `"${v}"`).join(', ');
+  return [...p.distinctValues.keys()].slice(0, k).map((v) => `"${v}"`).join(', ');
 }
 
 export function inferColumn(p: ColumnProfile): Inference {
   const n = p.present;
-  const distinct = p.overflow ? null : p.distinct.size;
+  const distinct = p.overflow ? null : p.distinctCount;
   const allDistinct = distinct !== null && distinct === n && n > 1;
   if (n === 0) return { type: 'text', storage: 'text', excluded: true, reason: 'Every value is missing.' };
   if (p.allNumeric) {
@@ -53,7 +53,7 @@ export function inferColumn(p: ColumnProfile): Inference {
     return { type: 'identifier', storage: 'text', excluded: true, reason: `Every value is different (${n} values): looks like an identifier (${text}).` };
   }
   if (distinct === null || distinct > CATEGORICAL_LEVEL_LIMIT) {
-    const count = distinct === null ? `more than ${p.distinct.size - 1}` : String(distinct);
+    const count = distinct === null ? `more than ${p.distinctCount - 1}` : String(distinct);
     return { type: 'identifier', storage: 'text', excluded: true, reason: `${count} distinct values is too many for categories (limit ${CATEGORICAL_LEVEL_LIMIT}); treated as an identifier (${text}).` };
   }
   return { type: 'categorical', storage: 'codes', excluded: false, reason: `${distinct} distinct values (${examples(p)}, ...); ${text}.` };

@@ -10,9 +10,10 @@ export function missingTest(markers: string[]): MissingTest {
   return {
     markers,
     isMissing(cell: string): boolean {
-      // Cheap length test first: most cells are longer than every marker.
-      if (cell.length > longest + 8) return false;
-      return set.has(cell.trim().toLowerCase());
+      // Cheap tests first: most cells are longer than every marker and need no lower-casing.
+      const t = cell.length > longest ? cell.trim() : cell;
+      if (t.length > longest) return false;
+      return set.has(t) || set.has(t.trim().toLowerCase());
     },
   };
 }

@@ -19,7 +19,9 @@ export class ColumnProfile {
   integers = true;
   hasWhitespace = false;
   totalLength = 0;
+  /** Distinct values and their counts; numbers are keyed by value while the column is all numbers. */
   distinct = new Map<string, number>();
+  private numbers = new Map<number, number>();
   overflow = false;
 
   constructor(readonly name: string) {}
@@ -32,24 +34,40 @@ export class ColumnProfile {
       this.rowCounter = false;
       return;
     }
-    let value = cell.trim();
+    const value = cell.trim();
     this.totalLength += value.length;
-    if (this.numeric === this.count - this.missing - 1 && this.firstText === null && DECIMAL.test(value)) {
+    if (this.firstText === null && DECIMAL.test(value)) {
       this.numeric++;
       const x = Number(value);
-      if (!Number.isInteger(x)) this.integers = false;
+      if (this.integers && !Number.isInteger(x)) this.integers = false;
       if (this.rowCounter && x !== row && x !== row - 1) this.rowCounter = false;
-      value = String(x); // "1.0" and "1" are the same number
-    } else {
-      if (this.firstText === null) this.firstText = { value, row };
-      if (!this.hasWhitespace && /\s/.test(value)) this.hasWhitespace = true;
+      if (!this.overflow) this.count1(this.numbers, x); // "1.0" and "1" are the same number
+      return;
     }
-    if (!this.overflow) {
-      const seen = this.distinct.get(value);
-      if (seen !== undefined) this.distinct.set(value, seen + 1);
-      else if (this.distinct.size < DISTINCT_CAP) this.distinct.set(value, 1);
-      else this.overflow = true;
+    if (this.firstText === null) {
+      this.firstText = { value, row };
+      for (const [x, n] of this.numbers) this.distinct.set(String(x), n);
+      this.numbers.clear();
     }
+    if (!this.hasWhitespace && /\s/.test(value)) this.hasWhitespace = true;
+    if (!this.overflow) this.count1(this.distinct, value);
+  }
+
+  private count1<K>(map: Map<K, number>, key: K): void {
+    const seen = map.get(key);
+    if (seen !== undefined) map.set(key, seen + 1);
+    else if (map.size < DISTINCT_CAP) map.set(key, 1);
+    else this.overflow = true;
+  }
+
+  /** Distinct values seen (as text) with their counts, up to the cap. */
+  get distinctValues(): Map<string, number> {
+    if (this.firstText !== null) return this.distinct;
+    return new Map([...this.numbers].map(([x, n]) => [String(x), n]));
+  }
+
+  get distinctCount(): number {
+    return this.firstText !== null ? this.distinct.size : this.numbers.size;
   }
 
   get present(): number {

@@ -38,6 +38,17 @@ export interface IngestRequest {
   progress?: Pick<ProgressHandle, 'phase'>;
 }
 
+/** LARIAT_INGEST_TIMING=1 prints each phase's wall time on stderr (for the ingest benchmark). */
+function phaseTimer(fileName: string): (phase: string) => void {
+  let last = process.hrtime.bigint();
+  return (phase) => {
+    if (process.env.LARIAT_INGEST_TIMING !== '1') return;
+    const now = process.hrtime.bigint();
+    console.error(`[lariat] ingest ${fileName}: ${phase} ${(Number(now - last) / 1e9).toFixed(2)} s`);
+    last = now;
+  };
+}
+
 export async function ingestFile(db: Database, req: IngestRequest): Promise<UploadResultDto> {
   const dataset = req.datasetId ? await findDataset(db, req.workspaceId, req.datasetId) : null;
   if (req.datasetId && !dataset) throw notFound('No such dataset in this workspace.');
@@ -54,6 +65,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
   }
 
   fs.mkdirSync(req.tempDir, { recursive: true });
+  const timer = phaseTimer(req.fileName);
   const parsed = await parseCsvFile({
     filePath: req.filePath,
     fileName: req.fileName,
@@ -62,6 +74,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
     spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
     onProgress: (bytes, rows) => req.progress?.phase('parsing', bytes / Math.max(1, req.sizeBytes), rows),
   });
+  timer('parse');
   try {
     const inferences = parsed.profiles.map(inferColumn);
     const report = buildReport(parsed, req.fileName, inferences);
@@ -91,6 +104,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
         await insertFileChunk(tx, uploadId, seq++, chunk as Buffer);
         req.progress?.phase('storing', (0.3 * seq) / chunks, parsed.rowCount);
       }
+      timer('store original');
       const schema = [];
       for (let j = 0; j < parsed.header.length; j++) {
         const stored = encodeColumn(parsed.header[j], parsed.spill.readColumn(j), inferences[j], parsed.missing);
@@ -108,6 +122,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
         createdBy: req.userId,
       });
     });
+    timer('encode, summarise and store columns');
     const version = (await findVersionRowById(db, versionId))!;
     const excluded = version.columns.filter((c) => c.excluded).length;
     return {

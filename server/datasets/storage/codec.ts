@@ -35,7 +35,7 @@ export function compareLevels(a: string, b: string): number {
 
 export function encodeFloat64(cells: string[], missing: MissingTest): Float64Array {
   const out = new Float64Array(cells.length);
-  for (let i = 0; i < cells.length; i++) out[i] = missing.isMissing(cells[i]) ? Number.NaN : Number(cells[i].trim());
+  for (let i = 0; i < cells.length; i++) out[i] = missing.isMissing(cells[i]) ? Number.NaN : Number(cells[i]); // Number() ignores surrounding blanks
   return out;
 }
 
