@@ -94,6 +94,7 @@ function gaussianGramLoss(problem: Problem, ws: WorkingSet): BoundLoss {
   const k = ws.k;
   const g = new Float64Array(k * k);
   const c = new Float64Array(k);
+  problem.gram.ensure(ws.features);
   for (let b = 0; b < k; b++) {
     const col = problem.gram.column(ws.features[b]);
     c[b] = problem.c[ws.features[b]];
