@@ -14,6 +14,11 @@ export const paths = {
   workspace: {
     root: { path: '/w/:workspaceId', getHref: (workspaceId: string) => `/w/${workspaceId}` },
     datasets: { path: '/w/:workspaceId/datasets', getHref: (workspaceId: string) => `/w/${workspaceId}/datasets` },
+    dataset: { path: '/w/:workspaceId/datasets/:datasetId', getHref: (workspaceId: string, datasetId: string) => `/w/${workspaceId}/datasets/${datasetId}` },
+    datasetVersion: {
+      path: '/w/:workspaceId/datasets/:datasetId/versions/:number',
+      getHref: (workspaceId: string, datasetId: string, number: number) => `/w/${workspaceId}/datasets/${datasetId}/versions/${number}`,
+    },
     models: { path: '/w/:workspaceId/models', getHref: (workspaceId: string) => `/w/${workspaceId}/models` },
     reviews: { path: '/w/:workspaceId/reviews', getHref: (workspaceId: string) => `/w/${workspaceId}/reviews` },
     releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },

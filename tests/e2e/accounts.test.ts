@@ -102,8 +102,25 @@ describe('accounts', () => {
     await page.waitForURL(new RegExp(`/w/${workspaceId}/datasets$`));
   });
 
-  it('has an accessible forgot-password page', async () => {
+  it("puts the server's refusal next to the field it names (an e-mail already in use)", async () => {
     await signOut(page);
+    await page.goto('/sign-up');
+    await page.getByLabel('Your name').fill('Second Try');
+    await page.getByLabel('E-mail').fill(admin.email);
+    await page.getByLabel('Password').fill('another-long-passphrase-12');
+    await page.getByLabel('Workspace name').fill('Second workspace');
+    await page.getByRole('button', { name: 'Create workspace' }).click();
+    const email = page.getByLabel('E-mail');
+    await page.waitForFunction(() => document.querySelector('input[type=email]')?.getAttribute('aria-invalid') === 'true');
+    const errorId = await email.getAttribute('aria-describedby');
+    const message = await page.locator(`[id="${errorId}"]`).textContent();
+    expect(message?.toLowerCase()).toContain('e-mail');
+    expect(await page.getByLabel('Your name').getAttribute('aria-invalid')).toBeNull();
+    expect(page.url()).toMatch(/\/sign-up$/);
+  });
+
+  it('has an accessible forgot-password page', async () => {
+    await page.goto('/sign-in');
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
     await expectVisible(page.getByRole('heading', { name: 'Reset your password' }));
     await checkA11y(page, 'forgot-password page');

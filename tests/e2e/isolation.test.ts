@@ -64,4 +64,18 @@ describe('workspace isolation', () => {
     const options = await pageB.locator('#workspace-switcher option').allTextContents();
     expect(options).toEqual([`${bruno.workspaceName} (Admin)`, 'New workspace…']);
   });
+
+  it('starts a second workspace from the switcher and switches between the two', async () => {
+    await pageB.locator('#workspace-switcher').selectOption({ label: 'New workspace…' });
+    await pageB.waitForURL(/\/new-workspace$/);
+    await checkA11y(pageB, 'new workspace page');
+    await pageB.getByLabel('Workspace name').fill('Bruno side project');
+    await pageB.getByRole('button', { name: 'Create workspace' }).click();
+    await pageB.waitForURL((url) => /\/w\/[^/]+\/datasets$/.test(url.pathname) && !url.pathname.includes(workspaceB));
+    expect(await pageB.locator('#workspace-switcher option:checked').textContent()).toBe('Bruno side project (Admin)');
+
+    await pageB.locator('#workspace-switcher').selectOption(workspaceB);
+    await pageB.waitForURL(new RegExp(`/w/${workspaceB}/datasets$`));
+    expect(await pageB.locator('#workspace-switcher option').count()).toBe(3);
+  });
 });

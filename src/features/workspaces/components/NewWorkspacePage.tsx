@@ -3,7 +3,7 @@ import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router';
 import { createWorkspaceSchema, type CreateWorkspaceInput } from '@shared/workspaces';
 import { paths } from '@/app/paths';
-import { AuthCard } from '@/components/AuthCard';
+import { AuthCard, TextLink } from '@/components/AuthCard';
 import { Button } from '@/components/Button';
 import { TextField } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -26,7 +26,11 @@ export function NewWorkspacePage() {
   });
 
   return (
-    <AuthCard title="Start a new workspace" intro="You will be its admin. Nothing is shared between workspaces.">
+    <AuthCard
+      title="Start a new workspace"
+      intro="You will be its admin. Nothing is shared between workspaces."
+      footer={<TextLink to={paths.home.getHref()}>Back to your workspaces</TextLink>}
+    >
       <form onSubmit={onSubmit} noValidate className="space-y-4">
         {errors.root?.server && <Notice tone="error">{errors.root.server.message}</Notice>}
         <TextField label="Workspace name" error={errors.name?.message} {...form.register('name')} />

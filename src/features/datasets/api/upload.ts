@@ -1,0 +1,60 @@
+/**
+ * POST .../datasets/uploads?ingest=<id> with XMLHttpRequest (fetch has no upload progress), while
+ * GET .../ingests/<id> is polled for the server's parsing and storing progress
+ * (docs/decisions/0011-upload-progress.md).
+ */
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { IngestProgressDto, UploadResultDto } from '@shared/datasets';
+import { api, ApiError, CSRF_COOKIE, CSRF_HEADER } from '@/lib/api';
+
+export interface UploadFields {
+  name?: string;
+  description?: string;
+  datasetId?: string;
+  missing?: string;
+}
+
+export interface UploadHandle {
+  ingestId: string;
+  result: Promise<UploadResultDto>;
+  abort(): void;
+}
+
+function csrfToken(): string {
+  const match = document.cookie.split(';').map((p) => p.trim().split('=')).find(([k]) => k === CSRF_COOKIE);
+  return match ? decodeURIComponent(match.slice(1).join('=')) : '';
+}
+
+export function uploadDataset(workspaceId: string, file: File, fields: UploadFields, onTransfer: (loaded: number, total: number) => void): UploadHandle {
+  const ingestId = crypto.randomUUID();
+  const xhr = new XMLHttpRequest();
+  const form = new FormData();
+  for (const [key, value] of Object.entries(fields)) if (value !== undefined && value !== '') form.append(key, value);
+  form.append('file', file, file.name); // after the fields: the server reads them first
+  const result = new Promise<UploadResultDto>((resolve, reject) => {
+    xhr.upload.onprogress = (e) => onTransfer(e.loaded, e.lengthComputable ? e.total : file.size);
+    xhr.onload = () => {
+      const body = JSON.parse(xhr.responseText || '{}') as UploadResultDto & { error?: { message: string; field?: string } };
+      if (xhr.status >= 200 && xhr.status < 300) resolve(body);
+      else reject(new ApiError(xhr.status, body.error?.message ?? `The server answered ${xhr.status}.`, body.error?.field));
+    };
+    xhr.onerror = () => reject(new ApiError(0, `The upload of ${file.name} was interrupted. Check your connection and try again.`));
+    xhr.onabort = () => reject(new ApiError(0, `The upload of ${file.name} was cancelled.`));
+  });
+  xhr.open('POST', `/api/workspaces/${workspaceId}/datasets/uploads?ingest=${ingestId}`);
+  xhr.setRequestHeader(CSRF_HEADER, csrfToken());
+  xhr.send(form);
+  return { ingestId, result, abort: () => xhr.abort() };
+}
+
+export const ingestQueryOptions = (workspaceId: string, ingestId: string) =>
+  queryOptions({
+    queryKey: ['workspaces', workspaceId, 'ingests', ingestId],
+    queryFn: () => api.get<IngestProgressDto>(`/api/workspaces/${workspaceId}/ingests/${ingestId}`),
+    retry: false,
+  });
+
+/** Polls twice a second while `active`. */
+export function useIngestProgress(workspaceId: string, ingestId: string | null, active: boolean) {
+  return useQuery({ ...ingestQueryOptions(workspaceId, ingestId ?? 'none'), enabled: ingestId !== null && active, refetchInterval: active ? 500 : false });
+}
