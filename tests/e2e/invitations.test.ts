@@ -59,6 +59,7 @@ describe('invitations', () => {
     await admin.goto(`/w/${workspaceId}/outbox`);
     await expectVisible(admin.getByRole('link', { name: link }));
     await checkA11y(admin, 'outbox with messages');
+    await admin.screenshot({ path: 'tests/e2e/screenshots/outbox-light.png' });
   });
 
   it('lets the invitee set a name and password and land in the workspace as a viewer', async () => {
