@@ -143,6 +143,9 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
     colNormSq,
     nullObjective,
   };
+  // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
+  // is cheaper than column by column as the working set grows.
+  if (problem.useGram && p <= 500) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
   const fixedU: number[] = [];
   for (let u = 0; u < penalty.nBlocks; u++) {
     if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);

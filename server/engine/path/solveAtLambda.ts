@@ -26,7 +26,7 @@ export interface LambdaOptions {
   screening: Screening;
 }
 
-const CHECK_EVERY = 10;
+const CHECK_EVERY = 5;
 
 /**
  * Solves at one lambda from the warm start in `state`. Working set: with 'strong', the sequential
