@@ -85,10 +85,16 @@ describe('KKT and duality gap at every solution', () => {
 });
 
 describe('screening does not change the solutions', () => {
-  for (const c of cases) {
-    it(c.name, () => {
+  const penalties: [string, Pick<PathOptions, 'penalty' | 'alpha'>][] = [
+    ['lasso', { penalty: 'lasso', alpha: 1 }],
+    ['group lasso', { penalty: 'group-lasso', alpha: 1 }],
+    ['elastic net', { penalty: 'elastic-net', alpha: 0.5 }],
+  ];
+  for (const c of cases) for (const [penaltyName, penalty] of penalties) {
+    it(`${c.name}, ${penaltyName}`, () => {
+      const groupOfTerm = Array.from({ length: c.design.p }, (_, j) => Math.floor(j / 2));
       const fits = (['strong', 'gap-safe', 'none'] as Screening[]).map((screening) =>
-        fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'lasso', alpha: 1, standardize: true, pathLength: 20, tolerance: 1e-11, screening }),
+        fitPathOnDesign(c.design, c.y, { family: c.family, ...penalty, groupOfTerm, standardize: true, pathLength: 20, tolerance: 1e-11, screening }),
       );
       for (const other of fits.slice(1)) {
         other.lambda.forEach((lambda, k) => {

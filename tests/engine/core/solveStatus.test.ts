@@ -47,3 +47,33 @@ describe('determinism', () => {
     });
   }
 });
+
+describe('deviance ratio and the optional early stop', () => {
+  it('deviance ratio = 1 - RSS/TSS (gaussian, common practice), recomputed from the coefficients', () => {
+    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 8, tolerance: 1e-10 });
+    const { n, p, x } = design;
+    const mean = y.reduce((a, b) => a + b, 0) / n;
+    const tss = y.reduce((a, b) => a + (b - mean) ** 2, 0);
+    result.lambda.forEach((lambda, k) => {
+      let rss = 0;
+      for (let i = 0; i < n; i++) {
+        let e = result.intercept[k];
+        for (let j = 0; j < p; j++) e += result.coefficients[k][j] * x[j * n + i];
+        rss += (y[i] - e) ** 2;
+      }
+      expect(Math.abs(result.devianceRatio[k] - (1 - rss / tss)), `deviance ratio at lambda ${lambda}`).toBeLessThan(1e-9);
+    });
+  });
+
+  it('stops once the deviance ratio exceeds 0.999 or changes by < 1e-5 (relative), and says so', () => {
+    const options: PathOptions = { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 1e-4 };
+    const full = fitPathOnDesign(design, y, options);
+    const early = fitPathOnDesign(design, y, { ...options, earlyStop: true });
+    expect(full.lambda.length).toBe(100);
+    expect(early.lambda.length).toBeLessThan(100);
+    const k = early.lambda.length - 1;
+    const last = early.devianceRatio[k];
+    expect(last > 0.999 || Math.abs(last - early.devianceRatio[k - 1]) < 1e-5 * Math.abs(last)).toBe(true);
+    expect(early.notes.join('\n')).toContain('stopped early');
+  });
+});
