@@ -1,6 +1,5 @@
 import type { RouteObject } from 'react-router';
-import { paths } from './paths';
-import { DatasetsPlaceholder } from './routes/DatasetsPlaceholder';
+import { datasetsRoutes } from '@/features/datasets/routes';
 
 /**
  * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
@@ -9,5 +8,5 @@ import { DatasetsPlaceholder } from './routes/DatasetsPlaceholder';
  * `lazy: () => import(...).then((m) => ({ Component: m.Page }))` for pages, as src/app/router.tsx does.
  */
 export const workspaceFeatureRoutes: RouteObject[] = [
-  { path: paths.workspace.datasets.path, element: <DatasetsPlaceholder /> },
+  ...datasetsRoutes,
 ];

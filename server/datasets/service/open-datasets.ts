@@ -12,7 +12,7 @@ import { importDatasetFromFile } from './import-file';
 
 export const OPEN_DIR = fileURLToPath(new URL('../../../datasets/open/', import.meta.url));
 
-interface OpenEntry extends Omit<OpenDatasetDto, 'importedAs'> {}
+type OpenEntry = Omit<OpenDatasetDto, 'importedAs'>;
 
 export const OPEN_DATASETS: OpenEntry[] = [
   {
