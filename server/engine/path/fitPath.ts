@@ -3,7 +3,7 @@ import { validateSpec } from '../design/validate';
 import { EngineInputError, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
 import { defaultLambdaRatio, lambdaGrid } from './grid';
 import { pathOptionsFromSpec } from './fromSpec';
-import { checkPathOptions, prepareProblem } from './setup';
+import { checkPathOptions, prepareProblem, type PreparedProblem } from './setup';
 import { solveAtLambda, type LambdaState } from './solveAtLambda';
 
 const DEFAULT_TOLERANCE = 1e-7;
@@ -66,7 +66,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
       screening: options.screening ?? 'strong',
     }, lipschitz);
     previous = lambda;
-    record(result, state, info, lambda, problem.yMean, std, options.standardize, dual, problem);
+    record(result, state, info, lambda, std, options.standardize, problem);
     if (options.earlyStop && shouldStop(result.devianceRatio)) {
       notes.push(`path stopped early after ${result.lambda.length} lambdas: the deviance ratio stopped improving`);
       break;
@@ -87,18 +87,15 @@ function record(
   state: LambdaState,
   info: SolveInfo,
   lambda: number,
-  yMean: number,
-  std: ReturnType<typeof prepareProblem>['std'],
+  std: PreparedProblem['std'],
   standardize: boolean,
-  dual: ReturnType<typeof prepareProblem>['dual'],
-  problem: ReturnType<typeof prepareProblem>['problem'],
+  problem: PreparedProblem['problem'],
 ): void {
-  void dual;
   const p = state.coef.length;
   const standardized = Float64Array.from(state.coef);
   const original = new Float64Array(p);
   let nonzero = 0;
-  const internalIntercept = problem.family === 'gaussian' ? yMean : state.intercept;
+  const internalIntercept = problem.family === 'gaussian' ? problem.yMean : state.intercept;
   let intercept = internalIntercept;
   for (let j = 0; j < p; j++) {
     if (standardized[j] === 0 || std.scales[j] === 0) continue;

@@ -9,10 +9,11 @@ import { EngineInputError, type FitSpec, type PathOptions } from '../types';
 export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOptions {
   const terms = built.design.terms;
   const p = terms.length;
-  const columnOf = terms.map((term) => {
-    const enc = built.encoding.columns.find((c) => (c.kind === 'numeric' ? c.term === terms.indexOf(term) : c.terms.includes(terms.indexOf(term))));
-    return enc ? enc.column : term;
-  });
+  const columnOf = [...terms];
+  for (const enc of built.encoding.columns) {
+    if (enc.kind === 'numeric') columnOf[enc.term] = enc.column;
+    else for (const term of enc.terms) columnOf[term] = enc.column;
+  }
   const factors = new Float64Array(p).fill(1);
   for (const [key, value] of Object.entries(spec.penaltyFactors ?? {})) {
     let matched = false;
@@ -42,10 +43,12 @@ export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOpti
   if (spec.penalty === 'group-lasso') {
     const groupOf = new Int32Array(p).fill(-1);
     let next = 0;
+    const groupOfColumn = new Map<string, number>();
     for (const columns of Object.values(spec.groups ?? {})) {
       const id = next++;
-      for (let j = 0; j < p; j++) if (columns.includes(columnOf[j])) groupOf[j] = id;
+      for (const column of columns) groupOfColumn.set(column, id);
     }
+    for (let j = 0; j < p; j++) groupOf[j] = groupOfColumn.get(columnOf[j]) ?? -1;
     const categoricalGroup = new Map<number, number>();
     for (let j = 0; j < p; j++) {
       if (groupOf[j] >= 0) continue;

@@ -90,3 +90,37 @@ describe('fitPath on a table', () => {
     expect(result.encoding?.columns.map((c) => c.column)).toEqual(['u', 'k']);
   });
 });
+
+describe('fitPath with the group lasso', () => {
+  it('a named group and a categorical predictor enter and leave as wholes (group lasso property)', () => {
+    const n = 60;
+    const a: number[] = [];
+    const b: number[] = [];
+    const c: number[] = [];
+    const k: number[] = [];
+    const y: number[] = [];
+    for (let i = 0; i < n; i++) {
+      a.push(Math.sin(i));
+      b.push(Math.cos(3 * i));
+      c.push(Math.sin(7 * i + 1));
+      k.push(i % 3);
+      y.push(2 * a[i] - b[i] + (k[i] === 2 ? 1.5 : 0) + 0.3 * Math.sin(11 * i));
+    }
+    const table: EngineTable = {
+      nRows: n,
+      columns: [num('y', y), num('a', a), num('b', b), num('c', c), cat('k', k, ['l0', 'l1', 'l2'])],
+    };
+    const result = fitPath(table, {
+      family: 'gaussian', response: 'y', predictors: ['a', 'b', 'c', 'k'], penalty: 'group-lasso', alpha: 1,
+      groups: { ab: ['a', 'b'] }, standardize: true, pathLength: 15, tolerance: 1e-10, maxIterations: 10000,
+      screening: 'strong', missing: 'drop', cv: null,
+    });
+    expect(result.terms).toEqual(['a', 'b', 'c', 'k=l0', 'k=l1', 'k=l2']);
+    const together = (coef: Float64Array, members: number[]) => new Set(members.map((j) => coef[j] !== 0)).size === 1;
+    result.coefficients.forEach((coef, step) => {
+      expect(together(coef, [0, 1]), `group ab at lambda ${result.lambda[step]}`).toBe(true);
+      expect(together(coef, [3, 4, 5]), `categorical k at lambda ${result.lambda[step]}`).toBe(true);
+    });
+    expect(result.nonzero[result.nonzero.length - 1]).toBeGreaterThanOrEqual(5);
+  });
+});
