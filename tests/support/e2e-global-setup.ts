@@ -9,7 +9,7 @@ import net from 'node:net';
 import pg from 'pg';
 import type { TestProject } from 'vitest/node';
 import { applyMigrations } from '../../server/db/migrate';
-import { TEMPLATE_DB, adminUrl, createTestDatabase, urlFor } from './databases';
+import { TEMPLATE_DB, adminQuery, adminUrl, createTestDatabase, urlFor } from './databases';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -81,9 +81,8 @@ function stopServer(server: ChildProcess): Promise<void> {
 export default async function setup(project: TestProject): Promise<() => Promise<void>> {
   if (!fs.existsSync('dist/client/index.html')) execSync('npx vite build --logLevel warn', { stdio: 'inherit' });
 
-  if (!(await templateExists())) {
-    await createTemplate();
-  }
+  const ownTemplate = !(await templateExists());
+  if (ownTemplate) await createTemplate();
   // Idempotent: brings a template left by an earlier run up to the current migrations.
   await applyMigrations(urlFor(TEMPLATE_DB));
   const database = await createTestDatabase();
@@ -125,6 +124,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
     await stopServer(server);
     if (process.env.LARIAT_E2E_SERVER_LOG) console.log(log);
     await database.drop();
+    if (ownTemplate) await adminQuery(`DROP DATABASE IF EXISTS ${TEMPLATE_DB} WITH (FORCE)`);
     fs.rmSync(`.lariat/test-state/${database.name}`, { recursive: true, force: true });
   };
 }
