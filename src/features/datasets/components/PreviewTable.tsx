@@ -31,7 +31,8 @@ export function PreviewTable({ preview }: { preview: PreviewDto }) {
     [preview.columns],
   );
   const [sorting, setSorting] = useState<SortingState>([]);
-  const table = useTable({ features, columns, data: preview.rows, state: { sorting }, onSortingChange: setSorting });
+  // Ascending first for every column (the library's default starts numbers descending).
+  const table = useTable({ features, columns, data: preview.rows, state: { sorting }, onSortingChange: setSorting, sortDescFirst: false });
   const rows = table.getRowModel().rows;
   const scroller = useRef<HTMLDivElement>(null);
   const virtualizer = useVirtualizer({ count: rows.length, getScrollElement: () => scroller.current, estimateSize: () => ROW_HEIGHT, overscan: 10 });
