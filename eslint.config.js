@@ -25,13 +25,11 @@ export default tseslint.config(
       sourceType: 'module',
       globals: { ...globals.node, ...globals.browser },
     },
-    plugins: { import: importPlugin, 'react-hooks': reactHooks },
+    plugins: { import: importPlugin },
     settings: { 'import/resolver': { typescript: { project: './tsconfig.json' }, node: { extensions: ['.ts', '.tsx', '.js'] } } },
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       'import/no-cycle': ['error', { ignoreExternal: true }],
-      'react-hooks/rules-of-hooks': 'error',
-      'react-hooks/exhaustive-deps': 'warn',
       'import/no-restricted-paths': [
         'error',
         {
@@ -45,6 +43,14 @@ export default tseslint.config(
           ],
         },
       ],
+    },
+  },
+  {
+    files: ['src/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks },
+    rules: {
+      'react-hooks/rules-of-hooks': 'error',
+      'react-hooks/exhaustive-deps': 'warn',
     },
   },
 );
