@@ -4,7 +4,7 @@
  * bounded however many rows the file has).
  */
 import { CATEGORICAL_OVERRIDE_LIMIT } from '../../../shared/datasets';
-import { DECIMAL, type MissingTest } from './missing';
+import { DECIMAL_TRIMMED, trimCell, type MissingTest } from './missing';
 
 /** Distinct values tracked per column; beyond this a column is "many distinct values". */
 export const DISTINCT_CAP = CATEGORICAL_OVERRIDE_LIMIT + 1;
@@ -29,14 +29,14 @@ export class ColumnProfile {
   /** `row` is the 1-based data row (the header is row 0 here; reports add 1). */
   add(cell: string, row: number, missing: MissingTest): void {
     this.count++;
-    if (missing.isMissing(cell)) {
+    const value = trimCell(cell);
+    if (missing.isMissingTrimmed(value)) {
       this.missing++;
       this.rowCounter = false;
       return;
     }
-    const value = cell.trim();
     this.totalLength += value.length;
-    if (this.firstText === null && DECIMAL.test(value)) {
+    if (this.firstText === null && DECIMAL_TRIMMED.test(value)) {
       this.numeric++;
       const x = Number(value);
       if (this.integers && !Number.isInteger(x)) this.integers = false;

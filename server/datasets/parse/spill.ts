@@ -39,14 +39,13 @@ export class ColumnSpill {
 
   /** Every cell of column j, in row order. */
   readColumn(j: number): string[] {
-    const out: string[] = [];
+    const parts: string[][] = [];
     for (const s of this.segments[j]) {
       const buf = Buffer.allocUnsafe(s.length);
       fs.readSync(this.fd, buf, 0, s.length, s.offset);
-      const cells = buf.toString('utf8').split('\0');
-      for (const c of cells) out.push(c);
+      parts.push(buf.toString('utf8').split('\0'));
     }
-    return out;
+    return parts.length === 1 ? parts[0] : parts.flat();
   }
 
   close(): void {

@@ -39,13 +39,21 @@ export interface IngestRequest {
 }
 
 /** LARIAT_INGEST_TIMING=1 prints each phase's wall time on stderr (for the ingest benchmark). */
-function phaseTimer(fileName: string): (phase: string) => void {
+function phaseTimer(fileName: string): (phase: string, accumulate?: boolean) => void {
   let last = process.hrtime.bigint();
-  return (phase) => {
+  const sums = new Map<string, number>();
+  return (phase, accumulate = false) => {
     if (process.env.LARIAT_INGEST_TIMING !== '1') return;
     const now = process.hrtime.bigint();
-    console.error(`[lariat] ingest ${fileName}: ${phase} ${(Number(now - last) / 1e9).toFixed(2)} s`);
+    const seconds = Number(now - last) / 1e9;
     last = now;
+    if (accumulate) {
+      sums.set(phase, (sums.get(phase) ?? 0) + seconds);
+      return;
+    }
+    for (const [p, s] of sums) console.error(`[lariat] ingest ${fileName}: ${p} ${s.toFixed(2)} s`);
+    sums.clear();
+    console.error(`[lariat] ingest ${fileName}: ${phase} ${seconds.toFixed(2)} s`);
   };
 }
 
@@ -108,8 +116,11 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
       const schema = [];
       for (let j = 0; j < parsed.header.length; j++) {
         const stored = encodeColumn(parsed.header[j], parsed.spill.readColumn(j), inferences[j], parsed.missing);
+        timer('  read and encode', true);
         await insertColumn(tx, uploadId, j, stored);
+        timer('  insert', true);
         schema.push(columnSchema(stored, j, inferences[j]));
+        timer('  summarise', true);
         req.progress?.phase('storing', 0.3 + (0.7 * (j + 1)) / parsed.header.length, parsed.rowCount);
       }
       return insertVersion(tx, {
@@ -122,7 +133,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
         createdBy: req.userId,
       });
     });
-    timer('encode, summarise and store columns');
+    timer('columns (rest)');
     const version = (await findVersionRowById(db, versionId))!;
     const excluded = version.columns.filter((c) => c.excluded).length;
     return {
