@@ -3,6 +3,7 @@
  * deletion is refused while something depends on the dataset; roles and workspaces are enforced;
  * open datasets import in one click (idempotent). Expected values come from the small inputs here.
  */
+import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { UploadResultDto, VersionDetailDto } from '../../../shared/datasets';
 import { loadEngineTable, registerDatasetDependents } from '../../../server/datasets/index';
@@ -98,7 +99,8 @@ describe('deleting', () => {
   });
 
   it('the database refuses to change a stored version', async () => {
-    await expect(t.ctx.db.execute(`UPDATE dataset_versions SET number = 99 WHERE id = '${data.version.id}'`)).rejects.toThrow();
+    const attempt = t.ctx.db.execute(sql`UPDATE dataset_versions SET number = 99 WHERE id = ${data.version.id}`);
+    await expect(attempt).rejects.toSatisfy((e: Error & { cause?: Error }) => /immutable/.test(`${e.message} ${e.cause?.message ?? ''}`));
   });
 });
 
