@@ -91,7 +91,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
       if (header === null) {
         header = checkHeader(row, fileName, opts.columnLimit);
         profiles = header.map((h) => new ColumnProfile(h));
-        spill = new ColumnSpill(opts.spillPath, header.length);
+        spill = new ColumnSpill(opts.spillPath, header.length, missing);
         batchRows = Math.max(256, Math.floor(400_000 / header.length));
         return;
       }
@@ -109,10 +109,11 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
       for (let j = 0; j < row.length; j++) profiles[j].add(row[j], rowCount, missing);
       batch.push(row);
       if (batch.length >= batchRows) {
-        spill!.writeBatch(batch);
+        spill!.writeBatch(batch, allNumbers);
         batch = [];
       }
     };
+    const allNumbers = (j: number) => profiles[j].firstText === null;
 
     Papa.parse<string[]>(text as unknown as File, {
       delimiter,
@@ -140,7 +141,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
           if (ragged.length > 0) throw raggedProblem();
           if (lastBlank) blank--; // the newline that ends the last line
           if (rowCount === 0) throw new FileProblem(`${fileName} has a header row but no data rows.`);
-          spill!.writeBatch(batch);
+          spill!.writeBatch(batch, allNumbers);
           batch = [];
           settled = true;
           resolve({

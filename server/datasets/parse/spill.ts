@@ -1,13 +1,17 @@
 /**
  * Column-wise spill file: the parser hands over batches of rows; each batch is written once per
- * column as the cells joined by NUL (NUL cannot occur in accepted text, see text-stream.ts). Reading
- * back one column gathers its segments. Memory stays at one batch of rows plus one column.
+ * column. A column whose cells have all been numbers so far is written as Float64 bytes (NaN for
+ * missing), so numeric columns are parsed once and never turned back into text; other columns as
+ * the cells joined by NUL (NUL cannot occur in accepted text, see text-stream.ts). Memory stays at
+ * one batch of rows plus one column.
  */
 import fs from 'node:fs';
+import { trimCell, type MissingTest } from './missing';
 
 interface Segment {
   offset: number;
   length: number;
+  numbers: boolean;
 }
 
 export class ColumnSpill {
@@ -19,31 +23,79 @@ export class ColumnSpill {
   constructor(
     readonly path: string,
     readonly columnCount: number,
+    private readonly missing: MissingTest,
   ) {
     this.fd = fs.openSync(path, 'w+');
     this.segments = Array.from({ length: columnCount }, () => []);
   }
 
-  /** rows: row-major cells, each row with columnCount cells. */
-  writeBatch(rows: string[][]): void {
+  private append(j: number, bytes: Uint8Array, numbers: boolean): void {
+    fs.writeSync(this.fd, bytes, 0, bytes.length, this.offset);
+    this.segments[j].push({ offset: this.offset, length: bytes.length, numbers });
+    this.offset += bytes.length;
+  }
+
+  /** rows: row-major cells; numeric[j]: every cell of column j in this batch is a number or missing. */
+  writeBatch(rows: string[][], numeric: (j: number) => boolean): void {
     if (rows.length === 0) return;
     const cells: string[] = new Array(rows.length);
     for (let j = 0; j < this.columnCount; j++) {
+      if (numeric(j)) {
+        const values = new Float64Array(rows.length);
+        for (let i = 0; i < rows.length; i++) {
+          const t = trimCell(rows[i][j]);
+          values[i] = this.missing.isMissingTrimmed(t) ? Number.NaN : Number(t);
+        }
+        this.append(j, new Uint8Array(values.buffer), true);
+        continue;
+      }
       for (let i = 0; i < rows.length; i++) cells[i] = rows[i][j];
-      const bytes = Buffer.from(cells.join('\0'), 'utf8');
-      fs.writeSync(this.fd, bytes, 0, bytes.length, this.offset);
-      this.segments[j].push({ offset: this.offset, length: bytes.length });
-      this.offset += bytes.length;
+      this.append(j, Buffer.from(cells.join('\0'), 'utf8'), false);
     }
   }
 
-  /** Every cell of column j, in row order. */
-  readColumn(j: number): string[] {
-    const parts: string[][] = [];
+  private read(s: Segment): Buffer {
+    const buf = Buffer.allocUnsafe(s.length);
+    fs.readSync(this.fd, buf, 0, s.length, s.offset);
+    return buf;
+  }
+
+  /** True when column j was written as numbers throughout (then readNumbers applies). */
+  allNumbers(j: number): boolean {
+    return this.segments[j].every((s) => s.numbers);
+  }
+
+  /** True when column j starts as numbers and turns to text in a later batch. */
+  mixed(j: number): boolean {
+    return !this.allNumbers(j) && this.segments[j].some((s) => s.numbers);
+  }
+
+  readNumbers(j: number): Float64Array {
+    const total = this.segments[j].reduce((n, s) => n + s.length, 0);
+    const out = new Float64Array(total / 8);
+    const bytes = new Uint8Array(out.buffer);
+    let at = 0;
     for (const s of this.segments[j]) {
-      const buf = Buffer.allocUnsafe(s.length);
-      fs.readSync(this.fd, buf, 0, s.length, s.offset);
-      parts.push(buf.toString('utf8').split('\0'));
+      fs.readSync(this.fd, bytes, at, s.length, s.offset);
+      at += s.length;
+    }
+    return out;
+  }
+
+  /**
+   * Every cell of column j in row order: raw text, or for batches stored as numbers their shortest
+   * text form (so "1.50" reads back as "1.5") and null for missing.
+   */
+  readCells(j: number): (string | null)[] {
+    const parts: (string | null)[][] = [];
+    for (const s of this.segments[j]) {
+      const buf = this.read(s);
+      if (!s.numbers) {
+        parts.push(buf.toString('utf8').split('\0'));
+        continue;
+      }
+      const values = new Float64Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.length));
+      parts.push(Array.from(values, (x) => (Number.isNaN(x) ? null : String(x))));
     }
     return parts.length === 1 ? parts[0] : parts.flat();
   }

@@ -4,13 +4,19 @@ import { COLUMN_TYPE_LABELS } from '../../../shared/datasets';
 import type { Inference } from '../parse/infer';
 import type { MissingTest } from '../parse/missing';
 import type { ParsedFile } from '../parse/parse-file';
+import type { ColumnSpill } from '../parse/spill';
 import { describeDelimiter } from '../parse/sniff';
 import { encodeCodes, encodeFloat64, encodeText, typedBytes } from '../storage/codec';
 import { loadAs, type StoredColumn } from '../storage/convert';
 import { summarize } from '../summary';
 
-export function encodeColumn(name: string, cells: string[], inference: Inference, missing: MissingTest): StoredColumn {
-  if (inference.storage === 'float64') return { name, storage: 'float64', data: typedBytes(encodeFloat64(cells, missing)), levels: null };
+/** Column j of the spill in its stored form; numeric columns were parsed to numbers while streaming. */
+export function encodeColumn(spill: ColumnSpill, j: number, name: string, inference: Inference, missing: MissingTest): StoredColumn {
+  if (inference.storage === 'float64') {
+    const data = spill.allNumbers(j) ? spill.readNumbers(j) : encodeFloat64(spill.readCells(j), missing);
+    return { name, storage: 'float64', data: typedBytes(data), levels: null };
+  }
+  const cells = spill.readCells(j);
   if (inference.storage === 'codes') {
     const { codes, levels } = encodeCodes(cells, missing);
     return { name, storage: 'codes', data: typedBytes(codes), levels };
@@ -40,6 +46,9 @@ export function buildReport(parsed: ParsedFile, fileName: string, inferences: In
   notes.push(`Inferred column types: ${[...counts].map(([t, n]) => `${n} ${COLUMN_TYPE_LABELS[t as keyof typeof COLUMN_TYPE_LABELS].toLowerCase()}`).join(', ')}.`);
   inferences.forEach((inf, j) => {
     if (inf.excluded) notes.push(`Column "${parsed.header[j]}" is left out of modelling: ${inf.reason}`);
+    if (parsed.spill.mixed(j)) {
+      notes.push(`Column "${parsed.header[j]}" held only numbers for its first rows, so those values are kept in their shortest form (e.g. 1.50 as 1.5); the original file keeps them as written.`);
+    }
   });
   const missingCols = parsed.profiles.filter((p) => p.missing > 0);
   if (missingCols.length > 0) {

@@ -115,7 +115,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
       timer('store original');
       const schema = [];
       for (let j = 0; j < parsed.header.length; j++) {
-        const stored = encodeColumn(parsed.header[j], parsed.spill.readColumn(j), inferences[j], parsed.missing);
+        const stored = encodeColumn(parsed.spill, j, parsed.header[j], inferences[j], parsed.missing);
         timer('  read and encode', true);
         await insertColumn(tx, uploadId, j, stored);
         timer('  insert', true);

@@ -33,9 +33,12 @@ export function compareLevels(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-export function encodeFloat64(cells: string[], missing: MissingTest): Float64Array {
+export function encodeFloat64(cells: (string | null)[], missing: MissingTest): Float64Array {
   const out = new Float64Array(cells.length);
-  for (let i = 0; i < cells.length; i++) out[i] = missing.isMissing(cells[i]) ? Number.NaN : Number(cells[i]); // Number() ignores surrounding blanks
+  for (let i = 0; i < cells.length; i++) {
+    const cell = cells[i];
+    out[i] = cell === null || missing.isMissing(cell) ? Number.NaN : Number(cell); // Number() ignores surrounding blanks
+  }
   return out;
 }
 

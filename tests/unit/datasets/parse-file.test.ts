@@ -9,7 +9,9 @@ import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEFAULT_MISSING_MARKERS } from '../../../shared/datasets';
 import { inferColumn } from '../../../server/datasets/parse/infer';
+import { missingTest } from '../../../server/datasets/parse/missing';
 import { parseCsvFile } from '../../../server/datasets/parse/parse-file';
+import { ColumnSpill } from '../../../server/datasets/parse/spill';
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lariat-parse-'));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -27,7 +29,7 @@ describe('parseCsvFile', () => {
     const parsed = await parse('big.csv', `id,text,x\n${rows.join('\n')}\n`);
     try {
       expect(parsed.rowCount).toBe(n);
-      const text = parsed.spill.readColumn(1);
+      const text = parsed.spill.readCells(1);
       expect(text.length).toBe(n);
       for (const i of [0, 1, 12_345, n - 1]) expect(text[i]).toBe(`línea ${i}\nsegunda, ☃`);
       expect(parsed.profiles[2].missing).toBe(Math.ceil(n / 3));
@@ -45,7 +47,7 @@ describe('parseCsvFile', () => {
     const parsed = await parse('wide.csv', `${header}\n${row(0)}\n${row(1)}\n${row(2)}\n`, 5000);
     try {
       expect(parsed.header.length).toBe(p);
-      expect(parsed.spill.readColumn(p - 1)).toEqual([String(p - 1), String(2 * p - 1), String(3 * p - 1)]);
+      expect(Array.from(parsed.spill.readNumbers(p - 1))).toEqual([p - 1, 2 * p - 1, 3 * p - 1]);
     } finally {
       parsed.spill.close();
     }
@@ -58,5 +60,19 @@ describe('parseCsvFile', () => {
   it('reports invalid UTF-8 on the right line even past the first chunk', async () => {
     const good = 'a,b\n' + '1,2\n'.repeat(300_000); // 1.2 MB: the bad byte is in the second read chunk
     await expect(parse('late.csv', Buffer.concat([Buffer.from(good), Buffer.from([0xff, 0x2c, 0x31, 0x0a])]))).rejects.toThrow(/late\.csv, line 300002: the text is not valid UTF-8 \(byte 0xFF\)/);
+  });
+
+  it('a column that turns to text after a numeric batch reads back as text, numbers in shortest form', () => {
+    const spill = new ColumnSpill(path.join(dir, 'mixed.spill'), 2, missingTest(['', 'NA']));
+    try {
+      spill.writeBatch([['1.50', '7'], ['NA', '8']], () => true);
+      spill.writeBatch([['x', '9'], ['2', ' NA ']], (j) => j === 1);
+      expect(spill.readCells(0)).toEqual(['1.5', null, 'x', '2']);
+      expect(spill.mixed(0)).toBe(true);
+      expect(spill.allNumbers(1)).toBe(true);
+      expect(Array.from(spill.readNumbers(1))).toEqual([7, 8, 9, Number.NaN]);
+    } finally {
+      spill.close();
+    }
   });
 });
