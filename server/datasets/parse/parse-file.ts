@@ -66,6 +66,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
     let spill: ColumnSpill | null = null;
     let batch: string[][] = [];
     let batchRows = 1000;
+    let numbers: Float64Array[] = []; // per column, the batch's cells as numbers
     let fileRows = 0; // rows seen by the parser, header included
     let rowCount = 0;
     let blank = 0;
@@ -93,6 +94,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
         profiles = header.map((h) => new ColumnProfile(h));
         spill = new ColumnSpill(opts.spillPath, header.length, missing);
         batchRows = Math.max(256, Math.floor(400_000 / header.length));
+        numbers = header.map(() => new Float64Array(batchRows));
         return;
       }
       lastBlank = row.length === 1 && row[0].trim() === '';
@@ -106,10 +108,11 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
       }
       if (ragged.length > 0) return;
       rowCount++;
-      for (let j = 0; j < row.length; j++) profiles[j].add(row[j], rowCount, missing);
+      const at = batch.length;
+      for (let j = 0; j < row.length; j++) numbers[j][at] = profiles[j].add(row[j], rowCount, missing);
       batch.push(row);
       if (batch.length >= batchRows) {
-        spill!.writeBatch(batch, allNumbers);
+        spill!.writeBatch(batch, allNumbers, numbers);
         batch = [];
       }
     };
@@ -141,7 +144,7 @@ export function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> {
           if (ragged.length > 0) throw raggedProblem();
           if (lastBlank) blank--; // the newline that ends the last line
           if (rowCount === 0) throw new FileProblem(`${fileName} has a header row but no data rows.`);
-          spill!.writeBatch(batch, allNumbers);
+          spill!.writeBatch(batch, allNumbers, numbers);
           batch = [];
           settled = true;
           resolve({

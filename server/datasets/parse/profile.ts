@@ -27,13 +27,14 @@ export class ColumnProfile {
   constructor(readonly name: string) {}
 
   /** `row` is the 1-based data row (the header is row 0 here; reports add 1). */
-  add(cell: string, row: number, missing: MissingTest): void {
+  /** Returns the cell's number (NaN when missing or not a number), so callers need not parse it again. */
+  add(cell: string, row: number, missing: MissingTest): number {
     this.count++;
     const value = trimCell(cell);
     if (missing.isMissingTrimmed(value)) {
       this.missing++;
       this.rowCounter = false;
-      return;
+      return Number.NaN;
     }
     this.totalLength += value.length;
     if (this.firstText === null && DECIMAL_TRIMMED.test(value)) {
@@ -42,7 +43,7 @@ export class ColumnProfile {
       if (this.integers && !Number.isInteger(x)) this.integers = false;
       if (this.rowCounter && x !== row && x !== row - 1) this.rowCounter = false;
       if (!this.overflow) this.count1(this.numbers, x); // "1.0" and "1" are the same number
-      return;
+      return x;
     }
     if (this.firstText === null) {
       this.firstText = { value, row };
@@ -51,6 +52,7 @@ export class ColumnProfile {
     }
     if (!this.hasWhitespace && /\s/.test(value)) this.hasWhitespace = true;
     if (!this.overflow) this.count1(this.distinct, value);
+    return Number.NaN;
   }
 
   private count1<K>(map: Map<K, number>, key: K): void {

@@ -35,16 +35,23 @@ export class ColumnSpill {
     this.offset += bytes.length;
   }
 
-  /** rows: row-major cells; numeric[j]: every cell of column j in this batch is a number or missing. */
-  writeBatch(rows: string[][], numeric: (j: number) => boolean): void {
+  /**
+   * rows: row-major cells; numeric(j): every cell of column j in this batch is a number or missing;
+   * parsed[j], when given, holds those numbers already (NaN for missing), one per row.
+   */
+  writeBatch(rows: string[][], numeric: (j: number) => boolean, parsed?: Float64Array[]): void {
     if (rows.length === 0) return;
     const cells: string[] = new Array(rows.length);
     for (let j = 0; j < this.columnCount; j++) {
       if (numeric(j)) {
-        const values = new Float64Array(rows.length);
-        for (let i = 0; i < rows.length; i++) {
-          const t = trimCell(rows[i][j]);
-          values[i] = this.missing.isMissingTrimmed(t) ? Number.NaN : Number(t);
+        let values: Float64Array;
+        if (parsed) values = parsed[j].slice(0, rows.length);
+        else {
+          values = new Float64Array(rows.length);
+          for (let i = 0; i < rows.length; i++) {
+            const t = trimCell(rows[i][j]);
+            values[i] = this.missing.isMissingTrimmed(t) ? Number.NaN : Number(t);
+          }
         }
         this.append(j, new Uint8Array(values.buffer), true);
         continue;

@@ -1,5 +1,5 @@
 /** Parsed cells -> stored columns, their schema and summaries, plus the parse report's notes. */
-import type { ColumnSchema, ParseReport } from '../../../shared/datasets';
+import type { ColumnSchema, ColumnType, ParseReport } from '../../../shared/datasets';
 import { COLUMN_TYPE_LABELS } from '../../../shared/datasets';
 import type { Inference } from '../parse/infer';
 import type { MissingTest } from '../parse/missing';
@@ -24,6 +24,13 @@ export function encodeColumn(spill: ColumnSpill, j: number, name: string, infere
   return { name, storage: 'text', data: encodeText(cells, missing), levels: null };
 }
 
+/** Stored numbers are summarised as numbers whatever the type (a row number's min and max help). */
+function summarizeStored(stored: StoredColumn, type: ColumnType) {
+  if (stored.storage !== 'float64' || type === 'binary' || type === 'categorical') return summarize(loadAs(stored, type));
+  const s = summarize(loadAs(stored, 'numeric'));
+  return type === 'numeric' ? s : { count: s.count, missing: s.missing, distinct: s.distinct, min: s.min, max: s.max };
+}
+
 export function columnSchema(stored: StoredColumn, position: number, inference: Inference): ColumnSchema {
   return {
     name: stored.name,
@@ -33,7 +40,7 @@ export function columnSchema(stored: StoredColumn, position: number, inference: 
     reason: inference.reason,
     excluded: inference.excluded,
     overridden: false,
-    summary: summarize(loadAs(stored, inference.type)),
+    summary: summarizeStored(stored, inference.type),
   };
 }
 
