@@ -16,7 +16,6 @@ import { inferColumn } from '../parse/infer';
 import { parseCsvFile } from '../parse/parse-file';
 import { buildReport, columnSchema, encodeColumn } from './build-columns';
 import { versionSummary } from './dto';
-import { InFlight } from './in-flight';
 import type { ProgressHandle } from './progress';
 
 export const FILE_CHUNK_BYTES = 1 << 20;
@@ -108,25 +107,22 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
         report,
       });
       const chunks = Math.max(1, Math.ceil(req.sizeBytes / FILE_CHUNK_BYTES));
-      // Writes overlap the next step's CPU work: reading the next chunk, encoding, summarising.
-      const writes = new InFlight(4);
       let seq = 0;
       for await (const chunk of fs.createReadStream(req.filePath, { highWaterMark: FILE_CHUNK_BYTES })) {
-        await writes.add(insertFileChunk(tx, uploadId, seq++, chunk as Buffer));
+        await insertFileChunk(tx, uploadId, seq++, chunk as Buffer);
         req.progress?.phase('storing', (0.3 * seq) / chunks, parsed.rowCount);
       }
-      timer('store original (queued)');
+      timer('store original');
       const schema = [];
       for (let j = 0; j < parsed.header.length; j++) {
         const stored = encodeColumn(parsed.spill, j, parsed.header[j], inferences[j], parsed.missing);
         timer('  read and encode', true);
-        await writes.add(insertColumn(tx, uploadId, j, stored));
-        timer('  wait for writes', true);
+        await insertColumn(tx, uploadId, j, stored);
+        timer('  insert', true);
         schema.push(columnSchema(stored, j, inferences[j]));
         timer('  summarise', true);
         req.progress?.phase('storing', 0.3 + (0.7 * (j + 1)) / parsed.header.length, parsed.rowCount);
       }
-      await writes.drain();
       return insertVersion(tx, {
         datasetId,
         number,
