@@ -14,11 +14,12 @@ import { fitOutput, toJson } from './output';
 import { buildFitSpec } from './spec';
 
 /**
- * Worker threads pay ~0.3 s start-up each (the TypeScript loader) and copy the design, so they only
- * help when the folds are large: below this many cells (rows x predictors) the folds run in-process.
- * Measured on 2 cores with bench/engine.bench.ts.
+ * Worker threads pay ~0.5 s start-up each (the TypeScript loader) and copy the design, so they only
+ * help when the folds are costly: below this much work (rows x predictors x lambdas) the folds run
+ * in-process. Chosen from bench/engine.bench.ts on 2 cores (workers gained ~20% at 4e8 and 4.5e7;
+ * the 569 x 30 x 100 breast cancer path, 1.7e6, finishes before workers would start).
  */
-const WORKER_MIN_CELLS = 1_000_000;
+const WORKER_MIN_WORK = 2e7;
 
 function engineVersion(): string {
   const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
@@ -27,7 +28,8 @@ function engineVersion(): string {
 
 function useWorkers(options: FitOptions, table: EngineTable, spec: FitSpec): boolean {
   if (options.workers !== 'auto') return options.workers === 'on';
-  return table.nRows * spec.predictors.length >= WORKER_MIN_CELLS;
+  const lambdas = spec.lambda?.length ?? spec.pathLength;
+  return table.nRows * spec.predictors.length * lambdas >= WORKER_MIN_WORK;
 }
 
 export async function runFit(argv: string[]): Promise<string> {
