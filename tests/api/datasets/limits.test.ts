@@ -6,6 +6,7 @@ import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import type http from 'node:http';
 import path from 'node:path';
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../../support/app';
 import { uniqueEmail } from '../../support/session';
@@ -19,7 +20,7 @@ let s: RawSession;
 const LIMIT_BYTES = Math.floor(0.01 * 1024 * 1024); // LARIAT_UPLOAD_LIMIT_MB = 0.01
 
 beforeAll(async () => {
-  t = await startTestApp({ LARIAT_UPLOAD_LIMIT_MB: '0.01' });
+  t = await startTestApp({ LARIAT_UPLOAD_LIMIT_MB: '0.01', LARIAT_COLUMN_LIMIT: '3' });
   ({ server, port } = await listen(t.app));
   s = await rawSignUp(t.app, uniqueEmail('raw'));
 });
@@ -82,5 +83,17 @@ describe('upload limits', () => {
     expect(phase).toBe('failed');
     expect(await tableCounts(t)).toEqual(before);
     expect(leftovers()).toEqual([]);
+  });
+
+  it('refuses more columns than LARIAT_COLUMN_LIMIT, naming the file and both counts', async () => {
+    const before = await tableCounts(t);
+    const res = await request(t.app)
+      .post(`/api/workspaces/${s.workspaceId}/datasets/uploads`)
+      .set('Cookie', s.cookie)
+      .set('X-Lariat-CSRF', s.csrf)
+      .attach('file', Buffer.from('a,b,c,d\n1,2,3,4\n'), 'wide.csv');
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toBe('wide.csv has 4 columns; the limit is 3.');
+    expect(await tableCounts(t)).toEqual(before);
   });
 });
