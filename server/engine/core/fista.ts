@@ -10,6 +10,11 @@ export interface SolverRoles {
   penalty(w: Float64Array): number;
   /** Relative duality gap at w (image img). */
   gap(w: Float64Array, img: Float64Array): number;
+  /**
+   * Optional active-set polish (polish.ts): a candidate computed from w into out, using at most
+   * maxSteps linear solves or Newton steps; `steps` counts them (they count as iterations).
+   */
+  polish?(w: Float64Array, out: Float64Array, maxSteps: number): { ok: boolean; steps: number };
 }
 
 export interface SolverOptions {
@@ -35,6 +40,10 @@ export interface SolverOutcome {
  * gradient schemes", Found. Comput. Math. 15): momentum is reset when (y_k - x_{k+1})'(x_{k+1} - x_k)
  * > 0. Minimizes loss(w) + lambda P(w) from the warm start in `w`, which receives the solution.
  * Stops when the relative duality gap <= tolerance (checked every `checkEvery` iterations).
+ * With roles.polish, the polished point replaces the iterate whenever its duality gap is no larger:
+ * tried on the warm start, whenever the sign pattern has held between two gap checks, and once more
+ * when the tolerance is reached (FISTA then only has to find the support; the gap stays the test).
+ * Reported iterations are FISTA iterations plus the polish's solves; both count against the limit.
  */
 export function fista(roles: SolverRoles, w: Float64Array, options: SolverOptions): SolverOutcome {
   const { size, loss } = roles;
@@ -53,9 +62,33 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
 
   let gap = roles.gap(x, imgX);
   if (!Number.isFinite(gap)) return finish('numerical-failure', gap, 0);
+  const polisher = roles.polish ? new Polisher(size, m) : null;
+  let spent = 0;
+  let it = 0;
+  const polish = (): void => {
+    const budget = options.maxIterations - it - spent;
+    if (!polisher || !roles.polish || budget <= 0 || !polisher.wants(x)) return;
+    const found = polisher.attempt(x, (out) => {
+      const outcome = roles.polish!(x, out, budget);
+      spent += outcome.steps;
+      return outcome.ok;
+    }, (cand, img) => {
+      loss.image(cand, img);
+      return roles.gap(cand, img);
+    });
+    if (!found || !(found.gap <= gap)) return;
+    x.set(found.point);
+    imgX.set(found.image);
+    yv.set(x);
+    imgY.set(imgX);
+    t = 1;
+    gap = found.gap;
+  };
+  polish();
   if (gap <= options.tolerance) return finish('converged', gap, 0);
 
-  for (let it = 1; it <= options.maxIterations; it++) {
+  while (it + spent < options.maxIterations) {
+    it++;
     const fy = loss.value(imgY, yv);
     loss.gradient(imgY, yv, grad);
     let fz = 0;
@@ -88,7 +121,7 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     [imgX, imgZ] = [imgZ, imgX];
     t = tNext;
 
-    if (it % options.checkEvery === 0 || it === options.maxIterations) {
+    if (it % options.checkEvery === 0 || it + spent >= options.maxIterations) {
       // Refresh the images now and then so rounding from the linear combinations cannot build up.
       if (it % (10 * options.checkEvery) === 0) {
         loss.image(x, imgX);
@@ -96,14 +129,75 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
       }
       gap = roles.gap(x, imgX);
       if (!Number.isFinite(gap)) return finish('numerical-failure', gap, it);
+      if (gap <= options.tolerance || polisher?.stable(x)) polish();
       if (gap <= options.tolerance) return finish('converged', gap, it);
     }
   }
-  return finish('iteration-limit', gap, options.maxIterations);
+  return finish('iteration-limit', gap, it);
 
   function finish(status: SolveStatus, finalGap: number, iterations: number): SolverOutcome {
     // After a numerical failure the warm start is kept: never hand back non-finite coefficients.
     if (status !== 'numerical-failure') w.set(x);
-    return { status, gap: finalGap, iterations, lipschitz };
+    return { status, gap: finalGap, iterations: iterations + spent, lipschitz };
   }
+}
+
+const MAX_POLISH = 12;
+
+/**
+ * When to try the active-set polish: at most MAX_POLISH times per solve, never twice on a sign
+ * pattern where it failed, and (between checks) only once the pattern has held since the last check.
+ */
+class Polisher {
+  private readonly candidate: Float64Array;
+  private readonly image: Float64Array;
+  private previous: Int8Array | null = null;
+  private failed: Int8Array | null = null;
+  private attempts = 0;
+
+  constructor(size: number, imageSize: number) {
+    this.candidate = new Float64Array(size);
+    this.image = new Float64Array(imageSize);
+  }
+
+  /** Records the pattern at this check; true when it equals the one at the previous check. */
+  stable(w: Float64Array): boolean {
+    const signs = signsOf(w);
+    const same = this.previous !== null && equal(this.previous, signs);
+    this.previous = signs;
+    return same;
+  }
+
+  wants(w: Float64Array): boolean {
+    return this.attempts < MAX_POLISH && !(this.failed && equal(this.failed, signsOf(w)));
+  }
+
+  attempt(
+    w: Float64Array,
+    run: (out: Float64Array) => boolean,
+    gapAt: (point: Float64Array, image: Float64Array) => number,
+  ): { point: Float64Array; image: Float64Array; gap: number } | null {
+    this.attempts++;
+    if (!run(this.candidate)) {
+      this.failed = signsOf(w);
+      return null;
+    }
+    const gap = gapAt(this.candidate, this.image);
+    if (!Number.isFinite(gap)) {
+      this.failed = signsOf(w);
+      return null;
+    }
+    return { point: this.candidate, image: this.image, gap };
+  }
+}
+
+function signsOf(w: Float64Array): Int8Array {
+  const out = new Int8Array(w.length);
+  for (let i = 0; i < w.length; i++) out[i] = Math.sign(w[i]);
+  return out;
+}
+
+function equal(a: Int8Array, b: Int8Array): boolean {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }

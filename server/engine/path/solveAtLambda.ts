@@ -4,6 +4,7 @@ import { bindLoss } from '../core/loss';
 import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
 import type { Problem, WorkingSet } from '../core/problem';
 import { makeWorkingSet, sigmoid } from '../core/problem';
+import { polishOnSupport } from '../core/polish';
 import type { Screening, SolveInfo } from '../types';
 import { checkFull, type FullCheck } from './check';
 
@@ -182,6 +183,7 @@ function solveRestricted(
       prox: (z, out, step) => penaltyProx(pen, ws.blocks, ws.blockStart, z, out, step * lambda),
       penalty: (v) => penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda),
       gap,
+      polish: singleColumnBlocks(ws) ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps) : undefined,
     },
     w,
     { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
@@ -190,4 +192,9 @@ function solveRestricted(
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
   if (ws.size > ws.k) state.intercept = w[ws.k];
   return outcome;
+}
+
+/** The active-set polish handles lasso and elastic-net blocks (one column each). */
+function singleColumnBlocks(ws: WorkingSet): boolean {
+  return ws.blocks.length === ws.k;
 }

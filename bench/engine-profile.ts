@@ -1,0 +1,80 @@
+/**
+ * Profile of single path fits on the two gaussian benchmark shapes (no CSV, no CLI, no CV): the time
+ * per fitPathOnDesign and the FISTA iterations it took, to see where the engine spends its time.
+ * Data as bench/engine/data.ts makes it (equicorrelated normal columns, a few active coefficients).
+ * Run: npx tsx bench/engine-profile.ts [wide|tall|all] [repeats]
+ */
+import { fitPathOnDesign } from '../server/engine';
+import type { DesignMatrix, PathOptions } from '../server/engine/types';
+import { createRng } from '../server/engine/random';
+
+function gaussianData(n: number, p: number, active: number, seed: number): { design: DesignMatrix; y: Float64Array } {
+  const rng = createRng(seed);
+  const x = new Float64Array(n * p);
+  const y = new Float64Array(n);
+  const beta = Array.from({ length: p }, (_, j) => (j < active ? (j % 2 === 0 ? 1 : -1) * (1 - j / (2 * active)) : 0));
+  const shared = Float64Array.from({ length: n }, () => rng.normal());
+  for (let j = 0; j < p; j++) for (let i = 0; i < n; i++) x[j * n + i] = rng.normal() + 0.5 * shared[i];
+  let signalVar = 0;
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    for (let j = 0; j < active; j++) s += beta[j] * x[j * n + i];
+    y[i] = s;
+    signalVar += s * s;
+  }
+  const sigma = Math.sqrt(signalVar / n / 3);
+  for (let i = 0; i < n; i++) y[i] += sigma * rng.normal();
+  return { design: { n, p, x, terms: Array.from({ length: p }, (_, j) => `x${j + 1}`) }, y };
+}
+
+interface Case {
+  name: string;
+  n: number;
+  p: number;
+  active: number;
+  options: PathOptions;
+}
+
+const cases: Record<string, Case> = {
+  wide: {
+    name: 'gaussian n=300 p=1500, 100 lambdas to 0.01, tol 1e-4',
+    n: 300,
+    p: 1500,
+    active: 15,
+    options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4 },
+  },
+  'wide-enet': {
+    name: 'gaussian n=300 p=1500 elastic net 0.5, 100 lambdas to 0.01, tol 1e-4',
+    n: 300,
+    p: 1500,
+    active: 15,
+    options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4 },
+  },
+  tall: {
+    name: 'gaussian n=20000 p=200, 100 lambdas to 1e-4, tol 1e-6',
+    n: 20000,
+    p: 200,
+    active: 20,
+    options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 1e-4, tolerance: 1e-6 },
+  },
+};
+
+const which = process.argv[2] ?? 'all';
+const repeats = Number(process.argv[3] ?? 3);
+for (const [key, c] of Object.entries(cases)) {
+  if (which !== 'all' && which !== key) continue;
+  const { design, y } = gaussianData(c.n, c.p, c.active, 12);
+  const times: number[] = [];
+  let iterations = 0;
+  let statuses = '';
+  for (let r = 0; r < repeats; r++) {
+    const started = performance.now();
+    const result = fitPathOnDesign(design, y, c.options);
+    times.push(performance.now() - started);
+    iterations = result.solves.reduce((s, v) => s + v.iterations, 0);
+    const bad = result.solves.filter((s) => s.status !== 'converged').length;
+    statuses = bad === 0 ? 'all converged' : `${bad} not converged`;
+  }
+  times.sort((a, b) => a - b);
+  console.log(`${c.name}: best ${times[0].toFixed(0)} ms, median ${times[Math.floor(times.length / 2)].toFixed(0)} ms, ${iterations} iterations, ${statuses}`);
+}
