@@ -6,11 +6,11 @@
 import { readFileSync } from 'node:fs';
 import { crossValidate, crossValidateInWorkers } from '../engine/cv';
 import { readCsvFile } from '../engine/csv';
-import { fitPath } from '../engine/index';
 import { EngineInputError, type CvResult, type EngineTable, type FitSpec } from '../engine/types';
 import { parseFitOptions, UsageError, type FitOptions } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
+import { fitWithDesign } from './fit';
 import { buildFitSpec } from './spec';
 
 /**
@@ -36,9 +36,13 @@ export async function runFit(argv: string[]): Promise<string> {
   const options = parseFitOptions(argv);
   const table = readCsvFile(options.data);
   const spec = buildFitSpec(options, table);
-  const path = fitPath(table, spec); // validates the spec first
+  const { path, built } = fitWithDesign(table, spec);
   let cv: CvResult | null = null;
-  if (spec.cv) cv = useWorkers(options, table, spec) ? await crossValidateInWorkers(table, spec, path) : crossValidate(table, spec, path);
+  if (spec.cv) {
+    cv = useWorkers(options, table, spec)
+      ? await crossValidateInWorkers(table, spec, path, 2, built)
+      : crossValidate(table, spec, path, built);
+  }
   return toJson(fitOutput(path, cv, engineVersion()));
 }
 

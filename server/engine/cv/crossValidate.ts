@@ -17,17 +17,20 @@ export interface CvPlan {
   lambda: number[];
 }
 
-/** Everything the folds share: the full design, options, fold ids and the full-data grid. */
-export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult): CvPlan {
+/**
+ * Everything the folds share: the full design, options, fold ids and the full-data grid. `built` is
+ * the design the full path was fitted on, when the caller has it (saves encoding the table again).
+ */
+export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, built?: BuiltDesign): CvPlan {
   if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  const built = buildDesign(table, spec);
+  built ??= buildDesign(table, spec);
   const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
   return { built, options: pathOptionsFromSpec(spec, built), foldIds, folds, lambda: path.lambda };
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */
-export function crossValidate(table: EngineTable, spec: FitSpec, path: PathResult): CvResult {
-  const plan = planCrossValidation(table, spec, path);
+export function crossValidate(table: EngineTable, spec: FitSpec, path: PathResult, built?: BuiltDesign): CvResult {
+  const plan = planCrossValidation(table, spec, path, built);
   const results = [];
   for (let k = 0; k < plan.folds; k++) {
     results.push(runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda));

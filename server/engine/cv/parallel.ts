@@ -18,6 +18,7 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
+import type { BuiltDesign } from '../design/build';
 import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../types';
 import { combineFolds } from './combine';
 import { planCrossValidation } from './crossValidate';
@@ -29,8 +30,9 @@ export async function crossValidateInWorkers(
   spec: FitSpec,
   path: PathResult,
   poolSize = 2,
+  built?: BuiltDesign,
 ): Promise<CvResult> {
-  const plan = planCrossValidation(table, spec, path);
+  const plan = planCrossValidation(table, spec, path, built);
   const size = Math.max(1, Math.min(poolSize, plan.folds));
   const init: WorkerRequest = {
     type: 'init',
