@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { UploadResultDto } from '../../../shared/datasets';
 import { startTestApp, type TestApp } from '../../support/app';
 import { signUp, withCsrf, type Session } from '../../support/session';
-import { apiBase, tableCounts, upload, uploadUrl } from './support';
+import { closeApp, apiBase, tableCounts, upload, uploadUrl } from './support';
 
 let t: TestApp;
 let alice: Session;
@@ -17,7 +17,7 @@ beforeAll(async () => {
   alice = await signUp(t.app);
   existing = (await upload(alice, 'a,b\n1,2\n3,4\n5,6\n', 'good.csv', { name: 'Good' })).body as UploadResultDto;
 });
-afterAll(async () => t?.close());
+afterAll(async () => closeApp(t));
 
 const cases: { what: string; file: string; content: string | Buffer; message: RegExp }[] = [
   { what: 'an empty file', file: 'empty.csv', content: '', message: /empty\.csv is empty/ },

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../../support/app';
 import { uniqueEmail } from '../../support/session';
 import { listen, multipartHead, rawSignUp, startUpload, type RawSession } from './raw-http';
-import { tableCounts } from './support';
+import { closeApp, tableCounts } from './support';
 
 let t: TestApp;
 let server: http.Server;
@@ -26,7 +26,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   server?.close();
-  await t?.close();
+  await closeApp(t);
 });
 
 const ROW = '1.5,2.5,3.5,4.5\n';

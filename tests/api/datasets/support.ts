@@ -1,4 +1,5 @@
 /** Shared helpers of the datasets API tests: uploads through the real multipart route, row counts. */
+import fs from 'node:fs';
 import { sql } from 'drizzle-orm';
 import type { TestApp } from '../../support/app';
 import { withCsrf, type Session } from '../../support/session';
@@ -25,4 +26,11 @@ export async function tableCounts(t: TestApp): Promise<Record<string, number>> {
 
 export function apiBase(s: Session): string {
   return `/api/workspaces/${s.workspaceId}`;
+}
+
+/** Closes the test app and removes its state folder (where uploads are received). */
+export async function closeApp(t: TestApp | undefined): Promise<void> {
+  if (!t) return;
+  await t.close();
+  fs.rmSync(t.ctx.config.LARIAT_STATE_DIR, { recursive: true, force: true });
 }

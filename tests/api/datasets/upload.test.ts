@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { UploadResultDto, VersionDetailDto } from '../../../shared/datasets';
 import { startTestApp, type TestApp } from '../../support/app';
 import { signUp, withCsrf, type Session } from '../../support/session';
-import { apiBase, tableCounts, upload, uploadUrl } from './support';
+import { closeApp, apiBase, tableCounts, upload, uploadUrl } from './support';
 
 let t: TestApp;
 let alice: Session;
@@ -17,7 +17,7 @@ beforeAll(async () => {
   t = await startTestApp();
   alice = await signUp(t.app);
 });
-afterAll(async () => t?.close());
+afterAll(async () => closeApp(t));
 
 const SAMPLE =
   '\uFEFFid,age,city,smoker,comment\r\n' +

@@ -9,7 +9,7 @@ import type { UploadResultDto, VersionDetailDto } from '../../../shared/datasets
 import { loadEngineTable, registerDatasetDependents } from '../../../server/datasets/index';
 import { startTestApp, type TestApp } from '../../support/app';
 import { inviteAndJoin, signUp, uniqueEmail, withCsrf, type Session } from '../../support/session';
-import { apiBase, tableCounts, upload } from './support';
+import { closeApp, apiBase, tableCounts, upload } from './support';
 
 let t: TestApp;
 let alice: Session;
@@ -20,7 +20,7 @@ beforeAll(async () => {
   alice = await signUp(t.app);
   data = (await upload(alice, 'grade,score,group\n1,-2.5,a\n2,NA,b\n3,4,a\n2,1,c\n', 'grades.csv', { name: 'Grades' })).body as UploadResultDto;
 });
-afterAll(async () => t?.close());
+afterAll(async () => closeApp(t));
 
 const versionUrl = (n: number) => `${apiBase(alice)}/datasets/${data.datasetId}/versions/${n}`;
 
