@@ -98,8 +98,12 @@ async function runCase(c: Case, haveSklearn: boolean): Promise<void> {
     const m = await lariat(data, c, grid, workers);
     runs.push([`Lariat (workers ${workers})`, m]);
   }
-  const lariatCv = parseOrThrow('Lariat', runs[0][1]);
-  for (const [who, m] of runs) console.log(`${who.padEnd(26)} ${fmt(m.wallSeconds)}  peak ${mib(m.peakMiB)}`);
+  const [lariatCv] = runs.map(([who, m]) => parseOrThrow(who, m));
+  for (const [who, m] of runs) {
+    const t = (JSON.parse(m.stdout) as { timing: { readSeconds: number; fitSeconds: number; cvSeconds: number; cvWorkers: number } }).timing;
+    const split = `read ${fmt(t.readSeconds)}, full path ${fmt(t.fitSeconds)}, CV ${fmt(t.cvSeconds)} (${t.cvWorkers} workers)`;
+    console.log(`${who.padEnd(26)} ${fmt(m.wallSeconds)}  peak ${mib(m.peakMiB)}  [${split}]`);
+  }
   const best = Math.min(...runs.map(([, m]) => m.wallSeconds));
   if ('seconds' in c.target) {
     console.log(`target: Lariat < ${c.target.seconds} s -> ${best < c.target.seconds ? 'met' : 'MISSED'} (${fmt(best)})`);

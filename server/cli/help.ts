@@ -39,6 +39,6 @@ Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scal
 iterations, status, cv (null or {folds, metric, mean, standardError, minimum {index, lambda},
 oneStandardError {index, lambda}, curves}), and extras: family, lambdaMax, standardizedIntercept,
 standardizedCoefficients, nonzero, devianceRatio, notes, cautions (solves that did not converge),
-engineVersion.
+engineVersion, timing (seconds spent reading, fitting, cross-validating).
 Errors: a message on stderr and exit status 2 (bad input) or 1 (internal error).
 `;

@@ -34,16 +34,22 @@ function useWorkers(options: FitOptions, table: EngineTable, spec: FitSpec): boo
 
 export async function runFit(argv: string[]): Promise<string> {
   const options = parseFitOptions(argv);
+  const started = performance.now();
   const table = readCsvFile(options.data);
+  const read = performance.now();
   const spec = buildFitSpec(options, table);
   const { path, built } = fitWithDesign(table, spec);
+  const fitted = performance.now();
   let cv: CvResult | null = null;
-  if (spec.cv) {
-    cv = useWorkers(options, table, spec)
-      ? await crossValidateInWorkers(table, spec, path, 2, built)
-      : crossValidate(table, spec, path, built);
-  }
-  return toJson(fitOutput(path, cv, engineVersion()));
+  const workers = spec.cv !== null && useWorkers(options, table, spec);
+  if (spec.cv) cv = workers ? await crossValidateInWorkers(table, spec, path, 2, built) : crossValidate(table, spec, path, built);
+  const timing = {
+    readSeconds: (read - started) / 1000,
+    fitSeconds: (fitted - read) / 1000,
+    cvSeconds: (performance.now() - fitted) / 1000,
+    cvWorkers: workers ? 2 : 0,
+  };
+  return toJson({ ...fitOutput(path, cv, engineVersion()), timing });
 }
 
 async function main(argv: string[]): Promise<number> {
