@@ -7,7 +7,7 @@ import type { Executor } from './executor';
 
 export async function insertUpload(
   db: Executor,
-  row: { datasetId: string; fileName: string; sha256: string; sizeBytes: number; rowCount: number; columnCount: number; report: ParseReport },
+  row: { id?: string; datasetId: string; fileName: string; sha256: string; sizeBytes: number; rowCount: number; columnCount: number; report: ParseReport },
 ): Promise<string> {
   const [created] = await db.insert(datasetUploads).values(row).returning({ id: datasetUploads.id });
   return created.id;

@@ -1,7 +1,8 @@
 /**
  * One ingest: a received file (already on disk with its SHA-256) becomes a new dataset or version
  * N+1 of an existing one. A file identical to one already stored (same checksum) stores nothing.
- * Everything is written in one transaction, so a failure leaves no dataset, upload or version.
+ * Everything is written in one transaction, so a failure leaves no dataset, upload or version (nor
+ * any chunk of the original file, which is written while the file is parsed).
  */
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
@@ -10,10 +11,11 @@ import type { UploadResultDto } from '../../../shared/datasets';
 import type { Database } from '../../db/client';
 import { notFound } from '../../http/errors';
 import { findDataset, insertDataset, nextVersionNumber } from '../data/datasets';
+import type { Executor } from '../data/executor';
 import { insertColumn, insertFileChunk, insertUpload } from '../data/uploads';
 import { findVersionByChecksum, findVersionRowById, insertVersion } from '../data/versions';
 import { inferColumn } from '../parse/infer';
-import { parseCsvFile } from '../parse/parse-file';
+import { parseCsvFile, type ParsedFile } from '../parse/parse-file';
 import { buildReport, columnSchema, encodeColumn } from './build-columns';
 import { versionSummary } from './dto';
 import type { ProgressHandle } from './progress';
@@ -39,7 +41,9 @@ export interface IngestRequest {
 }
 
 /** LARIAT_INGEST_TIMING=1 prints each phase's wall time on stderr (for the ingest benchmark). */
-function phaseTimer(fileName: string): (phase: string, accumulate?: boolean) => void {
+type Timer = (phase: string, accumulate?: boolean) => void;
+
+function phaseTimer(fileName: string): Timer {
   let last = process.hrtime.bigint();
   const sums = new Map<string, number>();
   return (phase, accumulate = false) => {
@@ -74,77 +78,100 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
 
   fs.mkdirSync(req.tempDir, { recursive: true });
   const timer = phaseTimer(req.fileName);
-  const parsed = await parseCsvFile({
-    filePath: req.filePath,
-    fileName: req.fileName,
-    missingMarkers: req.missingMarkers,
-    columnLimit: req.columnLimit,
-    spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
-    onProgress: (bytes, rows) => req.progress?.phase('parsing', bytes / Math.max(1, req.sizeBytes), rows),
-  });
-  timer('parse');
-  try {
-    const inferences = parsed.profiles.map(inferColumn);
-    const report = buildReport(parsed, req.fileName, inferences);
-    const versionId = await db.transaction(async (tx) => {
-      const datasetId =
-        dataset?.id ??
-        (await insertDataset(tx, {
-          workspaceId: req.workspaceId,
-          name: req.name ?? req.fileName.replace(/\.(csv|tsv|txt)$/i, ''),
-          description: req.description ?? '',
-          openKey: req.openKey ?? null,
-          createdBy: req.userId,
-        }));
-      const number = await nextVersionNumber(tx, datasetId);
-      const uploadId = await insertUpload(tx, {
-        datasetId,
+  // The original file is written while the parser reads it: PostgreSQL works on the other core.
+  // The chunks' foreign key to the upload is checked at commit (migration 0004), as the upload row
+  // needs the parse's counts and report.
+  const uploadId = randomUUID();
+  const versionId = await db.transaction(async (tx) => {
+    const stop = { requested: false };
+    const storing = storeOriginal(tx, uploadId, req.filePath, stop);
+    storing.catch(() => undefined); // awaited below; this only marks a failure as handled meanwhile
+    let parsed: ParsedFile;
+    try {
+      parsed = await parseCsvFile({
+        filePath: req.filePath,
         fileName: req.fileName,
-        sha256: req.sha256,
-        sizeBytes: req.sizeBytes,
-        rowCount: parsed.rowCount,
-        columnCount: parsed.header.length,
-        report,
+        missingMarkers: req.missingMarkers,
+        columnLimit: req.columnLimit,
+        spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
+        onProgress: (bytes, rows) => req.progress?.phase('parsing', bytes / Math.max(1, req.sizeBytes), rows),
       });
-      const chunks = Math.max(1, Math.ceil(req.sizeBytes / FILE_CHUNK_BYTES));
-      let seq = 0;
-      for await (const chunk of fs.createReadStream(req.filePath, { highWaterMark: FILE_CHUNK_BYTES })) {
-        await insertFileChunk(tx, uploadId, seq++, chunk as Buffer);
-        req.progress?.phase('storing', (0.3 * seq) / chunks, parsed.rowCount);
-      }
-      timer('store original');
-      const schema = [];
-      for (let j = 0; j < parsed.header.length; j++) {
-        const stored = encodeColumn(parsed.spill, j, parsed.header[j], inferences[j], parsed.missing);
-        timer('  read and encode', true);
-        await insertColumn(tx, uploadId, j, stored);
-        timer('  insert', true);
-        schema.push(columnSchema(stored, j, inferences[j]));
-        timer('  summarise', true);
-        req.progress?.phase('storing', 0.3 + (0.7 * (j + 1)) / parsed.header.length, parsed.rowCount);
-      }
-      return insertVersion(tx, {
-        datasetId,
-        number,
-        uploadId,
-        origin: req.openKey ? 'open-dataset' : 'upload',
-        basedOn: null,
-        columns: schema,
-        createdBy: req.userId,
-      });
-    });
-    timer('columns (rest)');
-    const version = (await findVersionRowById(db, versionId))!;
-    const excluded = version.columns.filter((c) => c.excluded).length;
-    return {
-      datasetId: version.datasetId,
-      version: versionSummary(version),
-      duplicate: false,
-      message:
-        `${req.fileName}: stored as version ${version.number} with ${version.rowCount} rows and ${version.columnCount} columns` +
-        (excluded > 0 ? `; ${excluded} column(s) left out of modelling (see the parse report).` : '.'),
-    };
-  } finally {
-    parsed.spill.close();
+    } catch (error) {
+      stop.requested = true;
+      await storing.catch(() => undefined);
+      throw error;
+    }
+    try {
+      timer('parse');
+      await storing;
+      timer('finish storing the original');
+      return await storeParsed(tx, req, dataset?.id ?? null, uploadId, parsed, timer);
+    } finally {
+      parsed.spill.close();
+    }
+  });
+  timer('commit');
+  const version = (await findVersionRowById(db, versionId))!;
+  const excluded = version.columns.filter((c) => c.excluded).length;
+  return {
+    datasetId: version.datasetId,
+    version: versionSummary(version),
+    duplicate: false,
+    message:
+      `${req.fileName}: stored as version ${version.number} with ${version.rowCount} rows and ${version.columnCount} columns` +
+      (excluded > 0 ? `; ${excluded} column(s) left out of modelling (see the parse report).` : '.'),
+  };
+}
+
+/** The original file in 1 MB chunks, one statement at a time; stops early when asked. */
+async function storeOriginal(tx: Executor, uploadId: string, filePath: string, stop: { requested: boolean }): Promise<void> {
+  let seq = 0;
+  for await (const chunk of fs.createReadStream(filePath, { highWaterMark: FILE_CHUNK_BYTES })) {
+    if (stop.requested) return;
+    await insertFileChunk(tx, uploadId, seq++, chunk as Buffer);
   }
+}
+
+/** Dataset (if new), upload, columns and version rows for a parsed file. Returns the version id. */
+async function storeParsed(tx: Executor, req: IngestRequest, existingDatasetId: string | null, uploadId: string, parsed: ParsedFile, timer: Timer): Promise<string> {
+  const inferences = parsed.profiles.map(inferColumn);
+  const datasetId =
+    existingDatasetId ??
+    (await insertDataset(tx, {
+      workspaceId: req.workspaceId,
+      name: req.name ?? req.fileName.replace(/\.(csv|tsv|txt)$/i, ''),
+      description: req.description ?? '',
+      openKey: req.openKey ?? null,
+      createdBy: req.userId,
+    }));
+  const number = await nextVersionNumber(tx, datasetId);
+  await insertUpload(tx, {
+    id: uploadId,
+    datasetId,
+    fileName: req.fileName,
+    sha256: req.sha256,
+    sizeBytes: req.sizeBytes,
+    rowCount: parsed.rowCount,
+    columnCount: parsed.header.length,
+    report: buildReport(parsed, req.fileName, inferences),
+  });
+  const schema = [];
+  for (let j = 0; j < parsed.header.length; j++) {
+    const stored = encodeColumn(parsed.spill, j, parsed.header[j], inferences[j], parsed.missing);
+    timer('  read and encode', true);
+    await insertColumn(tx, uploadId, j, stored);
+    timer('  insert', true);
+    schema.push(columnSchema(stored, j, inferences[j]));
+    timer('  summarise', true);
+    req.progress?.phase('storing', (j + 1) / parsed.header.length, parsed.rowCount);
+  }
+  return insertVersion(tx, {
+    datasetId,
+    number,
+    uploadId,
+    origin: req.openKey ? 'open-dataset' : 'upload',
+    basedOn: null,
+    columns: schema,
+    createdBy: req.userId,
+  });
 }
