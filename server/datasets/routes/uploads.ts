@@ -2,7 +2,7 @@
  * POST .../datasets/uploads?ingest=<uuid>: multipart upload (fields name, description, datasetId,
  * missing; then the part "file"). The request stays open until the ingest ends and answers 201 (new
  * version), 200 (identical file, nothing stored) or 4xx; meanwhile GET .../ingests/<uuid> reports
- * progress (docs/decisions/0011-upload-progress.md).
+ * progress (docs/decisions/0004-upload-progress.md).
  */
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';

@@ -1,6 +1,6 @@
 /**
  * Column settings (type overrides and exclusions) make a new version that shares the stored upload
- * of the version they start from (docs/decisions/0010). Each changed column is converted once to
+ * of the version they start from (docs/decisions/0003). Each changed column is converted once to
  * check that its values allow the new type and to compute its summary.
  */
 import type { ColumnSchema, ColumnSettingsInput, VersionSummaryDto } from '../../../shared/datasets';

@@ -1,6 +1,6 @@
 /**
  * Ingest progress, kept in this process's memory: the upload request runs the whole ingest, and the
- * client polls GET .../ingests/:id meanwhile (docs/decisions/0011-upload-progress.md). Entries are
+ * client polls GET .../ingests/:id meanwhile (docs/decisions/0004-upload-progress.md). Entries are
  * forgotten ten minutes after their last change.
  */
 import type { IngestPhase, IngestProgressDto } from '../../../shared/datasets';

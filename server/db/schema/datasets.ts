@@ -2,7 +2,7 @@
  * Datasets and their immutable versions (data intake). A dataset has versions 1, 2, ...; each version
  * points at an upload (the original file, stored in 1 MB chunks, and its parsed columns) and carries
  * its own column schema. A column-settings change is a new version sharing the same upload
- * (docs/decisions/0010-dataset-versions-and-column-settings.md). Rows are never updated: a trigger
+ * (docs/decisions/0003-dataset-versions-and-column-settings.md). Rows are never updated: a trigger
  * in the migration refuses UPDATE on versions, uploads, chunks and columns.
  */
 import { customType, index, integer, jsonb, pgTable, primaryKey, text, timestamp, unique, uuid, bigint } from 'drizzle-orm/pg-core';

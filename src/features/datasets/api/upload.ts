@@ -1,7 +1,7 @@
 /**
  * POST .../datasets/uploads?ingest=<id> with XMLHttpRequest (fetch has no upload progress), while
  * GET .../ingests/<id> is polled for the server's parsing and storing progress
- * (docs/decisions/0011-upload-progress.md).
+ * (docs/decisions/0004-upload-progress.md).
  */
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { IngestProgressDto, UploadResultDto } from '@shared/datasets';

@@ -1,7 +1,7 @@
 /**
  * Every column with its type, why it was inferred, whether it is used for modelling, and its summary.
  * Analysts and admins may change types or exclusions; saving makes the next version (versions
- * never change; docs/decisions/0010).
+ * never change; docs/decisions/0003).
  */
 import { useState } from 'react';
 import { useNavigate } from 'react-router';
