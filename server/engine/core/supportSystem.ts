@@ -11,11 +11,11 @@
  */
 export class SupportSystem {
   private order: number[] = [];
-  private shift: number[] = [];
+  private shift: Float64Array = new Float64Array(0);
   private stride = 0;
   /** Raw G_AA entries and the factor of the scaled G_AA + diag(shift), row-major with `stride`. */
-  private m = new Float64Array(0);
-  private l = new Float64Array(0);
+  private m: Float64Array = new Float64Array(0);
+  private l: Float64Array = new Float64Array(0);
   private scale: number[] = [];
   private skip: number[] = [];
 
@@ -26,78 +26,110 @@ export class SupportSystem {
     const wanted = new Map<number, number>();
     features.forEach((f, q) => wanted.set(f, q));
     let keep = 0;
-    while (keep < this.order.length && wanted.get(this.order[keep]) !== undefined && this.shift[keep] === shifts[wanted.get(this.order[keep]) as number]) keep++;
+    while (keep < this.order.length) {
+      const q = wanted.get(this.order[keep]);
+      if (q === undefined || this.shift[keep] !== shifts[q]) break;
+      keep++;
+    }
     const order = this.order.slice(0, keep);
     for (const f of this.order.slice(keep)) if (wanted.has(f)) order.push(f);
     const placed = new Set(order);
     for (const f of features) if (!placed.has(f)) order.push(f);
-    this.rebuild(order, keep, (f) => shifts[wanted.get(f) as number]);
+    const position = Int32Array.from(order, (f) => wanted.get(f) as number);
+    this.rebuild(order, keep, Float64Array.from(position, (q) => shifts[q]));
 
     const size = order.length;
+    const { stride, m, scale, shift } = this;
     const b = new Float64Array(size);
-    for (let q = 0; q < size; q++) b[q] = this.scale[q] * rhs[wanted.get(order[q]) as number];
+    for (let q = 0; q < size; q++) b[q] = scale[q] * rhs[position[q]];
     const z = new Float64Array(size);
     this.substitute(b, z);
-    const residual = new Float64Array(size);
-    const { stride, m } = this;
-    for (let q = 0; q < size; q++) {
-      let s = b[q];
-      for (let r = 0; r < size; r++) s -= this.scale[q] * (m[q * stride + r] + (q === r ? this.shift[q] : 0)) * this.scale[r] * z[r];
-      residual[q] = s;
-    }
+    // Refinement: r = D b - D (G + diag(shift)) D z, then the correction from the same factor.
     const dz = new Float64Array(size);
+    for (let r = 0; r < size; r++) dz[r] = scale[r] * z[r];
+    const residual = new Float64Array(size);
+    for (let q = 0; q < size; q++) {
+      let s = 0;
+      const row = q * stride;
+      for (let r = 0; r < size; r++) s += m[row + r] * dz[r];
+      residual[q] = b[q] - scale[q] * (s + shift[q] * dz[q]);
+    }
     this.substitute(residual, dz);
     for (let q = 0; q < size; q++) {
-      const value = this.scale[q] * (z[q] + dz[q]);
+      const value = scale[q] * (z[q] + dz[q]);
       if (!Number.isFinite(value)) return false;
-      out[wanted.get(order[q]) as number] = value;
+      out[position[q]] = value;
     }
     return true;
   }
 
-  /** Keeps rows [0, keep) of the factor, re-lays the matrix for `order`, appends the other rows. */
-  private rebuild(order: number[], keep: number, shiftOf: (f: number) => number): void {
+  /**
+   * Keeps rows [0, keep) of the factor, re-lays the matrix for `order`, appends the other rows. When
+   * the old order is kept whole the arrays are extended in place.
+   */
+  private rebuild(order: number[], keep: number, shift: Float64Array): void {
     const size = order.length;
-    const oldIndex = new Map<number, number>();
-    this.order.forEach((f, q) => oldIndex.set(f, q));
-    const stride = Math.max(size, this.stride);
-    const m = new Float64Array(stride * stride);
-    const l = new Float64Array(stride * stride);
+    const inPlace = keep === this.order.length && size <= this.stride;
+    const stride = size <= this.stride ? this.stride : Math.max(size, 2 * this.stride, 16);
+    let { m, l } = this;
+    if (!inPlace) {
+      const oldIndex = new Map<number, number>();
+      this.order.forEach((f, q) => oldIndex.set(f, q));
+      const old = Int32Array.from(order, (f) => oldIndex.get(f) ?? -1);
+      m = new Float64Array(stride * stride);
+      l = new Float64Array(stride * stride);
+      for (let q = 0; q < size; q++) {
+        if (old[q] < 0) continue;
+        const from = old[q] * this.stride;
+        for (let r = 0; r <= q; r++) {
+          if (old[r] < 0) continue;
+          m[q * stride + r] = this.m[from + old[r]];
+          m[r * stride + q] = this.m[from + old[r]];
+        }
+        if (q < keep) for (let r = 0; r <= q; r++) l[q * stride + r] = this.l[q * this.stride + r];
+      }
+    }
+    const wasKnown = new Set(this.order);
+    const known = Uint8Array.from(order, (f) => (wasKnown.has(f) ? 1 : 0));
     for (let q = 0; q < size; q++) {
-      const oq = oldIndex.get(order[q]);
+      const row = q * stride;
       for (let r = 0; r <= q; r++) {
-        const or = oldIndex.get(order[r]);
-        let value: number;
-        if (oq !== undefined && or !== undefined) value = this.m[oq * this.stride + or];
-        else value = this.entry(order[q], order[r]);
-        m[q * stride + r] = value;
+        if (known[q] && known[r]) continue;
+        const value = this.entry(order[q], order[r]);
+        m[row + r] = value;
         m[r * stride + q] = value;
       }
-      if (q < keep) for (let r = 0; r <= q; r++) l[q * stride + r] = this.l[q * this.stride + r];
     }
     const scale = this.scale.slice(0, keep);
     const skip = this.skip.slice(0, keep);
     for (let q = keep; q < size; q++) {
-      const diag = m[q * stride + q] + shiftOf(order[q]);
+      const row = q * stride;
+      const diag = m[row + q] + shift[q];
       scale.push(diag > 0 ? 1 / Math.sqrt(diag) : 1);
       // Row q of the factor: forward substitution against rows < q, then the pivot.
       let d = scale[q] * diag * scale[q];
       for (let r = 0; r < q; r++) {
-        if (skip[r]) continue;
-        let s = scale[q] * m[q * stride + r] * scale[r];
-        for (let t = 0; t < r; t++) if (!skip[t]) s -= l[q * stride + t] * l[r * stride + t];
-        const v = s / l[r * stride + r];
-        l[q * stride + r] = v;
+        if (skip[r]) {
+          l[row + r] = 0;
+          continue;
+        }
+        let s = scale[q] * m[row + r] * scale[r];
+        const other = r * stride;
+        for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
+        const v = s / l[other + r];
+        l[row + r] = v;
         d -= v * v;
       }
-      if (d <= 1e-10) skip.push(1);
-      else {
+      if (d <= 1e-10) {
+        skip.push(1);
+        l[row + q] = 0;
+      } else {
         skip.push(0);
-        l[q * stride + q] = Math.sqrt(d);
+        l[row + q] = Math.sqrt(d);
       }
     }
     this.order = order;
-    this.shift = order.map(shiftOf);
+    this.shift = shift;
     this.stride = stride;
     this.m = m;
     this.l = l;
@@ -115,13 +147,13 @@ export class SupportSystem {
         continue;
       }
       let s = b[q];
-      for (let r = 0; r < q; r++) if (!skip[r]) s -= l[q * stride + r] * z[r];
+      for (let r = 0; r < q; r++) s -= l[q * stride + r] * z[r];
       z[q] = s / l[q * stride + q];
     }
     for (let q = size - 1; q >= 0; q--) {
       if (skip[q]) continue;
       let s = z[q];
-      for (let r = q + 1; r < size; r++) if (!skip[r]) s -= l[r * stride + q] * z[r];
+      for (let r = q + 1; r < size; r++) s -= l[r * stride + q] * z[r];
       z[q] = s / l[q * stride + q];
     }
   }
