@@ -146,6 +146,11 @@ export interface PathOptions {
   earlyStop?: boolean;
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
+  /**
+   * Lasso and elastic net: finish each solve with the active-set polish (exact solve on the support,
+   * core/polish.ts); default true. false leaves FISTA alone (for comparisons and tests).
+   */
+  polish?: boolean;
 }
 
 /** How one predictor column becomes design columns (for applying a stored fit to new rows). */

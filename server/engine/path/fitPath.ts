@@ -64,6 +64,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
       tolerance,
       maxIterations: options.maxIterations ?? DEFAULT_MAX_ITERATIONS,
       screening: options.screening ?? 'strong',
+      polish: options.polish ?? true,
     }, lipschitz);
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);

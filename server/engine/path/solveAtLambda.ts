@@ -25,6 +25,7 @@ export interface LambdaOptions {
   tolerance: number;
   maxIterations: number;
   screening: Screening;
+  polish: boolean;
 }
 
 const CHECK_EVERY = 5;
@@ -70,6 +71,7 @@ export function solveAtLambda(
   for (let round = 0; round < 50; round++) {
     const ws = makeWorkingSet(pen, allBlocks.filter((u) => keep[u] === 1), intercept);
     const outcome = solveRestricted(problem, dual, ws, state, lambda, {
+      polish: options.polish,
       tolerance: restrictedTolerance,
       maxIterations: Math.max(1, options.maxIterations - iterations),
       lipschitz,
@@ -143,7 +145,7 @@ function solveRestricted(
   ws: WorkingSet,
   state: LambdaState,
   lambda: number,
-  options: { tolerance: number; maxIterations: number; lipschitz: { value: number } },
+  options: { polish: boolean; tolerance: number; maxIterations: number; lipschitz: { value: number } },
 ) {
   const { n, y } = problem;
   const pen = problem.penalty;
@@ -183,7 +185,7 @@ function solveRestricted(
       prox: (z, out, step) => penaltyProx(pen, ws.blocks, ws.blockStart, z, out, step * lambda),
       penalty: (v) => penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda),
       gap,
-      polish: singleColumnBlocks(ws) ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps) : undefined,
+      polish: options.polish && singleColumnBlocks(ws) ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps) : undefined,
     },
     w,
     { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
