@@ -1,7 +1,9 @@
 import { describe, it, expect } from 'vitest';
 import { buildDesign } from '../../../server/engine/design/build';
 import { parseCsvText } from '../../../server/engine/csv';
-import { predictRows, type StoredModel } from '../../../server/engine/predict';
+import { predictPath, predictRows, type StoredModel } from '../../../server/engine/predict';
+import { fitPath } from '../../../server/engine/index';
+import { createRng } from '../../../server/engine/random';
 import { EngineInputError } from '../../../server/engine/types';
 import { expectClose } from '../cv/close';
 
@@ -67,5 +69,38 @@ describe('predictRows', () => {
   it('rejects text in a column the fit used as numeric', () => {
     const fresh = parseCsvText('x,c\nbig,a\n', 'new.csv');
     expect(() => predictRows(fresh, model('gaussian'))).toThrow(/column "x" must be numeric/);
+  });
+});
+
+describe('predictPath on the rows fitted', () => {
+  // Fact of the method (common practice): with an unpenalized intercept, the optimality condition for
+  // b0 makes the fitted values sum to sum(y) (gaussian: residuals sum to 0; binomial: the fitted
+  // probabilities sum to the number of ones), at every lambda.
+  const rng = createRng(17);
+  const rows = Array.from({ length: 40 }, (_, i) => {
+    const x = 3 + 2 * rng.normal();
+    const c = ['u', 'v', 'w'][i % 3];
+    const y = 1 + 0.8 * x + (c === 'u' ? 2 : 0) + rng.normal();
+    return `${y},${x},${c},${y > 4 ? 1 : 0}`;
+  });
+  const table = parseCsvText(`y,x,c,flag\n${rows.join('\n')}\n`, 'fit.csv');
+  const base = { predictors: ['x', 'c'], penalty: 'lasso' as const, alpha: 1, standardize: true, pathLength: 6, tolerance: 1e-12, maxIterations: 100000, screening: 'strong' as const, missing: 'drop' as const, cv: null };
+
+  for (const [family, response] of [['gaussian', 'y'], ['binomial', 'flag']] as const) {
+    it(`${family}: fitted values sum to sum(y) at every lambda`, () => {
+      const path = fitPath(table, { ...base, family, response });
+      const column = table.columns.find((col) => col.name === response);
+      if (!column || column.kind !== 'numeric') throw new Error('response column');
+      const sumY = column.values.reduce((a, b) => a + b, 0);
+      path.lambda.forEach((lambda, l) => {
+        const { response: fitted } = predictPath(table, path, l);
+        expectClose(fitted.reduce((a, b) => a + b, 0), sumY, 1e-6, `${family} sum of fitted values at lambda ${lambda}`);
+      });
+    });
+  }
+
+  it('rejects a lambda index outside the path', () => {
+    const path = fitPath(table, { ...base, family: 'gaussian', response: 'y' });
+    expect(() => predictPath(table, path, 6)).toThrow(/lambda index 6 is outside 0\.\.5/);
   });
 });
