@@ -2,9 +2,11 @@
  * Profile of single path fits on the two gaussian benchmark shapes (no CSV, no CLI, no CV): the time
  * per fitPathOnDesign and the FISTA iterations it took, to see where the engine spends its time.
  * Data as bench/engine/data.ts makes it (equicorrelated normal columns, a few active coefficients).
- * Run: npx tsx bench/engine-profile.ts [wide|tall|all] [repeats]
+ * 'tall-folds': the ten training-fold fits of 10-fold CV on the tall shape, each Gram built from its
+ * rows, then from S(all) - S(held out) (PathOptions.crossProducts).
+ * Run: npx tsx bench/engine-profile.ts [wide|wide-enet|tall|tall-folds|all] [repeats]
  */
-import { fitPathOnDesign } from '../server/engine';
+import { crossProducts, fitPathOnDesign, selectRows, subtractCrossProducts } from '../server/engine';
 import type { DesignMatrix, PathOptions } from '../server/engine/types';
 import { createRng } from '../server/engine/random';
 
@@ -77,4 +79,25 @@ for (const [key, c] of Object.entries(cases)) {
   }
   times.sort((a, b) => a - b);
   console.log(`${c.name}: best ${times[0].toFixed(0)} ms, median ${times[Math.floor(times.length / 2)].toFixed(0)} ms, ${iterations} iterations, ${statuses}`);
+}
+
+if (which === 'all' || which === 'tall-folds') {
+  const c = cases.tall;
+  const { design, y } = gaussianData(c.n, c.p, c.active, 12);
+  const folds = Array.from({ length: 10 }, (_, f) => Array.from({ length: c.n / 10 }, (_, i) => i * 10 + f));
+  const time = (useSums: boolean): number => {
+    const started = performance.now();
+    const all = useSums ? crossProducts(design) : null;
+    for (const heldOut of folds) {
+      const out = new Set(heldOut);
+      const train = Array.from({ length: c.n }, (_, i) => i).filter((i) => !out.has(i));
+      const rows = selectRows(design, y, train);
+      const options = all ? { ...c.options, crossProducts: subtractCrossProducts(all, crossProducts(design, heldOut, all.center)) } : c.options;
+      fitPathOnDesign(rows.design, rows.y, options);
+    }
+    return performance.now() - started;
+  };
+  for (let r = 0; r < repeats; r++) {
+    console.log(`tall, 10 training folds: Gram per fold ${time(false).toFixed(0)} ms, from S(all) - S(held out) ${time(true).toFixed(0)} ms`);
+  }
 }

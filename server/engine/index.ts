@@ -6,6 +6,7 @@ export { buildDesign, selectRows } from './design/build';
 export type { BuiltDesign } from './design/build';
 export { validateSpec } from './design/validate';
 export { fitPath, fitPathOnDesign } from './path/fitPath';
+export { crossProducts, subtractCrossProducts } from './core/crossProducts';
 export { computeLambdaMax, lambdaGrid, defaultLambdaRatio } from './path/grid';
 export { createRng } from './random';
 export type { Rng } from './random';

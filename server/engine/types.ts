@@ -147,10 +147,23 @@ export interface PathOptions {
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
   /**
+   * Gaussian, Gram form only: cross products of exactly these rows about a fixed centre (see
+   * crossProducts / subtractCrossProducts), from which the Gram matrix is formed instead of from X:
+   * for cross-validation, S(training rows) = S(all rows) - S(held-out rows).
+   */
+  crossProducts?: CrossProducts;
+  /**
    * Lasso and elastic net: finish each solve with the active-set polish (exact solve on the support,
    * core/polish.ts); default true. false leaves FISTA alone (for comparisons and tests).
    */
   polish?: boolean;
+}
+
+/** sum_i (x_i - center)(x_i - center)' over `rows` rows (p x p, row-major). */
+export interface CrossProducts {
+  rows: number;
+  center: Float64Array;
+  sums: Float64Array;
 }
 
 /** How one predictor column becomes design columns (for applying a stored fit to new rows). */

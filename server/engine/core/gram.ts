@@ -14,6 +14,11 @@ export class GramCache {
     this.columns = new Array<Float64Array | undefined>(p);
   }
 
+  /** Supplies column j from elsewhere (e.g. cross products of the same rows). */
+  preset(j: number, column: Float64Array): void {
+    this.columns[j] = column;
+  }
+
   column(j: number): Float64Array {
     const cached = this.columns[j];
     if (cached) return cached;

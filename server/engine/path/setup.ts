@@ -1,4 +1,5 @@
 import { DualContext } from '../core/dual';
+import { gramFromCrossProducts } from '../core/crossProducts';
 import { GramCache } from '../core/gram';
 import { buildBlockPenalty } from '../core/penalty';
 import type { Problem } from '../core/problem';
@@ -145,7 +146,8 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
   };
   // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
   // is cheaper than column by column as the working set grows.
-  if (problem.useGram && p <= 500) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+  if (problem.useGram && options.crossProducts) gramFromCrossProducts(problem.gram, options.crossProducts, n, std.centers, std.scales);
+  else if (problem.useGram && p <= 500) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
   const fixedU: number[] = [];
   for (let u = 0; u < penalty.nBlocks; u++) {
     if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);

@@ -1,0 +1,68 @@
+import { EngineInputError, type CrossProducts, type DesignMatrix } from '../types';
+import { GramCache } from './gram';
+
+/**
+ * Cross products S = sum_i (x_i - c)(x_i - c)' over some rows of a design, about a fixed centre c
+ * (default: the column means of those rows). Sums over disjoint row sets add, so a cross-validation
+ * fold's training rows get theirs as S(all rows) - S(held-out rows) at the cost of the held-out rows
+ * only (subtractCrossProducts); fitPathOnDesign turns them into the fold's Gram matrix (see
+ * gramFromCrossProducts). Centring about c first keeps the sums free of the cancellation that raw
+ * sums x_i x_i' suffer when means are large against spreads.
+ */
+export function crossProducts(design: DesignMatrix, rows?: ArrayLike<number>, center?: Float64Array): CrossProducts {
+  const { p } = design;
+  const count = rows ? rows.length : design.n;
+  const row = (i: number): number => (rows ? rows[i] : i);
+  const c = center ? Float64Array.from(center) : new Float64Array(p);
+  if (!center) {
+    for (let j = 0; j < p; j++) {
+      let s = 0;
+      for (let i = 0; i < count; i++) s += design.x[j * design.n + row(i)];
+      c[j] = count > 0 ? s / count : 0;
+    }
+  }
+  const centred = new Float64Array(count * p);
+  for (let j = 0; j < p; j++) for (let i = 0; i < count; i++) centred[j * count + i] = design.x[j * design.n + row(i)] - c[j];
+  const sums = new Float64Array(p * p);
+  if (count > 0) {
+    const gram = new GramCache(centred, count, p);
+    gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+    for (let j = 0; j < p; j++) {
+      const col = gram.column(j);
+      for (let k = 0; k < p; k++) sums[j * p + k] = col[k] * count;
+    }
+  }
+  return { rows: count, center: c, sums };
+}
+
+/** S(all) - S(part): the cross products of the remaining rows (same centre required). */
+export function subtractCrossProducts(all: CrossProducts, part: CrossProducts): CrossProducts {
+  if (all.center.length !== part.center.length || all.center.some((v, j) => v !== part.center[j])) {
+    throw new EngineInputError('cross products: both sets must use the same centre', 'crossProducts');
+  }
+  const sums = new Float64Array(all.sums.length);
+  for (let t = 0; t < sums.length; t++) sums[t] = all.sums[t] - part.sums[t];
+  return { rows: all.rows - part.rows, center: Float64Array.from(all.center), sums };
+}
+
+/**
+ * Presets the Gram cache of the standardized columns from cross products of the same rows:
+ * G_jk = (S_jk - n (m_j - c_j)(m_k - c_k)) / (n s_j s_k), m the rows' means and s the scales the
+ * standardization learnt (constant columns, scale 0, get zero entries).
+ */
+export function gramFromCrossProducts(gram: GramCache, cp: CrossProducts, n: number, means: Float64Array, scales: Float64Array): void {
+  const p = means.length;
+  if (cp.rows !== n || cp.center.length !== p || cp.sums.length !== p * p) {
+    throw new EngineInputError(`cross products: expected ${n} rows and ${p} x ${p} sums; got ${cp.rows} rows, ${cp.center.length} centres, ${cp.sums.length} sums`, 'crossProducts');
+  }
+  const shift = Float64Array.from(means, (m, j) => m - cp.center[j]);
+  for (let j = 0; j < p; j++) {
+    const col = new Float64Array(p);
+    if (scales[j] > 0) {
+      for (let k = 0; k < p; k++) {
+        if (scales[k] > 0) col[k] = (cp.sums[j * p + k] - n * shift[j] * shift[k]) / (n * scales[j] * scales[k]);
+      }
+    }
+    gram.preset(j, col);
+  }
+}
