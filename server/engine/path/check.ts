@@ -67,16 +67,46 @@ export function checkFull(
       }
     }
     loss /= problem.family === 'gaussian' ? 2 * n : n;
-    for (let j = 0; j < p; j++) {
-      const off = j * n;
-      let s = 0;
-      for (let i = 0; i < n; i++) s += x[off + i] * theta[i];
-      g[j] = s;
-    }
+    transposeTimes(x, n, p, theta, g);
   }
   const packed = new Float64Array(problem.penalty.features.length);
   for (let i = 0; i < packed.length; i++) packed[i] = coef[problem.penalty.features[i]];
   const penalty = penaltyValue(problem.penalty, allBlocks, allStart, packed, lambda);
   const result = dual.gap({ lambda, blocks: allBlocks, g, loss, penalty, ycTheta, theta: problem.family === 'binomial' ? theta : null });
   return { gap: result.gap / problem.nullObjective, absoluteGap: result.gap, g, loss, dual: result };
+}
+
+/**
+ * g = X'v, four columns per pass over v (fewer loads per product); each entry is the same
+ * left-to-right sum over rows as a plain dot product.
+ */
+function transposeTimes(x: Float64Array, n: number, p: number, v: Float64Array, g: Float64Array): void {
+  let j = 0;
+  for (; j + 4 <= p; j += 4) {
+    const a0 = j * n;
+    const a1 = a0 + n;
+    const a2 = a1 + n;
+    const a3 = a2 + n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = v[i];
+      s0 += x[a0 + i] * t;
+      s1 += x[a1 + i] * t;
+      s2 += x[a2 + i] * t;
+      s3 += x[a3 + i] * t;
+    }
+    g[j] = s0;
+    g[j + 1] = s1;
+    g[j + 2] = s2;
+    g[j + 3] = s3;
+  }
+  for (; j < p; j++) {
+    const off = j * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    g[j] = s;
+  }
 }
