@@ -76,6 +76,7 @@ export interface SolveInfo {
   /** Duality gap relative to the null-model objective at the returned point. */
   gap: number;
   tolerance: number;
+  /** FISTA iterations plus the active-set polish's linear solves and Newton steps (both limited). */
   iterations: number;
   timeMs: number;
 }
