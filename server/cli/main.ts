@@ -4,32 +4,37 @@
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
 import { readFileSync } from 'node:fs';
-import { crossValidate, crossValidateInWorkers } from '../engine/cv';
+import { crossValidate, crossValidateAdaptive, crossValidateInWorkers } from '../engine/cv';
 import { readCsvFile } from '../engine/csv';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec } from '../engine/types';
+import type { BuiltDesign } from '../engine/index';
+import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../engine/types';
 import { parseFitOptions, UsageError, type FitOptions } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
 import { fitWithDesign } from './fit';
 import { buildFitSpec } from './spec';
 
-/**
- * Worker threads pay ~0.5 s start-up each (the TypeScript loader) and copy the design, so they only
- * help when the folds are costly: below this much work (rows x predictors x lambdas) the folds run
- * in-process. Chosen from bench/engine.bench.ts on 2 cores (workers gained ~20% at 4e8 and 4.5e7;
- * the 569 x 30 x 100 breast cancer path, 1.7e6, finishes before workers would start).
- */
-const WORKER_MIN_WORK = 2e7;
-
 function engineVersion(): string {
   const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
   return pkg.version;
 }
 
-function useWorkers(options: FitOptions, table: EngineTable, spec: FitSpec): boolean {
-  if (options.workers !== 'auto') return options.workers === 'on';
-  const lambdas = spec.lambda?.length ?? spec.pathLength;
-  return table.nRows * spec.predictors.length * lambdas >= WORKER_MIN_WORK;
+/**
+ * --workers auto: time the first fold here and use 2 worker threads for the rest only when they
+ * would take over 2 s in this thread (worker start-up costs ~0.7 s; bench/engine.bench.ts).
+ */
+async function crossValidation(
+  options: FitOptions,
+  table: EngineTable,
+  spec: FitSpec,
+  path: PathResult,
+  built: BuiltDesign,
+): Promise<{ cv: CvResult | null; workers: number }> {
+  if (!spec.cv) return { cv: null, workers: 0 };
+  if (options.workers === 'off') return { cv: crossValidate(table, spec, path, built), workers: 0 };
+  if (options.workers === 'on') return { cv: await crossValidateInWorkers(table, spec, path, 2, built), workers: 2 };
+  const { result, workers } = await crossValidateAdaptive(table, spec, path, built);
+  return { cv: result, workers };
 }
 
 export async function runFit(argv: string[]): Promise<string> {
@@ -40,14 +45,12 @@ export async function runFit(argv: string[]): Promise<string> {
   const spec = buildFitSpec(options, table);
   const { path, built } = fitWithDesign(table, spec);
   const fitted = performance.now();
-  let cv: CvResult | null = null;
-  const workers = spec.cv !== null && useWorkers(options, table, spec);
-  if (spec.cv) cv = workers ? await crossValidateInWorkers(table, spec, path, 2, built) : crossValidate(table, spec, path, built);
+  const { cv, workers } = await crossValidation(options, table, spec, path, built);
   const timing = {
     readSeconds: (read - started) / 1000,
     fitSeconds: (fitted - read) / 1000,
     cvSeconds: (performance.now() - fitted) / 1000,
-    cvWorkers: workers ? 2 : 0,
+    cvWorkers: workers,
   };
   return toJson({ ...fitOutput(path, cv, engineVersion()), timing });
 }

@@ -21,19 +21,13 @@ import { Worker } from 'node:worker_threads';
 import type { BuiltDesign } from '../design/build';
 import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../types';
 import { combineFolds } from './combine';
-import { planCrossValidation } from './crossValidate';
-import type { FoldLosses } from './fold';
+import { planCrossValidation, type CvPlan } from './crossValidate';
+import { runFoldOnDesign, type FoldLosses } from './fold';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
-export async function crossValidateInWorkers(
-  table: EngineTable,
-  spec: FitSpec,
-  path: PathResult,
-  poolSize = 2,
-  built?: BuiltDesign,
-): Promise<CvResult> {
-  const plan = planCrossValidation(table, spec, path, built);
-  const size = Math.max(1, Math.min(poolSize, plan.folds));
+/** Runs the given folds of a plan on a pool of worker threads; results in fold order. */
+export async function runFoldsInWorkers(plan: CvPlan, folds: number[], poolSize = 2): Promise<FoldLosses[]> {
+  const size = Math.max(1, Math.min(poolSize, folds.length));
   const init: WorkerRequest = {
     type: 'init',
     design: plan.built.design,
@@ -43,7 +37,7 @@ export async function crossValidateInWorkers(
     lambda: plan.lambda,
   };
   const results: FoldLosses[] = [];
-  let next = 0;
+  const queue = [...folds];
   const workers = Array.from({ length: size }, startWorker);
   try {
     await Promise.all(
@@ -51,8 +45,9 @@ export async function crossValidateInWorkers(
         (worker) =>
           new Promise<void>((resolve, reject) => {
             const sendNext = () => {
-              if (next >= plan.folds) return resolve();
-              worker.postMessage({ type: 'fold', fold: next++ } satisfies WorkerRequest);
+              const fold = queue.shift();
+              if (fold === undefined) return resolve();
+              worker.postMessage({ type: 'fold', fold } satisfies WorkerRequest);
             };
             worker.on('message', (reply: WorkerReply) => {
               if ('error' in reply) {
@@ -71,6 +66,43 @@ export async function crossValidateInWorkers(
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
-  results.sort((a, b) => a.fold - b.fold);
+  return results.sort((a, b) => a.fold - b.fold);
+}
+
+/** Every fold on worker threads. */
+export async function crossValidateInWorkers(
+  table: EngineTable,
+  spec: FitSpec,
+  path: PathResult,
+  poolSize = 2,
+  built?: BuiltDesign,
+): Promise<CvResult> {
+  const plan = planCrossValidation(table, spec, path, built);
+  const results = await runFoldsInWorkers(plan, Array.from({ length: plan.folds }, (_, k) => k), poolSize);
   return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
+}
+
+/**
+ * Runs fold 1 in this thread and times it; when the remaining folds would take longer than
+ * `breakEvenSeconds` in this thread, runs them on worker threads, else here. Worker start-up
+ * (the TypeScript loader and the engine's modules, ~0.7 s measured) makes workers a loss for quick
+ * folds; timing a real fold adapts to the data, the family and the machine.
+ */
+export async function crossValidateAdaptive(
+  table: EngineTable,
+  spec: FitSpec,
+  path: PathResult,
+  built?: BuiltDesign,
+  breakEvenSeconds = 2,
+): Promise<{ result: CvResult; workers: number }> {
+  const plan = planCrossValidation(table, spec, path, built);
+  const started = performance.now();
+  const first = runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, 0, plan.lambda);
+  const seconds = (performance.now() - started) / 1000;
+  const rest = Array.from({ length: plan.folds - 1 }, (_, k) => k + 1);
+  const useWorkers = seconds * rest.length > breakEvenSeconds && rest.length > 1;
+  const others = useWorkers
+    ? await runFoldsInWorkers(plan, rest)
+    : rest.map((k) => runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda));
+  return { result: combineFolds(spec.family, plan.lambda, [first, ...others], plan.foldIds), workers: useWorkers ? 2 : 0 };
 }

@@ -3,6 +3,7 @@ import { mean, sampleStandardDeviation } from 'simple-statistics';
 import {
   combineFolds,
   crossValidate,
+  crossValidateAdaptive,
   crossValidateInWorkers,
   planCrossValidation,
   runFold,
@@ -186,5 +187,20 @@ describe('a term constant on a fold\'s training rows', () => {
     const b = runFold(withoutRare, s, planWith.foldIds, 0, s.lambda as number[]);
     a.losses.mse?.forEach((v, l) => expectClose(v, b.losses.mse?.[l] as number, 1e-6, `fold 1 mse at lambda ${l}`));
     expect(a.statuses.every((st) => st === 'converged')).toBe(true);
+  });
+});
+
+describe('crossValidateAdaptive', () => {
+  const table = binomialTable(60, 6);
+  const s = spec({ family: 'binomial', predictors: ['x1', 'x2'], tolerance: 1e-8, cv: { folds: 4, seed: 2 } });
+  const path = fitPath(table, s);
+  const expected = crossValidate(table, s, path);
+  it('gives the in-process result whether it stays in this thread or moves to workers', async () => {
+    const here = await crossValidateAdaptive(table, s, path, undefined, Infinity);
+    expect(here.workers).toBe(0);
+    expect(here.result).toEqual(expected);
+    const moved = await crossValidateAdaptive(table, s, path, undefined, 0);
+    expect(moved.workers).toBe(2);
+    expect(moved.result).toEqual(expected);
   });
 });
