@@ -10,7 +10,8 @@ export NODE_ENV=development LARIAT_SERVE_CLIENT=0
 
 cleanup() {
   kill $(jobs -p) 2>/dev/null || true
-  [ "${LARIAT_PG_STARTED:-0}" = 1 ] && stop_cluster
+  if [ "${LARIAT_PG_STARTED:-0}" = 1 ]; then stop_cluster; fi
+  return 0
 }
 trap cleanup EXIT
 trap 'exit 130' INT TERM

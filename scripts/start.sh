@@ -10,8 +10,9 @@ export DATABASE_URL="${DATABASE_URL:-$(database_url "${LARIAT_DB_NAME:-lariat}")
 export NODE_ENV="${NODE_ENV:-development}"
 
 cleanup() {
-  [ -n "${SERVER_PID:-}" ] && kill "$SERVER_PID" 2>/dev/null && wait "$SERVER_PID" 2>/dev/null
-  [ "${LARIAT_PG_STARTED:-0}" = 1 ] && { log "stopping PostgreSQL"; stop_cluster; }
+  if [ -n "${SERVER_PID:-}" ]; then kill "$SERVER_PID" 2>/dev/null || true; wait "$SERVER_PID" 2>/dev/null || true; fi
+  if [ "${LARIAT_PG_STARTED:-0}" = 1 ]; then log "stopping PostgreSQL"; stop_cluster; fi
+  return 0
 }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
