@@ -42,6 +42,8 @@ export async function signIn(page: Page, email: string, password: string): Promi
 export async function signOut(page: Page): Promise<void> {
   await page.getByRole('button', { name: 'Sign out' }).click();
   await page.waitForURL(/\/sign-in/);
+  // The sign-in page loads lazily: wait for its heading so later checks see the page, not the shell.
+  await page.getByRole('heading', { name: 'Sign in', level: 1 }).waitFor();
 }
 
 export function workspaceIdOf(url: string): string {
