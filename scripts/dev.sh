@@ -2,23 +2,9 @@
 # `npm run dev`: the API (restarting on change) plus Vite's hot-reloading client, same database as `npm start`.
 source "$(dirname "$0")/lib.sh"
 
-ensure_node_modules
-ensure_cluster
-ensure_database "${LARIAT_DB_NAME:-lariat}"
-export DATABASE_URL="${DATABASE_URL:-$(database_url "${LARIAT_DB_NAME:-lariat}")}"
 export NODE_ENV=development LARIAT_SERVE_CLIENT=0
-
-cleanup() {
-  kill $(jobs -p) 2>/dev/null || true
-  if [ "${LARIAT_PG_STARTED:-0}" = 1 ]; then stop_cluster; fi
-  return 0
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
-
-cd "$LARIAT_ROOT"
-npx tsx server/db/migrate.ts
-npx tsx server/seed/demo.ts
+prepare_app
 npx tsx watch server/main.ts &
-npx vite &
+log "the client with hot reload: http://127.0.0.1:5173 (API calls go through to port ${LARIAT_PORT:-5180})"
+npx vite --host 127.0.0.1 --strictPort &
 wait

@@ -109,3 +109,27 @@ drop_database() {
 ensure_chromium() {
   command -v chromium >/dev/null || [ -x /usr/bin/chromium ] || apt_install chromium
 }
+
+# For `npm start` and `npm run dev`: dependencies, the cluster, the app's database (migrated, with
+# the demo workspace), and an exit trap that stops what this script started (background jobs, and
+# the cluster if it was not already running).
+prepare_app() {
+  ensure_node_modules
+  ensure_cluster
+  ensure_database "${LARIAT_DB_NAME:-lariat}"
+  export DATABASE_URL="${DATABASE_URL:-$(database_url "${LARIAT_DB_NAME:-lariat}")}"
+  trap stop_started EXIT
+  trap 'exit 130' INT TERM
+  cd "$LARIAT_ROOT"
+  npx tsx server/db/migrate.ts
+  npx tsx server/seed/demo.ts
+}
+
+# An EXIT trap's last status becomes the script's: end on `return 0` so the verdict stands.
+stop_started() {
+  local jobs_running
+  jobs_running="$(jobs -p)"
+  if [ -n "$jobs_running" ]; then kill $jobs_running 2>/dev/null || true; wait 2>/dev/null || true; fi
+  if [ "${LARIAT_PG_STARTED:-0}" = 1 ]; then log "stopping PostgreSQL"; stop_cluster; fi
+  return 0
+}

@@ -9,12 +9,7 @@ ensure_cluster
 export LARIAT_TEST_DATABASE_ADMIN_URL="$(database_url postgres)"
 export NODE_ENV=test
 
-# An EXIT trap's last status becomes the script's: end on `return 0` so the tests' verdict stands.
-cleanup() {
-  if [ "${LARIAT_PG_STARTED:-0}" = 1 ]; then stop_cluster; fi
-  return 0
-}
-trap cleanup EXIT
+trap stop_started EXIT
 
 cd "$LARIAT_ROOT"
 log "typecheck"; npx tsc -p tsconfig.json --noEmit
