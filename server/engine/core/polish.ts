@@ -54,7 +54,7 @@ export function polishOnSupport(
     if (problem.family === 'gaussian') {
       if (!gaussianOnSupport(problem, ws, active, sign, l1, l2, out)) return { ok: false, steps: steps + 1 };
     } else {
-      const newton = newtonOnSupport(problem, ws, active, sign, l1, l2, out, budget);
+      const newton = newtonOnSupport(problem, ws, active, sign, l1, l2, out, budget, lambda);
       if (!newton.ok) return { ok: false, steps: steps + newton.steps };
       used = newton.steps;
     }
