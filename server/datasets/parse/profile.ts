@@ -29,22 +29,16 @@ export class ColumnProfile {
   /** `row` is the 1-based data row (the header is row 0 here; reports add 1). */
   /** Returns the cell's number (NaN when missing or not a number), so callers need not parse it again. */
   add(cell: string, row: number, missing: MissingTest): number {
-    this.count++;
     const value = trimCell(cell);
     if (missing.isMissingTrimmed(value)) {
+      this.count++;
       this.missing++;
       this.rowCounter = false;
       return Number.NaN;
     }
+    if (this.firstText === null && DECIMAL_TRIMMED.test(value)) return this.addDecimal(Number(value), value.length, row);
+    this.count++;
     this.totalLength += value.length;
-    if (this.firstText === null && DECIMAL_TRIMMED.test(value)) {
-      this.numeric++;
-      const x = Number(value);
-      if (this.integers && !Number.isInteger(x)) this.integers = false;
-      if (this.rowCounter && x !== row && x !== row - 1) this.rowCounter = false;
-      if (!this.overflow) this.count1(this.numbers, x); // "1.0" and "1" are the same number
-      return x;
-    }
     if (this.firstText === null) {
       this.firstText = { value, row };
       for (const [x, n] of this.numbers) this.distinct.set(String(x), n);
@@ -53,6 +47,20 @@ export class ColumnProfile {
     if (!this.hasWhitespace && /\s/.test(value)) this.hasWhitespace = true;
     if (!this.overflow) this.count1(this.distinct, value);
     return Number.NaN;
+  }
+
+  /**
+   * A cell already known to be a decimal number (trimmed text of `length` characters, not a missing
+   * marker) while the column is all numbers so far: the quote-free reader's path, with no string.
+   */
+  addDecimal(x: number, length: number, row: number): number {
+    this.count++;
+    this.totalLength += length;
+    this.numeric++;
+    if (this.integers && !Number.isInteger(x)) this.integers = false;
+    if (this.rowCounter && x !== row && x !== row - 1) this.rowCounter = false;
+    if (!this.overflow) this.count1(this.numbers, x); // "1.0" and "1" are the same number
+    return x;
   }
 
   private count1<K>(map: Map<K, number>, key: K): void {

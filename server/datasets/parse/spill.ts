@@ -40,24 +40,32 @@ export class ColumnSpill {
    * parsed[j], when given, holds those numbers already (NaN for missing), one per row.
    */
   writeBatch(rows: string[][], numeric: (j: number) => boolean, parsed?: Float64Array[]): void {
-    if (rows.length === 0) return;
-    const cells: string[] = new Array(rows.length);
+    const numbers = (j: number) => {
+      if (parsed) return parsed[j];
+      const values = new Float64Array(rows.length);
+      for (let i = 0; i < rows.length; i++) {
+        const t = trimCell(rows[i][j]);
+        values[i] = this.missing.isMissingTrimmed(t) ? Number.NaN : Number(t);
+      }
+      return values;
+    };
+    this.writeColumns(rows.length, numeric, numbers, (j) => rows.map((r) => r[j]));
+  }
+
+  /**
+   * The next n rows, column by column: numbers(j) (at least n values, NaN for missing) for columns
+   * that are numbers so far, else cells(j), the raw text of at least n cells.
+   */
+  writeColumns(n: number, numeric: (j: number) => boolean, numbers: (j: number) => Float64Array, cells: (j: number) => string[]): void {
+    if (n === 0) return;
     for (let j = 0; j < this.columnCount; j++) {
       if (numeric(j)) {
-        let values: Float64Array;
-        if (parsed) values = parsed[j].slice(0, rows.length);
-        else {
-          values = new Float64Array(rows.length);
-          for (let i = 0; i < rows.length; i++) {
-            const t = trimCell(rows[i][j]);
-            values[i] = this.missing.isMissingTrimmed(t) ? Number.NaN : Number(t);
-          }
-        }
+        const values = numbers(j).slice(0, n);
         this.append(j, new Uint8Array(values.buffer), true);
         continue;
       }
-      for (let i = 0; i < rows.length; i++) cells[i] = rows[i][j];
-      this.append(j, Buffer.from(cells.join('\0'), 'utf8'), false);
+      const text = cells(j);
+      this.append(j, Buffer.from((text.length === n ? text : text.slice(0, n)).join('\0'), 'utf8'), false);
     }
   }
 
