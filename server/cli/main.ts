@@ -6,12 +6,10 @@
 import { readFileSync } from 'node:fs';
 import { crossValidate, crossValidateAdaptive, crossValidateInWorkers } from '../engine/cv';
 import { readCsvFile } from '../engine/csv';
-import type { BuiltDesign } from '../engine/index';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../engine/types';
+import { EngineInputError, fitPathPrepared, prepareFit, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
 import { parseFitOptions, UsageError, type FitOptions } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
-import { fitWithDesign } from './fit';
 import { buildFitSpec } from './spec';
 
 function engineVersion(): string {
@@ -28,12 +26,12 @@ async function crossValidation(
   table: EngineTable,
   spec: FitSpec,
   path: PathResult,
-  built: BuiltDesign,
+  prepared: PreparedFit,
 ): Promise<{ cv: CvResult | null; workers: number }> {
   if (!spec.cv) return { cv: null, workers: 0 };
-  if (options.workers === 'off') return { cv: crossValidate(table, spec, path, built), workers: 0 };
-  if (options.workers === 'on') return { cv: await crossValidateInWorkers(table, spec, path, 2, built), workers: 2 };
-  const { result, workers } = await crossValidateAdaptive(table, spec, path, built);
+  if (options.workers === 'off') return { cv: crossValidate(table, spec, path, prepared), workers: 0 };
+  if (options.workers === 'on') return { cv: await crossValidateInWorkers(table, spec, path, 2, prepared), workers: 2 };
+  const { result, workers } = await crossValidateAdaptive(table, spec, path, prepared);
   return { cv: result, workers };
 }
 
@@ -43,9 +41,11 @@ export async function runFit(argv: string[]): Promise<string> {
   const table = readCsvFile(options.data);
   const read = performance.now();
   const spec = buildFitSpec(options, table);
-  const { path, built } = fitWithDesign(table, spec);
+  // One code path with fitPath; the prepared design is kept for cross-validation.
+  const prepared = prepareFit(table, spec);
+  const path = fitPathPrepared(prepared);
   const fitted = performance.now();
-  const { cv, workers } = await crossValidation(options, table, spec, path, built);
+  const { cv, workers } = await crossValidation(options, table, spec, path, prepared);
   const timing = {
     readSeconds: (read - started) / 1000,
     fitSeconds: (fitted - read) / 1000,

@@ -2,10 +2,12 @@
  * The engine's public entry points (see types.ts for the objectives and their scalings).
  * Callers: the CLI, fit workers, cross-validation, prediction, tests and benchmarks.
  */
-export { buildDesign, selectRows } from './design/build';
+export { buildDesign, findColumn, selectRows } from './design/build';
 export type { BuiltDesign } from './design/build';
 export { validateSpec } from './design/validate';
-export { fitPath, fitPathOnDesign } from './path/fitPath';
+export { encodeForFit, fitPath, fitPathOnDesign, fitPathPrepared, prepareFit } from './path/fitPath';
+export type { PreparedFit } from './path/fitPath';
+export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
 export { crossProducts, subtractCrossProducts } from './core/crossProducts';
 export { computeLambdaMax, lambdaGrid, defaultLambdaRatio } from './path/grid';
 export { createRng } from './random';

@@ -1,13 +1,13 @@
 /**
  * K-fold cross-validation of a fitted path (../shared/DESIGN.md): the grid is the full-data path's,
  * each fold refits on its training rows and scores its held-out rows, and combineFolds summarizes.
+ * Uses only the engine's public entry (../index).
  */
-import { buildDesign, type BuiltDesign } from '../design/build';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult } from '../types';
+import { EngineInputError, encodeForFit, type BuiltDesign, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult, type PreparedFit } from '../index';
 import { foldAssignment } from './assign';
 import { combineFolds } from './combine';
 import { runFoldOnDesign } from './fold';
-import { pathOptionsFromSpec } from '../path/fromSpec';
+import { foldShared, type FoldShared } from './foldData';
 
 export interface CvPlan {
   built: BuiltDesign;
@@ -15,25 +15,31 @@ export interface CvPlan {
   foldIds: Int32Array;
   folds: number;
   lambda: number[];
+  shared: FoldShared;
 }
 
 /**
- * Everything the folds share: the full design, options, fold ids and the full-data grid. `built` is
- * the design the full path was fitted on, when the caller has it (saves encoding the table again).
+ * Everything the folds share: the full design, options, fold ids, the full-data grid, and the cross
+ * products / imputed cells (foldData.ts). `prepared` is what the full path was fitted from, when the
+ * caller has it (saves encoding the table again).
  */
-export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, built?: BuiltDesign): CvPlan {
+export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvPlan {
   if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  built ??= buildDesign(table, spec);
+  const { built, options, crossProducts } = prepared ?? encodeForFit(table, spec);
   const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  return { built, options: pathOptionsFromSpec(spec, built), foldIds, folds, lambda: path.lambda };
+  const shared = foldShared(table, built, options, foldIds, folds, crossProducts);
+  return { built, options, foldIds, folds, lambda: path.lambda, shared };
+}
+
+/** Fold k of a plan in this thread. */
+export function runPlannedFold(plan: CvPlan, k: number) {
+  return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared);
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */
-export function crossValidate(table: EngineTable, spec: FitSpec, path: PathResult, built?: BuiltDesign): CvResult {
-  const plan = planCrossValidation(table, spec, path, built);
+export function crossValidate(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvResult {
+  const plan = planCrossValidation(table, spec, path, prepared);
   const results = [];
-  for (let k = 0; k < plan.folds; k++) {
-    results.push(runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda));
-  }
+  for (let k = 0; k < plan.folds; k++) results.push(runPlannedFold(plan, k));
   return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
 }

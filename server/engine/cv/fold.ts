@@ -5,10 +5,11 @@
  * and scaling from the rows it is given, i.e. from the training rows only, and gives a column that is
  * constant there coefficient 0.
  */
-import { buildDesign, selectRows } from '../design/build';
-import { fitPathOnDesign } from '../path/fitPath';
 import {
   EngineInputError,
+  fitPathOnDesign,
+  encodeForFit,
+  selectRows,
   type CvMetricName,
   type DesignMatrix,
   type EngineTable,
@@ -16,7 +17,7 @@ import {
   type FitSpec,
   type PathOptions,
   type SolveStatus,
-} from '../types';
+} from '../index';
 import {
   areaUnderRoc,
   meanAbsoluteError,
@@ -24,7 +25,7 @@ import {
   meanSquaredError,
   misclassificationRate,
 } from './metrics';
-import { pathOptionsFromSpec } from '../path/fromSpec';
+import { foldCrossProducts, foldShared, imputeFromTraining, type FoldShared } from './foldData';
 
 /** One fold's result: plain arrays only, so it can travel as a queue job's output. */
 export interface FoldLosses {
@@ -50,14 +51,19 @@ function scoreHeldOut(family: Family, y: Float64Array, eta: Float64Array): Recor
   };
 }
 
-/** The fold on an already built full design (the in-process and worker paths use this). */
+/**
+ * The fold on an already built full design (the in-process and worker paths use this). `shared`
+ * (foldData.ts): imputed cells are refilled from the training rows, and in the gaussian Gram form
+ * the fold's Gram comes from S(all) - S(held out) instead of its rows.
+ */
 export function runFoldOnDesign(
-  design: DesignMatrix,
+  fullDesign: DesignMatrix,
   y: Float64Array,
   options: PathOptions,
   foldIds: Int32Array,
   foldIndex: number,
   lambda: number[],
+  shared: FoldShared = { imputed: [] },
 ): FoldLosses {
   const train: number[] = [];
   const test: number[] = [];
@@ -74,8 +80,11 @@ export function runFoldOnDesign(
       );
     }
   }
+  const isTraining = Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1));
+  const design = imputeFromTraining(fullDesign, shared.imputed, isTraining);
   const trainSet = selectRows(design, y, train);
-  const fit = fitPathOnDesign(trainSet.design, trainSet.y, { ...options, lambda });
+  const cross = foldCrossProducts(design, shared, test);
+  const fit = fitPathOnDesign(trainSet.design, trainSet.y, cross ? { ...options, lambda, crossProducts: cross } : { ...options, lambda });
   const testSet = selectRows(design, y, test);
   const nTest = test.length;
   const xt = testSet.design.x;
@@ -108,12 +117,14 @@ export function runFold(
   foldIndex: number,
   lambda: number[],
 ): FoldLosses {
-  const built = buildDesign(table, spec);
+  const { built, options } = encodeForFit(table, spec);
   if (built.rows.length !== foldIds.length) {
     throw new EngineInputError(
       `fold ids cover ${foldIds.length} rows but the data have ${built.rows.length} usable rows`,
       'folds',
     );
   }
-  return runFoldOnDesign(built.design, built.y, pathOptionsFromSpec(spec, built), foldIds, foldIndex, lambda);
+  let folds = 0;
+  for (const f of foldIds) folds = Math.max(folds, f + 1);
+  return runFoldOnDesign(built.design, built.y, options, foldIds, foldIndex, lambda, foldShared(table, built, options, foldIds, folds));
 }

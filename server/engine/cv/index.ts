@@ -1,5 +1,5 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (../shared/DESIGN.md). */
-export { crossValidate, planCrossValidation } from './crossValidate';
+export { crossValidate, planCrossValidation, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
 export { crossValidateAdaptive, crossValidateInWorkers, runFoldsInWorkers } from './parallel';
 export { runFold, runFoldOnDesign, METRICS } from './fold';
@@ -9,3 +9,5 @@ export { foldAssignment } from './assign';
 export { assignFolds, foldIdsFromColumn } from './folds';
 export { chooseLambdas, summarizeFolds } from './choose';
 export * from './metrics';
+export { foldShared, imputeFromTraining } from './foldData';
+export type { FoldShared, ImputedPredictor } from './foldData';

@@ -18,11 +18,10 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import type { BuiltDesign } from '../design/build';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult } from '../types';
+import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../index';
 import { combineFolds } from './combine';
-import { planCrossValidation, type CvPlan } from './crossValidate';
-import { runFoldOnDesign, type FoldLosses } from './fold';
+import { planCrossValidation, runPlannedFold, type CvPlan } from './crossValidate';
+import type { FoldLosses } from './fold';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 /** Runs the given folds of a plan on a pool of worker threads; results in fold order. */
@@ -35,6 +34,7 @@ export async function runFoldsInWorkers(plan: CvPlan, folds: number[], poolSize 
     options: plan.options,
     foldIds: plan.foldIds,
     lambda: plan.lambda,
+    shared: plan.shared,
   };
   const results: FoldLosses[] = [];
   const queue = [...folds];
@@ -75,9 +75,9 @@ export async function crossValidateInWorkers(
   spec: FitSpec,
   path: PathResult,
   poolSize = 2,
-  built?: BuiltDesign,
+  prepared?: PreparedFit,
 ): Promise<CvResult> {
-  const plan = planCrossValidation(table, spec, path, built);
+  const plan = planCrossValidation(table, spec, path, prepared);
   const results = await runFoldsInWorkers(plan, Array.from({ length: plan.folds }, (_, k) => k), poolSize);
   return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
 }
@@ -92,17 +92,17 @@ export async function crossValidateAdaptive(
   table: EngineTable,
   spec: FitSpec,
   path: PathResult,
-  built?: BuiltDesign,
+  prepared?: PreparedFit,
   breakEvenSeconds = 2,
 ): Promise<{ result: CvResult; workers: number }> {
-  const plan = planCrossValidation(table, spec, path, built);
+  const plan = planCrossValidation(table, spec, path, prepared);
   const started = performance.now();
-  const first = runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, 0, plan.lambda);
+  const first = runPlannedFold(plan, 0);
   const seconds = (performance.now() - started) / 1000;
   const rest = Array.from({ length: plan.folds - 1 }, (_, k) => k + 1);
   const useWorkers = seconds * rest.length > breakEvenSeconds && rest.length > 1;
   const others = useWorkers
     ? await runFoldsInWorkers(plan, rest)
-    : rest.map((k) => runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda));
+    : rest.map((k) => runPlannedFold(plan, k));
   return { result: combineFolds(spec.family, plan.lambda, [first, ...others], plan.foldIds), workers: useWorkers ? 2 : 0 };
 }

@@ -1,6 +1,7 @@
 /** Messages between crossValidateInWorkers and its worker threads. */
-import type { DesignMatrix, PathOptions } from '../types';
+import type { DesignMatrix, PathOptions } from '../index';
 import type { FoldLosses } from './fold';
+import type { FoldShared } from './foldData';
 
 export type WorkerRequest =
   | {
@@ -10,6 +11,7 @@ export type WorkerRequest =
       options: PathOptions;
       foldIds: Int32Array;
       lambda: number[];
+      shared: FoldShared;
     }
   | { type: 'fold'; fold: number };
 

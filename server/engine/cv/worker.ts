@@ -3,8 +3,9 @@
  * and answers each with the fold's losses (or its error).
  */
 import { parentPort } from 'node:worker_threads';
-import type { DesignMatrix, PathOptions } from '../types';
+import type { DesignMatrix, PathOptions } from '../index';
 import { runFoldOnDesign } from './fold';
+import type { FoldShared } from './foldData';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 interface Shared {
@@ -13,6 +14,7 @@ interface Shared {
   options: PathOptions;
   foldIds: Int32Array;
   lambda: number[];
+  shared: FoldShared;
 }
 
 let shared: Shared | undefined;
@@ -26,7 +28,7 @@ parentPort?.on('message', (message: WorkerRequest) => {
     try {
       if (!shared) throw new Error('worker received a fold before its data');
       const { design, y, options, foldIds, lambda } = shared;
-      return { fold: message.fold, result: runFoldOnDesign(design, y, options, foldIds, message.fold, lambda) };
+      return { fold: message.fold, result: runFoldOnDesign(design, y, options, foldIds, message.fold, lambda, shared.shared) };
     } catch (error) {
       const e = error as Error & { field?: string };
       return { fold: message.fold, error: { name: e.name, message: e.message, field: e.field } };

@@ -1,9 +1,10 @@
-import { buildDesign } from '../design/build';
+import { buildDesign, type BuiltDesign } from '../design/build';
 import { validateSpec } from '../design/validate';
-import { EngineInputError, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
+import { EngineInputError, type CrossProducts, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
 import { defaultLambdaRatio, lambdaGrid } from './grid';
 import { pathOptionsFromSpec } from './fromSpec';
-import { checkPathOptions, prepareProblem, type PreparedProblem } from './setup';
+import { checkPathOptions, FULL_GRAM_COLUMNS, prepareProblem, usesGram, type PreparedProblem } from './setup';
+import { crossProducts } from '../core/crossProducts';
 import { solveAtLambda, type LambdaState } from './solveAtLambda';
 
 const DEFAULT_TOLERANCE = 1e-7;
@@ -115,17 +116,53 @@ function record(
   result.devianceRatio.push(1 - state.loss / problem.nullObjective);
 }
 
-/** Table level: validateSpec, buildDesign, then fitPathOnDesign; the result carries the encoding. */
-export function fitPath(table: EngineTable, spec: FitSpec): PathResult {
+/** A spec checked against its table, encoded, and mapped to the options of the design-level fit. */
+export interface PreparedFit {
+  built: BuiltDesign;
+  options: PathOptions;
+  /**
+   * Cross products of all rows, set by fitPathPrepared when the full Gram form is used: the full
+   * path's Gram comes from them, and cross-validation subtracts each fold's held-out rows from them.
+   */
+  crossProducts?: CrossProducts;
+}
+
+/** validateSpec, then encodeForFit: the table-level steps every fit shares. */
+export function prepareFit(table: EngineTable, spec: FitSpec): PreparedFit {
   validateSpec(table, spec);
+  return encodeForFit(table, spec);
+}
+
+/**
+ * buildDesign and the spec's PathOptions, for a spec already validated (e.g. a fold job repeating
+ * the full fit's encoding).
+ */
+export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
   const built = buildDesign(table, spec);
   if (built.design.p === 0) {
     throw new EngineInputError('no usable predictor: every predictor is constant over the rows used', 'predictors');
   }
   if (built.design.n < 2) throw new EngineInputError(`only ${built.design.n} row remains after removing missing values`, 'data');
-  const options = pathOptionsFromSpec(spec, built);
-  const result = fitPathOnDesign(built.design, built.y, options);
+  return { built, options: pathOptionsFromSpec(spec, built) };
+}
+
+/**
+ * Table level, keeping the encoded design (cross-validation reuses it instead of encoding the table
+ * again): fitPathOnDesign on a prepareFit result; the result carries the build's notes and the
+ * encoding. In the full Gram form the Gram matrix comes from the cross products of all rows, which
+ * are kept in `prepared` for cross-validation's folds.
+ */
+export function fitPathPrepared(prepared: PreparedFit): PathResult {
+  const { built, options } = prepared;
+  const { n, p } = built.design;
+  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design);
+  const result = fitPathOnDesign(built.design, built.y, prepared.crossProducts ? { ...options, crossProducts: prepared.crossProducts } : options);
   result.notes.unshift(...built.notes);
   result.encoding = built.encoding;
   return result;
+}
+
+/** Table level: prepareFit, then fitPathOnDesign; the result carries the encoding. */
+export function fitPath(table: EngineTable, spec: FitSpec): PathResult {
+  return fitPathPrepared(prepareFit(table, spec));
 }

@@ -78,8 +78,11 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
   }
 }
 
+/** Up to this many columns the Gram form computes all of G at once (see prepareProblem). */
+export const FULL_GRAM_COLUMNS = 500;
+
 /** Gram form for gaussian fits when n is well above p (n >= 2p and p <= 2000), unless overridden. */
-function wantsGram(options: PathOptions, n: number, p: number): boolean {
+export function usesGram(options: PathOptions, n: number, p: number): boolean {
   if (options.family !== 'gaussian') return false;
   if (options.gram === 'always') return true;
   if (options.gram === 'never') return false;
@@ -139,7 +142,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
     yy,
     c,
     gram: new GramCache(std.x, n, p),
-    useGram: wantsGram(options, n, p),
+    useGram: usesGram(options, n, p),
     penalty,
     colNormSq,
     nullObjective,
@@ -147,7 +150,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
   // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
   // is cheaper than column by column as the working set grows.
   if (problem.useGram && options.crossProducts) gramFromCrossProducts(problem.gram, options.crossProducts, n, std.centers, std.scales);
-  else if (problem.useGram && p <= 500) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+  else if (problem.useGram && p <= FULL_GRAM_COLUMNS) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
   const fixedU: number[] = [];
   for (let u = 0; u < penalty.nBlocks; u++) {
     if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);
