@@ -6,7 +6,7 @@ import type { MissingTest } from '../parse/missing';
 import type { ParsedFile } from '../parse/parse-file';
 import type { ColumnSpill } from '../parse/spill';
 import { describeDelimiter } from '../parse/sniff';
-import { encodeCodes, encodeFloat64, encodeText, typedBytes } from '../storage/codec';
+import { bytesToInt32, encodeCodes, encodeFloat64, encodeText, typedBytes } from '../storage/codec';
 import { loadAs, type StoredColumn } from '../storage/convert';
 import { summarize } from '../summary';
 
@@ -26,6 +26,10 @@ export function encodeColumn(spill: ColumnSpill, j: number, name: string, infere
 
 /** Stored numbers are summarised as numbers whatever the type (a row number's min and max help). */
 function summarizeStored(stored: StoredColumn, type: ColumnType) {
+  if (stored.storage === 'codes' && (type === 'binary' || type === 'categorical')) {
+    // Stored codes already index levels in their sorted order (encodeCodes): no round trip through text.
+    return summarize({ name: stored.name, kind: 'categorical', codes: bytesToInt32(stored.data), levels: stored.levels });
+  }
   if (stored.storage !== 'float64' || type === 'binary' || type === 'categorical') return summarize(loadAs(stored, type));
   const s = summarize(loadAs(stored, 'numeric'));
   return type === 'numeric' ? s : { count: s.count, missing: s.missing, distinct: s.distinct, min: s.min, max: s.max };

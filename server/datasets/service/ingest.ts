@@ -14,10 +14,9 @@ import { findDataset, insertDataset, nextVersionNumber } from '../data/datasets'
 import type { Executor } from '../data/executor';
 import { insertColumn, insertFileChunk, insertUpload } from '../data/uploads';
 import { findVersionByChecksum, findVersionRowById, insertVersion } from '../data/versions';
-import { inferColumn } from '../parse/infer';
-import { parseCsvFile, type ParsedFile } from '../parse/parse-file';
-import { buildReport, columnSchema, encodeColumn } from './build-columns';
 import { versionSummary } from './dto';
+import type { ParseOutcome } from './parse-protocol';
+import { startParse, type ColumnSource } from './parse-thread';
 import type { ProgressHandle } from './progress';
 
 export const FILE_CHUNK_BYTES = 1 << 20;
@@ -82,34 +81,39 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
   // The chunks' foreign key to the upload is checked at commit (migration 0004), as the upload row
   // needs the parse's counts and report.
   const uploadId = randomUUID();
-  const versionId = await db.transaction(async (tx) => {
-    const stop = { requested: false };
-    const storing = storeOriginal(tx, uploadId, req.filePath, stop);
-    storing.catch(() => undefined); // awaited below; this only marks a failure as handled meanwhile
-    let parsed: ParsedFile;
-    try {
-      parsed = await parseCsvFile({
-        filePath: req.filePath,
-        fileName: req.fileName,
-        missingMarkers: req.missingMarkers,
-        columnLimit: req.columnLimit,
-        spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
-        onProgress: (bytes, rows) => req.progress?.phase('parsing', bytes / Math.max(1, req.sizeBytes), rows),
-      });
-    } catch (error) {
-      stop.requested = true;
-      await storing.catch(() => undefined);
-      throw error;
-    }
-    try {
+  const thread = startParse(
+    {
+      filePath: req.filePath,
+      fileName: req.fileName,
+      missingMarkers: req.missingMarkers,
+      columnLimit: req.columnLimit,
+      spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
+    },
+    req.sizeBytes,
+    (bytes, rows) => req.progress?.phase('parsing', bytes / Math.max(1, req.sizeBytes), rows),
+  );
+  let versionId: string;
+  try {
+    versionId = await db.transaction(async (tx) => {
+      const stop = { requested: false };
+      const storing = storeOriginal(tx, uploadId, req.filePath, stop);
+      storing.catch(() => undefined); // awaited below; this only marks a failure as handled meanwhile
+      let parsed: ParseOutcome;
+      try {
+        parsed = await thread.parsed;
+      } catch (error) {
+        stop.requested = true;
+        await storing.catch(() => undefined);
+        throw error;
+      }
       timer('parse');
       await storing;
       timer('finish storing the original');
-      return await storeParsed(tx, req, dataset?.id ?? null, uploadId, parsed, timer);
-    } finally {
-      parsed.spill.close();
-    }
-  });
+      return await storeParsed(tx, req, dataset?.id ?? null, uploadId, parsed, thread, timer);
+    });
+  } finally {
+    await thread.close();
+  }
   timer('commit');
   const version = (await findVersionRowById(db, versionId))!;
   const excluded = version.columns.filter((c) => c.excluded).length;
@@ -132,9 +136,13 @@ async function storeOriginal(tx: Executor, uploadId: string, filePath: string, s
   }
 }
 
-/** Dataset (if new), upload, columns and version rows for a parsed file. Returns the version id. */
-async function storeParsed(tx: Executor, req: IngestRequest, existingDatasetId: string | null, uploadId: string, parsed: ParsedFile, timer: Timer): Promise<string> {
-  const inferences = parsed.profiles.map(inferColumn);
+/**
+ * Dataset (if new), upload, columns and version rows for a parsed file. Returns the version id.
+ * Column j + 1 is asked of the worker before column j is inserted, so the two overlap.
+ */
+async function storeParsed(tx: Executor, req: IngestRequest, existingDatasetId: string | null, uploadId: string, parsed: ParseOutcome, thread: ColumnSource, timer: Timer): Promise<string> {
+  const columnCount = parsed.header.length;
+  let next = thread.column(0);
   const datasetId =
     existingDatasetId ??
     (await insertDataset(tx, {
@@ -152,18 +160,18 @@ async function storeParsed(tx: Executor, req: IngestRequest, existingDatasetId: 
     sha256: req.sha256,
     sizeBytes: req.sizeBytes,
     rowCount: parsed.rowCount,
-    columnCount: parsed.header.length,
-    report: buildReport(parsed, req.fileName, inferences),
+    columnCount,
+    report: parsed.report,
   });
   const schema = [];
-  for (let j = 0; j < parsed.header.length; j++) {
-    const stored = encodeColumn(parsed.spill, j, parsed.header[j], inferences[j], parsed.missing);
-    timer('  read and encode', true);
-    await insertColumn(tx, uploadId, j, stored);
+  for (let j = 0; j < columnCount; j++) {
+    const column = await next;
+    timer('  encode and summarise (waited for)', true);
+    if (j + 1 < columnCount) next = thread.column(j + 1);
+    await insertColumn(tx, uploadId, j, column.stored);
     timer('  insert', true);
-    schema.push(columnSchema(stored, j, inferences[j]));
-    timer('  summarise', true);
-    req.progress?.phase('storing', (j + 1) / parsed.header.length, parsed.rowCount);
+    schema.push(column.schema);
+    req.progress?.phase('storing', (j + 1) / columnCount, parsed.rowCount);
   }
   return insertVersion(tx, {
     datasetId,

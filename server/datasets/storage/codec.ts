@@ -44,16 +44,25 @@ export function encodeFloat64(cells: (string | null)[], missing: MissingTest): F
 
 export function encodeCodes(cells: (string | null)[], missing?: MissingTest): { codes: Int32Array; levels: string[] } {
   const index = new Map<string, number>();
+  // Few distinct raw cells in a column of codes: each is trimmed and tested once, then looked up.
+  const byRaw = new Map<string, number>();
   const raw = new Int32Array(cells.length);
   for (let i = 0; i < cells.length; i++) {
     const cell = cells[i];
-    if (cell === null || missing?.isMissing(cell)) {
+    if (cell === null) {
       raw[i] = -1;
       continue;
     }
-    const value = missing ? cell.trim() : cell;
-    let code = index.get(value);
-    if (code === undefined) index.set(value, (code = index.size));
+    let code = byRaw.get(cell);
+    if (code === undefined) {
+      if (missing?.isMissing(cell)) code = -1;
+      else {
+        const value = missing ? cell.trim() : cell;
+        code = index.get(value);
+        if (code === undefined) index.set(value, (code = index.size));
+      }
+      byRaw.set(cell, code);
+    }
     raw[i] = code;
   }
   const levels = [...index.keys()].sort(compareLevels);
