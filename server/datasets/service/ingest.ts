@@ -2,7 +2,8 @@
  * One ingest: a received file (already on disk with its SHA-256) becomes a new dataset or version
  * N+1 of an existing one. A file identical to one already stored (same checksum) stores nothing.
  * Everything is written in one transaction, so a failure leaves no dataset, upload or version (nor
- * any chunk of the original file, which is written while the file is parsed).
+ * any chunk of the original file, which is written while the file is parsed). Parsing, encoding and
+ * summaries run on a worker thread for large files (parse-thread.ts).
  */
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
