@@ -6,6 +6,7 @@ import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
 import { solveAtLambda, type LambdaState } from './solveAtLambda';
+import { solveAtZero } from './atZero';
 
 const DEFAULT_TOLERANCE = 1e-7;
 const DEFAULT_MAX_ITERATIONS = 10000;
@@ -59,6 +60,18 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
   };
   let previous = Math.max(lambdaMax, grid[0]);
   for (const lambda of grid) {
+    if (lambda === 0) {
+      const zero = solveAtZero(design, y, problem, dual, std, state, tolerance);
+      if ('info' in zero) {
+        record(result, state, zero.info, lambda, std, options.standardize, problem);
+        // The factorization's own original-scale numbers, not a round trip through the scales.
+        result.intercept[result.intercept.length - 1] = zero.intercept;
+        result.coefficients[result.coefficients.length - 1] = zero.coefficients;
+        notes.push(zero.note);
+        continue;
+      }
+      notes.push(`lambda = 0: the unpenalized factorization is not possible (${zero.fallback}); solved by the iterative solver instead`);
+    }
     const info: SolveInfo = solveAtLambda(problem, dual, state, {
       lambda,
       previousLambda: previous,
