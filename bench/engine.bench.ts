@@ -64,9 +64,17 @@ function sklearnAvailable(): boolean {
   return existsSync(PYTHON) && spawnSync(PYTHON, ['-c', 'import sklearn'], { stdio: 'ignore' }).status === 0;
 }
 
+/** What `npm run -s cli` runs (without npm's own start-up): the bundled CLI, built here before timing. */
+const CLI_SCRIPT = join(root, 'scripts', 'cli.sh');
+
+function buildCli(): void {
+  const r = spawnSync('bash', [CLI_SCRIPT, '--help'], { stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(`building the CLI bundle failed: ${r.stderr}`);
+}
+
 function lariat(data: BenchData, c: Case, grid: number[], workers: 'auto' | 'off'): Promise<Measured> {
-  return measureProcess(process.execPath, [
-    '--import', 'tsx', join(root, 'server', 'cli', 'main.ts'), 'fit',
+  return measureProcess('bash', [
+    CLI_SCRIPT, 'fit',
     '--data', data.path, '--response', 'y', '--fold-column', 'fold', '--family', c.family,
     '--lambda', grid.map((v) => v.toPrecision(17)).join(','), '--tolerance', String(c.tolerance),
     '--workers', workers,
@@ -128,7 +136,8 @@ async function runCase(c: Case, haveSklearn: boolean): Promise<void> {
 
 export async function run(): Promise<void> {
   const haveSklearn = sklearnAvailable();
-  console.log('Engine: Lariat CLI vs scikit-learn coordinate descent, whole processes, one thread each');
+  buildCli();
+  console.log('Engine: Lariat CLI (the bundle `npm run -s cli` runs) vs scikit-learn coordinate descent, whole processes, one thread each');
   console.log('(Lariat "workers auto" may use 2 worker threads for large data; "workers off" is single-threaded.)');
   console.log('Tolerance: scikit-learn tol = Lariat tol / 2 gives the same relative duality gap (see bench/engine.bench.ts).');
   if (!haveSklearn) {

@@ -1,19 +1,9 @@
 /**
  * Cross-validation with folds spread over a small pool of worker threads (min(2, K) by default: the
- * target machine has 2 cores). Workers run TypeScript through tsx's loader.
+ * target machine has 2 cores).
  */
 
-/**
- * Node 20 resolves a worker's entry file before `--import tsx` hooks apply, so a `.ts` entry fails;
- * a small evaluated bootstrap registers tsx's ESM hooks first, then imports the TypeScript worker.
- */
-function startWorker(): Worker {
-  const tsxRoot = dirname(createRequire(import.meta.url).resolve('tsx/package.json'));
-  const tsxApi = pathToFileURL(join(tsxRoot, 'dist', 'esm', 'api', 'index.mjs')).href;
-  const entry = new URL('./worker.ts', import.meta.url).href;
-  const code = `import(${JSON.stringify(tsxApi)}).then((api) => { api.register(); return import(${JSON.stringify(entry)}); })`;
-  return new Worker(code, { eval: true });
-}
+import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -23,6 +13,22 @@ import { combineFolds } from './combine';
 import { planCrossValidation, runPlannedFold, type CvPlan } from './crossValidate';
 import type { FoldLosses } from './fold';
 import type { WorkerReply, WorkerRequest } from './protocol';
+
+/**
+ * A worker thread running worker.ts. From the CLI's bundle (scripts/cli.sh) the bundled worker
+ * (cv-worker.mjs beside it) starts directly. From TypeScript sources: Node 20 resolves a worker's
+ * entry file before `--import tsx` hooks apply, so a `.ts` entry fails; a small evaluated bootstrap
+ * registers tsx's ESM hooks first, then imports the TypeScript worker (~0.7 s per worker).
+ */
+function startWorker(): Worker {
+  const bundled = new URL('./cv-worker.mjs', import.meta.url);
+  if (import.meta.url.endsWith('.mjs') && existsSync(bundled)) return new Worker(bundled);
+  const tsxRoot = dirname(createRequire(import.meta.url).resolve('tsx/package.json'));
+  const tsxApi = pathToFileURL(join(tsxRoot, 'dist', 'esm', 'api', 'index.mjs')).href;
+  const entry = new URL('./worker.ts', import.meta.url).href;
+  const code = `import(${JSON.stringify(tsxApi)}).then((api) => { api.register(); return import(${JSON.stringify(entry)}); })`;
+  return new Worker(code, { eval: true });
+}
 
 /** Runs the given folds of a plan on a pool of worker threads; results in fold order. */
 export async function runFoldsInWorkers(plan: CvPlan, folds: number[], poolSize = 2): Promise<FoldLosses[]> {

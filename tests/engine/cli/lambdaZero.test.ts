@@ -14,6 +14,12 @@ import { expectDigits, readJson } from '../reference/helpers';
 
 const CLI = fileURLToPath(new URL('../../../server/cli/main.ts', import.meta.url));
 const TSX = fileURLToPath(new URL('../../../node_modules/.bin/tsx', import.meta.url));
+/** What `npm run -s cli` runs: the esbuild bundle of the same sources (built when stale). */
+const BUNDLED = fileURLToPath(new URL('../../../scripts/cli.sh', import.meta.url));
+const RUNNERS: [string, string, string[]][] = [
+  ['through tsx', TSX, [CLI]],
+  ['through the bundle (scripts/cli.sh)', 'bash', [BUNDLED]],
+];
 
 interface NistFixture {
   predictors: Record<string, number[]>;
@@ -21,7 +27,7 @@ interface NistFixture {
   certified: { estimates: string[] };
 }
 
-describe('CLI at lambda = 0: NIST StRD Longley', () => {
+describe.each(RUNNERS)('CLI at lambda = 0 (%s): NIST StRD Longley', (_name, command, prefix) => {
   it('reproduces the certified intercept and six coefficients to >= 9 significant digits', () => {
     const nist = readJson<NistFixture>('datasets/reference/nist/longley.json');
     const names = Object.keys(nist.predictors);
@@ -29,7 +35,7 @@ describe('CLI at lambda = 0: NIST StRD Longley', () => {
     nist.y.forEach((v, i) => lines.push([v, ...names.map((name) => nist.predictors[name][i])].join(',')));
     const dir = mkdtempSync(join(tmpdir(), 'lariat-longley-'));
     writeFileSync(join(dir, 'longley.csv'), `${lines.join('\n')}\n`);
-    const r = spawnSync(TSX, [CLI, 'fit', '--data', 'longley.csv', '--response', 'y', '--lambda', '0', '--no-standardize', '--folds', '0'], { encoding: 'utf8', cwd: dir });
+    const r = spawnSync(command, [...prefix, 'fit', '--data', 'longley.csv', '--response', 'y', '--lambda', '0', '--no-standardize', '--folds', '0'], { encoding: 'utf8', cwd: dir });
     expect(r.status, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout) as { lambda: number[]; intercept: number[]; coefficients: Record<string, number[]>; status: string[]; dualityGap: number[]; cv: unknown; notes: string[] };
     expect(out.lambda).toEqual([0]);
