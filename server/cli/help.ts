@@ -33,8 +33,8 @@ Cross-validation
   --folds K                K >= 2 folds (default ${DEFAULTS.folds}); 0 = no cross-validation
   --fold-column COLUMN     integer fold ids from a column (not a predictor); replaces --folds
   --seed S                 seed of the random (class-stratified for binomial) folds, default ${DEFAULTS.seed}
-  --workers auto|on|off    run folds in 2 worker threads (auto: when the folds after the first,
-                           timed, would take over 2 s in one thread)
+  --workers auto|on|off    on: folds in 2 worker threads; auto: when the folds after the first,
+                           timed, would take over 0.3 s in one thread, on this thread and a worker
 
 Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap,
 iterations, status, cv (null or {folds, metric, mean, standardError, minimum {index, lambda},

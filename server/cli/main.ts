@@ -18,8 +18,9 @@ function engineVersion(): string {
 }
 
 /**
- * --workers auto: time the first fold here and use 2 worker threads for the rest only when they
- * would take over 2 s in this thread (worker start-up costs ~0.7 s; bench/engine.bench.ts).
+ * --workers auto: time the first fold here and share the rest between this thread and a worker
+ * only when they would take long enough in this thread to pay for the worker's start-up
+ * (crossValidateAdaptive; bench/engine.bench.ts).
  */
 async function crossValidation(
   options: FitOptions,
