@@ -4,7 +4,7 @@
  * Data as bench/engine/data.ts makes it (equicorrelated normal columns, a few active coefficients).
  * 'tall-folds': the ten training-fold fits of 10-fold CV on the tall shape, each Gram built from its
  * rows, then from S(all) - S(held out) (PathOptions.crossProducts).
- * Run: npx tsx bench/engine-profile.ts [wide|wide-enet|tall|tall-folds|all] [repeats]
+ * Run: npx tsx bench/engine-profile.ts [wide|wide-enet|wide-enet-fista|tall|tall-folds|all] [repeats]
  */
 import { crossProducts, fitPathOnDesign, selectRows, subtractCrossProducts } from '../server/engine';
 import type { DesignMatrix, PathOptions } from '../server/engine/types';
@@ -51,6 +51,13 @@ const cases: Record<string, Case> = {
     p: 1500,
     active: 15,
     options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4 },
+  },
+  'wide-enet-fista': {
+    name: 'the same elastic net with FISTA alone (polish off), for comparison',
+    n: 300,
+    p: 1500,
+    active: 15,
+    options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4, polish: false },
   },
   tall: {
     name: 'gaussian n=20000 p=200, 100 lambdas to 1e-4, tol 1e-6',
