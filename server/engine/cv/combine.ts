@@ -2,7 +2,7 @@
  * Per-fold held-out losses -> CvResult: the curve of each metric (mean over folds, standard error =
  * sample sd over folds / sqrt(K)) and the lambda choices on the family's main metric.
  */
-import { EngineInputError, type CvCurve, type CvResult, type Family } from '../types';
+import { EngineInputError, type CvCurve, type CvResult, type Family } from '../index';
 import { chooseLambdas, summarizeFolds } from './choose';
 import { METRICS, type FoldLosses } from './fold';
 
