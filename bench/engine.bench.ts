@@ -138,7 +138,7 @@ export async function run(): Promise<void> {
   const haveSklearn = sklearnAvailable();
   buildCli();
   console.log('Engine: Lariat CLI (the bundle `npm run -s cli` runs) vs scikit-learn coordinate descent, whole processes, one thread each');
-  console.log('(Lariat "workers auto" may use 2 worker threads for large data; "workers off" is single-threaded.)');
+  console.log('(Lariat "workers auto" may share the folds between its main thread and one worker thread; "workers off" is single-threaded.)');
   console.log('Tolerance: scikit-learn tol = Lariat tol / 2 gives the same relative duality gap (see bench/engine.bench.ts).');
   if (!haveSklearn) {
     console.log('scikit-learn not found: install it with `apt-get install python3-sklearn` (Debian); timing Lariat only.');
