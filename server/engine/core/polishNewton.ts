@@ -1,5 +1,6 @@
 import type { Problem, WorkingSet } from './problem';
 import { softplus } from './problem';
+import { predict, recordTangent } from './pathTangent';
 import { solveSymmetric } from './symmetric';
 
 /** Sign code of a coefficient without sign constraint (unpenalized, or lambda = 0). */
@@ -126,57 +127,6 @@ export function newtonOnSupport(
   for (let q = 0; q < m - 1; q++) out[active[q]] = beta[q];
   out[k] = beta[m - 1];
   return { ok: true, steps };
-}
-
-/**
- * The solution's tangent along the path, kept per problem from one polish to the next: on a fixed
- * support and signs the optimality condition grad L(b) + l1 s + l2 b = 0 (l1, l2 proportional to
- * lambda) gives H db/dlambda = -(l1 s + l2 b) / lambda, with H the Hessian at the solution. The
- * next lambda's Newton then starts from the first-order prediction b + (lambda' - lambda) db/dlambda
- * instead of b (a predictor-corrector path step, Allgower & Georg 1990, "Numerical Continuation
- * Methods", ch. 2), which saves about one Newton step per lambda. Applied only when the start is the
- * recorded solution and the support and signs are unchanged.
- */
-interface Tangent {
-  lambda: number;
-  features: Int32Array;
-  signs: Int8Array;
-  solution: Float64Array;
-  direction: Float64Array;
-}
-
-const tangents = new WeakMap<Problem, Tangent>();
-
-function sameArrays(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-  return true;
-}
-
-function predict(problem: Problem, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): void {
-  const t = tangents.get(problem);
-  if (!t || !(lambda < t.lambda) || !sameArrays(t.features, features) || !sameArrays(t.signs, signs) || !sameArrays(t.solution, beta)) return;
-  const delta = lambda - t.lambda;
-  for (let q = 0; q < beta.length; q++) beta[q] += delta * t.direction[q];
-}
-
-function recordTangent(
-  problem: Problem,
-  lambda: number,
-  features: Int32Array,
-  signs: Int8Array,
-  beta: Float64Array,
-  hess: Float64Array,
-  linear: Float64Array,
-  ridge: Float64Array,
-): void {
-  const m = beta.length;
-  if (!(lambda > 0)) return;
-  const rhs = new Float64Array(m);
-  for (let q = 0; q < m; q++) rhs[q] = -(linear[q] + ridge[q] * beta[q]) / lambda;
-  const direction = new Float64Array(m);
-  if (!solveSymmetric(hess, m, rhs, direction)) return;
-  tangents.set(problem, { lambda, features, signs, solution: Float64Array.from(beta), direction });
 }
 
 /**

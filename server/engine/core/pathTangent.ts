@@ -1,0 +1,55 @@
+import type { Problem } from './problem';
+import { solveSymmetric } from './symmetric';
+
+/**
+ * The solution's tangent along the path, kept per problem from one polish to the next: on a fixed
+ * support and signs the optimality condition grad L(b) + l1 s + l2 b = 0 (l1, l2 proportional to
+ * lambda) gives H db/dlambda = -(l1 s + l2 b) / lambda, with H the Hessian at the solution. The
+ * next lambda's Newton then starts from the first-order prediction b + (lambda' - lambda) db/dlambda
+ * instead of b (a predictor-corrector path step, Allgower & Georg 1990, "Numerical Continuation
+ * Methods", ch. 2), which saves about one Newton step per lambda. Applied only when the start is the
+ * recorded solution and the support and signs are unchanged.
+ */
+interface Tangent {
+  lambda: number;
+  features: Int32Array;
+  signs: Int8Array;
+  solution: Float64Array;
+  direction: Float64Array;
+}
+
+const tangents = new WeakMap<Problem, Tangent>();
+
+function sameArrays(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/** Moves `beta` (support values, then the intercept) to the prediction for `lambda` when it applies. */
+export function predict(problem: Problem, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): void {
+  const t = tangents.get(problem);
+  if (!t || !(lambda < t.lambda) || !sameArrays(t.features, features) || !sameArrays(t.signs, signs) || !sameArrays(t.solution, beta)) return;
+  const delta = lambda - t.lambda;
+  for (let q = 0; q < beta.length; q++) beta[q] += delta * t.direction[q];
+}
+
+/** Records the tangent at a Newton solution (hess: the Hessian with the ridge, at that solution). */
+export function recordTangent(
+  problem: Problem,
+  lambda: number,
+  features: Int32Array,
+  signs: Int8Array,
+  beta: Float64Array,
+  hess: Float64Array,
+  linear: Float64Array,
+  ridge: Float64Array,
+): void {
+  const m = beta.length;
+  if (!(lambda > 0)) return;
+  const rhs = new Float64Array(m);
+  for (let q = 0; q < m; q++) rhs[q] = -(linear[q] + ridge[q] * beta[q]) / lambda;
+  const direction = new Float64Array(m);
+  if (!solveSymmetric(hess, m, rhs, direction)) return;
+  tangents.set(problem, { lambda, features, signs, solution: Float64Array.from(beta), direction });
+}
