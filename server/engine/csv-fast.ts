@@ -6,87 +6,23 @@
  * power of ten up to 1e22 is correctly rounded in one operation); any other cell goes through the
  * general reader's rule, so both readers give identical tables (tests/engine/cli/csv.test.ts).
  */
+import { scanCell, scanned } from './csv-scan';
 import { EngineInputError, type EngineColumn, type EngineTable } from './types';
 
-const POW10 = Array.from({ length: 23 }, (_, k) => 10 ** k);
 const COMMA = 44;
 const NEWLINE = 10;
 const SPACE = 32;
 const TAB = 9;
 const CR = 13;
 
-/** Where the last scanned cell ended (the delimiter's position); avoids allocating a result pair. */
-let cellEnd = 0;
-
-function endOfCell(bytes: Uint8Array, i: number): number {
-  while (i < bytes.length && bytes[i] !== COMMA && bytes[i] !== NEWLINE) i++;
-  return i;
-}
-
 /**
- * Scans one cell from `start` to its delimiter (comma, newline or end), setting `cellEnd`; returns
- * its value when it is a simple decimal (<= 15 significant digits, blanks around it), else NaN.
+ * Scans one cell from `start` to its delimiter (comma, newline or end); returns its value when it is
+ * a simple decimal (<= 15 significant digits, blanks around it), else NaN. `scanned.end` is the
+ * delimiter's position. The scanner is shared with the upload reader (csv-scan.ts).
  */
 export function scanSimpleDecimal(bytes: Uint8Array, start: number): number {
-  let i = start;
-  const n = bytes.length;
-  let c = i < n ? bytes[i] : NEWLINE;
-  while (c === SPACE) c = ++i < n ? bytes[i] : NEWLINE;
-  let sign = 1;
-  if (c === 43 || c === 45) {
-    if (c === 45) sign = -1;
-    c = ++i < n ? bytes[i] : NEWLINE;
-  }
-  let mantissa = 0;
-  let digits = 0;
-  let exponent = 0;
-  let sawDigit = false;
-  let ok = true;
-  for (; c >= 48 && c <= 57; c = ++i < n ? bytes[i] : NEWLINE) {
-    sawDigit = true;
-    if (mantissa === 0 && c === 48) continue;
-    if (digits === 15) ok = false;
-    else {
-      mantissa = mantissa * 10 + (c - 48);
-      digits++;
-    }
-  }
-  if (c === 46) {
-    for (c = ++i < n ? bytes[i] : NEWLINE; c >= 48 && c <= 57; c = ++i < n ? bytes[i] : NEWLINE) {
-      sawDigit = true;
-      if (mantissa === 0 && c === 48) exponent--;
-      else if (digits === 15) ok = false;
-      else {
-        mantissa = mantissa * 10 + (c - 48);
-        digits++;
-        exponent--;
-      }
-    }
-  }
-  if (c === 101 || c === 69) {
-    c = ++i < n ? bytes[i] : NEWLINE;
-    let expSign = 1;
-    if (c === 43 || c === 45) {
-      if (c === 45) expSign = -1;
-      c = ++i < n ? bytes[i] : NEWLINE;
-    }
-    let e = 0;
-    let expDigits = 0;
-    for (; c >= 48 && c <= 57; c = ++i < n ? bytes[i] : NEWLINE, expDigits++) e = e * 10 + (c - 48);
-    if (expDigits === 0 || expDigits > 4) ok = false;
-    exponent += expSign * e;
-  }
-  while (c === SPACE || c === CR) c = ++i < n ? bytes[i] : NEWLINE;
-  if (c !== COMMA && c !== NEWLINE) {
-    cellEnd = endOfCell(bytes, i);
-    return Number.NaN;
-  }
-  cellEnd = i;
-  if (!ok || !sawDigit) return Number.NaN;
-  if (mantissa === 0) return sign * 0;
-  if (exponent >= 0 && exponent <= 22) return sign * mantissa * POW10[exponent];
-  if (exponent < 0 && exponent >= -22) return (sign * mantissa) / POW10[-exponent];
-  return Number.NaN;
+  scanCell(bytes, start, COMMA);
+  return scanned.value;
 }
 
 function isBlankLine(bytes: Uint8Array, i: number): boolean {
@@ -143,6 +79,7 @@ export function parseQuoteFreeRows(
     const start = pos;
     for (let j = 0; j < p; j++) {
       let v = scanSimpleDecimal(bytes, pos);
+      const cellEnd = scanned.end;
       const atLineEnd = cellEnd >= bytes.length || bytes[cellEnd] === NEWLINE;
       if (atLineEnd !== (j === p - 1)) {
         const fields = decoder.decode(bytes.subarray(start, lineEnd(bytes, start))).split(',').length;

@@ -1,6 +1,6 @@
 /**
  * One cell of a quote-free CSV line, read from its bytes without making a string. A cell that is a
- * plain decimal (the DECIMAL_TRIMMED grammar of missing.ts, spaces around it) with at most 15
+ * plain decimal (the DECIMAL_TRIMMED grammar of server/datasets/parse/missing.ts, spaces around it) with at most 15
  * significant digits and a power of ten up to 22 is converted by Clinger's exact fast path
  * (W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990: a mantissa below
  * 2^53 times or divided by an exactly representable power of ten is correctly rounded in one
