@@ -3,17 +3,17 @@ import type { DesignMatrix, PathOptions } from '../index';
 import type { FoldLosses } from './fold';
 import type { FoldShared } from './foldData';
 
-export type WorkerRequest =
-  | {
-      type: 'init';
-      design: DesignMatrix;
-      y: Float64Array;
-      options: PathOptions;
-      foldIds: Int32Array;
-      lambda: number[];
-      shared: FoldShared;
-    }
-  | { type: 'fold'; fold: number };
+/** What a worker receives once and keeps for every fold it runs. */
+export interface WorkerPlan {
+  design: DesignMatrix;
+  y: Float64Array;
+  options: PathOptions;
+  foldIds: Int32Array;
+  lambda: number[];
+  shared: FoldShared;
+}
+
+export type WorkerRequest = ({ type: 'init' } & WorkerPlan) | { type: 'fold'; fold: number };
 
 export type WorkerReply =
   | { fold: number; result: FoldLosses }

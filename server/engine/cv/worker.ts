@@ -3,21 +3,10 @@
  * and answers each with the fold's losses (or its error).
  */
 import { parentPort } from 'node:worker_threads';
-import type { DesignMatrix, PathOptions } from '../index';
 import { runFoldOnDesign } from './fold';
-import type { FoldShared } from './foldData';
-import type { WorkerReply, WorkerRequest } from './protocol';
+import type { WorkerPlan, WorkerReply, WorkerRequest } from './protocol';
 
-interface Shared {
-  design: DesignMatrix;
-  y: Float64Array;
-  options: PathOptions;
-  foldIds: Int32Array;
-  lambda: number[];
-  shared: FoldShared;
-}
-
-let shared: Shared | undefined;
+let shared: WorkerPlan | undefined;
 
 parentPort?.on('message', (message: WorkerRequest) => {
   if (message.type === 'init') {
