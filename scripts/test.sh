@@ -15,4 +15,15 @@ cd "$LARIAT_ROOT"
 log "typecheck"; npx tsc -p tsconfig.json --noEmit
 log "lint"; npx eslint . --max-warnings 0
 log "client build (for the browser tests)"; npx vite build --logLevel warn
-log "tests"; npx vitest run "$@"
+log "tests"
+results="$LARIAT_STATE/test-results.json"
+rm -f "$results"
+status=0
+npx vitest run --reporter=default --reporter=json --outputFile.json="$results" "$@" || status=$?
+# One plain closing line for CI: "N passed, N failed[, N skipped]".
+if [ -s "$results" ]; then
+  node -e 'const r = JSON.parse(require("fs").readFileSync(process.argv[1], "utf8"));
+    const skipped = r.numPendingTests + r.numTodoTests;
+    console.log(`${r.numPassedTests} passed, ${r.numFailedTests} failed` + (skipped ? `, ${skipped} skipped` : ""));' "$results"
+fi
+exit "$status"
