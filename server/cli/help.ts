@@ -39,7 +39,7 @@ Cross-validation
 Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap,
 iterations, status, cv (null or {folds, metric, mean, standardError, minimum {index, lambda},
 oneStandardError {index, lambda}, curves}), and extras: family, lambdaMax, standardizedIntercept,
-standardizedCoefficients, nonzero, devianceRatio, notes, cautions (solves that did not converge),
-engineVersion, timing (seconds spent reading, fitting, cross-validating).
+standardizedCoefficients, nonzero, devianceRatio, notes, cautions (how to read the result),
+warnings (solves that did not converge), engineVersion, timing (seconds spent reading, fitting, cross-validating).
 Errors: a message on stderr and exit status 2 (bad input) or 1 (internal error).
 `;

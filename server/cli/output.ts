@@ -2,6 +2,7 @@
  * The JSON object `lariat fit` prints (../shared/DESIGN.md, "Command-line interface"): the contract
  * keys first, then extras (standardized coefficients, counts, notes, cautions, version).
  */
+import { CAUTION_LINES } from '../../shared/cautions';
 import type { CvResult, PathResult } from '../engine/types';
 
 export interface FitOutput {
@@ -27,7 +28,10 @@ export interface FitOutput {
   nonzero: number[];
   devianceRatio: number[];
   notes: string[];
-  cautions: string[];
+  /** The usual statistical cautions that go with every exported result. */
+  cautions: readonly string[];
+  /** Solves that did not converge, with their gap and tolerance. */
+  warnings: string[];
   engineVersion: string;
 }
 
@@ -40,7 +44,7 @@ function byTerm(terms: string[], perLambda: Float64Array[]): Record<string, numb
 }
 
 /** Solves that did not converge, named with their gap and tolerance (STYLE.md 9: never silent). */
-function cautionsOf(path: PathResult): string[] {
+function warningsOf(path: PathResult): string[] {
   return path.solves.flatMap((s, l) =>
     s.status === 'converged'
       ? []
@@ -72,7 +76,8 @@ export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: 
     nonzero: path.nonzero,
     devianceRatio: path.devianceRatio,
     notes: path.notes,
-    cautions: cautionsOf(path),
+    cautions: CAUTION_LINES,
+    warnings: warningsOf(path),
     engineVersion,
   };
 }

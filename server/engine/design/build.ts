@@ -66,6 +66,7 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
   const terms: string[] = [];
   const groupsOfTerms: number[] = [];
   const encoding: TermEncoding[] = [];
+  const constant: { term: string; value: number }[] = [];
   const addColumn = (values: Float64Array, term: string, group: number): number => {
     let min = Infinity;
     let max = -Infinity;
@@ -74,7 +75,7 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
       if (values[i] > max) max = values[i];
     }
     if (min === max) {
-      notes.push(`column "${term}" is constant (${min}) over the rows used and was left out`);
+      constant.push({ term, value: min });
       return -1;
     }
     columns.push(values);
@@ -140,6 +141,8 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
     }
   });
 
+  notes.push(...constantNotes(constant));
+
   const p = columns.length;
   const x = new Float64Array(n * p);
   columns.forEach((values, j) => x.set(values, j * n));
@@ -165,4 +168,14 @@ export function selectRows(design: DesignMatrix, y: Float64Array, rows: ArrayLik
     for (let i = 0; i < n; i++) x[to + i] = design.x[from + rows[i]];
   }
   return { design: { n, p: design.p, x, terms: design.terms }, y: ySub };
+}
+
+/** One note per constant column while they are few; past that one note, so a wide table stays readable. */
+function constantNotes(constant: { term: string; value: number }[]): string[] {
+  const SHOWN = 5;
+  if (constant.length <= SHOWN) {
+    return constant.map(({ term, value }) => `column "${term}" is constant (${value}) over the rows used and was left out`);
+  }
+  const named = constant.slice(0, SHOWN).map(({ term }) => `"${term}"`).join(', ');
+  return [`${constant.length} columns are constant over the rows used and were left out: ${named} and ${constant.length - SHOWN} more`];
 }

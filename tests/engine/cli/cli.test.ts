@@ -9,6 +9,7 @@ import { parseCsvText } from '../../../server/engine/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import type { FitSpec } from '../../../server/engine/types';
+import { CAUTIONS } from '../../../shared/cautions';
 
 const CLI = fileURLToPath(new URL('../../../server/cli/main.ts', import.meta.url));
 const TSX = fileURLToPath(new URL('../../../node_modules/.bin/tsx', import.meta.url));
@@ -101,6 +102,23 @@ describe('lariat fit (spawned CLI)', () => {
     const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--penalty', 'group-lasso', '--groups', 'groups.json', '--path-length', '5', '--folds', '0');
     // a and b share one group, so they leave zero together along the path (group lasso property).
     out.lambda.forEach((_, l) => expect(out.coefficients.a[l] === 0).toBe(out.coefficients.b[l] === 0));
+  });
+
+  it('carries the statistical cautions, and names every solve that stopped at the iteration limit', () => {
+    const ok = JSON.parse(cli('fit', '--data', 'data.csv', '--response', 'y', '--path-length', '4', '--folds', '0').stdout) as {
+      cautions: string[];
+      warnings: string[];
+    };
+    // Common practice: results leave the tool with their cautions (selection is not causation, etc.).
+    for (const caution of CAUTIONS) expect(ok.cautions.some((line) => line.includes(caution.text)), caution.id).toBe(true);
+    expect(ok.warnings).toEqual([]);
+    const limited = JSON.parse(
+      cli('fit', '--data', 'data.csv', '--response', 'y', '--path-length', '4', '--folds', '0', '--max-iterations', '1', '--tolerance', '1e-14').stdout,
+    ) as { status: string[]; warnings: string[] };
+    const stopped = limited.status.filter((s) => s !== 'converged').length;
+    expect(stopped).toBeGreaterThan(0);
+    expect(limited.warnings).toHaveLength(stopped);
+    expect(limited.warnings[0]).toMatch(/iteration-limit, relative gap .* vs tolerance 1e-14/);
   });
 
   it('prints help on --help and exits 0', () => {

@@ -37,6 +37,25 @@ describe('buildDesign', () => {
     expect(built.notes.join('\n')).toContain('missing');
   });
 
+  it('sums up many constant columns in one note (an identifier-like categorical over few rows)', () => {
+    const nRows = 20;
+    const table: EngineTable = {
+      nRows,
+      columns: [
+        { name: 'y', kind: 'numeric', values: Float64Array.from({ length: nRows }, (_, i) => i % 5) },
+        { name: 'x', kind: 'numeric', values: Float64Array.from({ length: nRows }, (_, i) => (i * 7) % 11) },
+        // Every row its own level; rows 0..7 are dropped (missing x below), so levels 0..7 never occur.
+        { name: 'id', kind: 'categorical', codes: Int32Array.from({ length: nRows }, (_, i) => i), levels: Array.from({ length: nRows }, (_, i) => `r${i}`) },
+      ],
+    };
+    (table.columns[1] as { values: Float64Array }).values.fill(Number.NaN, 0, 8);
+    const built = buildDesign(table, { response: 'y', predictors: ['x', 'id'], missing: 'drop', family: 'gaussian' });
+    const constantNotes = built.notes.filter((note) => note.includes('constant'));
+    expect(constantNotes).toEqual([
+      '8 columns are constant over the rows used and were left out: "id=r0", "id=r1", "id=r2", "id=r3", "id=r4" and 3 more',
+    ]);
+  });
+
   it('imputes the mean of a numeric column and the most frequent level of a categorical one', () => {
     const built = buildDesign(data, { ...spec, missing: 'impute' });
     expect([...built.rows]).toEqual([0, 1, 3, 4]);
