@@ -9,23 +9,10 @@
 import { crossProducts, fitPathOnDesign, selectRows, subtractCrossProducts } from '../server/engine';
 import type { DesignMatrix, PathOptions } from '../server/engine/types';
 import { createRng } from '../server/engine/random';
+import { gaussianBenchData } from './engine/data';
 
 function gaussianData(n: number, p: number, active: number, seed: number): { design: DesignMatrix; y: Float64Array } {
-  const rng = createRng(seed);
-  const x = new Float64Array(n * p);
-  const y = new Float64Array(n);
-  const beta = Array.from({ length: p }, (_, j) => (j < active ? (j % 2 === 0 ? 1 : -1) * (1 - j / (2 * active)) : 0));
-  const shared = Float64Array.from({ length: n }, () => rng.normal());
-  for (let j = 0; j < p; j++) for (let i = 0; i < n; i++) x[j * n + i] = rng.normal() + 0.5 * shared[i];
-  let signalVar = 0;
-  for (let i = 0; i < n; i++) {
-    let s = 0;
-    for (let j = 0; j < active; j++) s += beta[j] * x[j * n + i];
-    y[i] = s;
-    signalVar += s * s;
-  }
-  const sigma = Math.sqrt(signalVar / n / 3);
-  for (let i = 0; i < n; i++) y[i] += sigma * rng.normal();
+  const { x, y } = gaussianBenchData(n, p, active, createRng(seed));
   return { design: { n, p, x, terms: Array.from({ length: p }, (_, j) => `x${j + 1}`) }, y };
 }
 

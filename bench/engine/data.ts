@@ -5,7 +5,7 @@
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { assignFolds } from '../../server/engine/cv/folds';
-import { createRng } from '../../server/engine/random';
+import { createRng, type Rng } from '../../server/engine/random';
 
 export interface BenchData {
   path: string;
@@ -26,10 +26,9 @@ function writeCsv(path: string, names: string[], n: number, cell: (i: number, j:
 /**
  * Equicorrelated normal predictors (x_ij = z_ij + 0.5 w_i, pairwise correlation 0.2), `active`
  * non-zero coefficients of alternating sign and decreasing size, noise sd chosen for a signal-to-noise
- * variance ratio of about 3. Values are rounded to 7 significant digits in the CSV.
+ * variance ratio of about 3. Values are rounded to 7 significant digits, as the CSV holds them.
  */
-export function writeGaussian(path: string, n: number, p: number, active: number, folds: number, seed: number): BenchData {
-  const rng = createRng(seed);
+export function gaussianBenchData(n: number, p: number, active: number, rng: Rng): { x: Float64Array; y: Float64Array } {
   const x = new Float64Array(n * p);
   const y = new Float64Array(n);
   const beta = Array.from({ length: p }, (_, j) => (j < active ? (j % 2 === 0 ? 1 : -1) * (1 - j / (2 * active)) : 0));
@@ -44,6 +43,13 @@ export function writeGaussian(path: string, n: number, p: number, active: number
   }
   const sigma = Math.sqrt(signalVar / n / 3);
   for (let i = 0; i < n; i++) y[i] = Number((y[i] + sigma * rng.normal()).toPrecision(7));
+  return { x, y };
+}
+
+/** The gaussian benchmark data (gaussianBenchData) with seeded fold ids, written as CSV. */
+export function writeGaussian(path: string, n: number, p: number, active: number, folds: number, seed: number): BenchData {
+  const rng = createRng(seed);
+  const { x, y } = gaussianBenchData(n, p, active, rng);
   const foldIds = assignFolds(n, folds, () => rng.next());
   const names = ['y', ...Array.from({ length: p }, (_, j) => `x${j + 1}`), 'fold'];
   writeCsv(path, names, n, (i, j) => (j === 0 ? String(y[i]) : j <= p ? String(x[(j - 1) * n + i]) : String(foldIds[i])));
