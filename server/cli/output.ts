@@ -12,15 +12,9 @@ export interface FitOutput {
   dualityGap: number[];
   iterations: number[];
   status: string[];
-  cv: null | {
-    folds: number;
-    metric: string;
-    mean: number[];
-    standardError: number[];
-    minimum: { index: number; lambda: number };
-    oneStandardError: { index: number; lambda: number };
+  cv: null | (Pick<CvResult, 'folds' | 'metric' | 'mean' | 'standardError' | 'minimum' | 'oneStandardError'> & {
     curves: Record<string, { mean: number[]; standardError: number[] }>;
-  };
+  });
   family: string;
   lambdaMax: number;
   standardizedIntercept: number[];

@@ -10,6 +10,7 @@ import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import type { FitSpec } from '../../../server/engine/types';
 import { CAUTIONS } from '../../../shared/cautions';
+import type { FitOutput } from '../../../server/cli/output';
 
 const CLI = fileURLToPath(new URL('../../../server/cli/main.ts', import.meta.url));
 const TSX = fileURLToPath(new URL('../../../node_modules/.bin/tsx', import.meta.url));
@@ -20,20 +21,10 @@ function cli(...args: string[]): { status: number | null; stdout: string; stderr
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-interface Output {
-  lambda: number[];
-  intercept: number[];
-  coefficients: Record<string, number[]>;
-  dualityGap: number[];
-  iterations: number[];
-  status: string[];
-  cv: null | { folds: number; metric: string; mean: number[]; standardError: number[]; minimum: { index: number; lambda: number }; oneStandardError: { index: number; lambda: number } };
-}
-
-function fitJson(...args: string[]): Output {
+function fitJson(...args: string[]): FitOutput {
   const r = cli('fit', ...args);
   expect(r.status, r.stderr).toBe(0);
-  return JSON.parse(r.stdout) as Output;
+  return JSON.parse(r.stdout) as FitOutput;
 }
 
 let gaussianCsv = '';
@@ -66,6 +57,9 @@ describe('lariat fit (spawned CLI)', () => {
     const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '8', '--folds', '5', '--seed', '3');
     const L = out.lambda.length;
     expect(L).toBe(8);
+    // The contract's keys, written out from ../shared/DESIGN.md (not taken from the code under test).
+    for (const key of ['lambda', 'intercept', 'coefficients', 'dualityGap', 'iterations', 'status', 'cv']) expect(out).toHaveProperty(key);
+    for (const key of ['folds', 'metric', 'mean', 'standardError', 'minimum', 'oneStandardError']) expect(out.cv).toHaveProperty(key);
     for (const key of ['intercept', 'dualityGap', 'iterations', 'status'] as const) expect(out[key]).toHaveLength(L);
     expect(Object.keys(out.coefficients)).toEqual(['a', 'b', 'colour=blue', 'colour=green', 'colour=red']);
     const table = parseCsvText(gaussianCsv, 'data.csv');
