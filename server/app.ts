@@ -10,7 +10,8 @@ import { apiRouter } from './routes/index';
 export function createApp(ctx: AppContext): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
+  // Behind a proxy, req.ip (rate limits) and req.protocol come from X-Forwarded-* only for the hops configured.
+  app.set('trust proxy', ctx.config.trustProxy);
   app.use(cookieParser());
   app.use('/api', express.json({ limit: '1mb', strict: true }), apiRouter(ctx));
   app.use('/api', (_req, _res, next) => next(notFound('No such API route.')));
