@@ -14,14 +14,14 @@ import { completePasswordReset, requestPasswordReset } from '../accounts/passwor
 import { toUserDto } from '../accounts/users';
 import { clearAuthCookies, setCsrfCookie } from '../auth/cookies';
 import { loadSession, requireSession, sessionUser } from '../auth/middleware';
-import { createAuthRateLimits } from '../auth/rate-limits';
+import { createRateLimits } from '../auth/rate-limits';
 import { revokeSession, startSession } from '../auth/sessions';
 import type { AppContext } from '../context';
 import { parseBody } from './parse-body';
 
 export function authRouter(ctx: AppContext): Router {
   const router = Router();
-  const limits = createAuthRateLimits();
+  const limits = createRateLimits(ctx.config);
 
   async function me(user: UserDto, csrfToken: string): Promise<MeDto> {
     return { user: toUserDto(user), memberships: await membershipSummaries(ctx.db, user.id), csrfToken };
@@ -34,7 +34,7 @@ export function authRouter(ctx: AppContext): Router {
     res.status(201).json(await me(user, csrf));
   });
 
-  router.post('/auth/sign-in', limits.signIn, async (req, res) => {
+  router.post('/auth/sign-in', ...limits.signIn, async (req, res) => {
     const input = parseBody(signInSchema, req.body);
     const user = await authenticate(ctx.db, input.email, input.password);
     const csrf = await startSession(ctx, res, user.id);
@@ -55,13 +55,13 @@ export function authRouter(ctx: AppContext): Router {
     res.json(await me(sessionUser(req), csrf));
   });
 
-  router.post('/auth/password-reset/request', limits.resetRequest, async (req, res) => {
+  router.post('/auth/password-reset/request', ...limits.resetRequest, async (req, res) => {
     const { email } = parseBody(passwordResetRequestSchema, req.body);
     await requestPasswordReset(ctx, email);
     res.status(202).json({ message: 'If an account uses this e-mail address, a reset link is on its way. It works for 1 hour.' });
   });
 
-  router.post('/auth/password-reset/complete', async (req, res) => {
+  router.post('/auth/password-reset/complete', limits.resetComplete, async (req, res) => {
     const { token, password } = parseBody(passwordResetCompleteSchema, req.body);
     await completePasswordReset(ctx.db, token, password);
     res.json({ message: 'Your password is changed, and every session of your account was signed out. Sign in with the new password.' });

@@ -21,7 +21,7 @@ export function AppShell({ me, current, children }: { me: MeDto; current: Member
           <Wordmark className="[&>span:last-child]:text-white" />
         </Link>
         <WorkspaceSwitcher current={current.workspaceId} entries={me.memberships} />
-        <SideNav workspaceId={current.workspaceId} role={current.role} />
+        <SideNav workspaceId={current.workspaceId} />
         <div className="mt-auto space-y-3 border-t border-lariat-700 pt-4 text-sm">
           <p>
             <span className="block font-bold text-white">{me.user.name}</span>
