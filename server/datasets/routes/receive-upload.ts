@@ -27,6 +27,18 @@ export class ClientGone extends Error {
   }
 }
 
+/**
+ * The name the uploader's system gave the file, as shown and offered back on download: its last
+ * path segment (either separator: browsers on Windows may send C:\\...), control characters
+ * (newlines, NUL) replaced, at most 200 characters.
+ */
+export function safeFileName(raw: string | undefined): string {
+  const last = (raw ?? '').split(/[/\\]/).pop() ?? '';
+  // eslint-disable-next-line no-control-regex -- control characters are what this removes
+  const clean = last.replace(/[\u0000-\u001f\u007f]/g, '_').trim().slice(0, 200);
+  return clean === '' || clean === '.' || clean === '..' ? 'upload.csv' : clean;
+}
+
 function formatMb(bytes: number): string {
   return `${Number((bytes / (1024 * 1024)).toPrecision(3))} MB`;
 }
@@ -75,7 +87,7 @@ export function receiveUpload(req: Request, opts: { limitBytes: number; tempDir:
         stream.resume();
         return;
       }
-      fileName = path.basename(info.filename || 'upload.csv').slice(0, 200);
+      fileName = safeFileName(info.filename);
       fileStream = stream;
       const file = (out = fs.createWriteStream(filePath));
       stream.on('data', (chunk: Buffer) => {
