@@ -134,5 +134,27 @@ export interface MeDto {
   csrfToken: string;
 }
 
+/** GET /api/auth/sessions: one signed-in browser of the person. */
+export interface SessionDto {
+  /** A public name for the session (not its secret id). */
+  id: string;
+  signedInAt: string;
+  /** When it ends if unused (sliding). */
+  expiresAt: string;
+  /** When it ends however active (absolute). */
+  endsAt: string;
+  userAgent: string | null;
+  /** The session this request came from. */
+  current: boolean;
+}
+
+/** POST /api/auth/password: change the password, knowing the current one. */
+export const changePasswordSchema = z.strictObject({
+  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(PASSWORD_MAX, `A password has at most ${PASSWORD_MAX} characters.`),
+  newPassword: passwordSchema,
+});
+export type ChangePasswordInput = z.input<typeof changePasswordSchema>;
+
+/** Over http the cookie is `lariat_csrf`; over https `__Host-lariat_csrf` (server/auth/cookies.ts). */
 export const CSRF_COOKIE = 'lariat_csrf';
 export const CSRF_HEADER = 'X-Lariat-CSRF';

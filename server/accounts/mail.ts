@@ -40,3 +40,16 @@ export function passwordResetMail(ctx: AppContext, m: { to: string; token: strin
 export function sendInBackground(ctx: AppContext, message: MailMessage): void {
   ctx.sendMail(message).catch((err: unknown) => console.error('[lariat] could not send e-mail to', message.to, err));
 }
+
+export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut: number }): MailMessage {
+  return {
+    to: m.to,
+    subject: 'Your Lariat password was changed',
+    text: [
+      'The password of your Lariat account was just changed from a signed-in session.',
+      m.signedOut > 0 ? `Your other sessions (${m.signedOut}) were signed out.` : 'No other session was open.',
+      '',
+      `If this was not you, reset your password now: ${ctx.config.publicUrl}/forgot-password`,
+    ].join('\n'),
+  };
+}

@@ -28,6 +28,9 @@ export function AppShell({ me, current, children }: { me: MeDto; current: Member
             <span className="block break-all text-lariat-100">{me.user.email}</span>
             <span className="mt-1 inline-block rounded bg-saffron-400 px-2 py-0.5 text-xs font-bold text-lariat-950">{ROLE_LABELS[current.role]}</span>
           </p>
+          <Link to={paths.workspace.account.getHref(current.workspaceId)} className="block rounded-md font-bold text-lariat-50 underline hover:text-white">
+            Your account
+          </Link>
           <div className="flex items-center justify-between [&_button]:text-lariat-50 [&_button:hover]:bg-lariat-800">
             <SignOutButton />
             <ThemeToggle />
