@@ -47,6 +47,7 @@ export function uploadsRouter(ctx: AppContext): Router {
         sizeBytes: upload.sizeBytes,
         missingMarkers: parseMissingMarkers(fields.data.missing),
         columnLimit: ctx.config.LARIAT_COLUMN_LIMIT,
+        headerRow: fields.data.headerRow !== 'no',
         tempDir,
         progress,
       });
