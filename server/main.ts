@@ -8,7 +8,7 @@ import { createMailer } from './mail/mailer';
 import { DEMO_ACCOUNT } from './seed/demo-account';
 
 const config = loadConfig();
-const database = connectDatabase(config.DATABASE_URL);
+const database = connectDatabase(config.DATABASE_URL, 10, config.LARIAT_DB_CONNECT_TIMEOUT_MS);
 
 let devMailbox: FakeSmtp | undefined;
 let smtpUrl = config.LARIAT_SMTP_URL;

@@ -146,7 +146,8 @@ export interface UploadResultDto {
   message: string;
 }
 
-export type IngestPhase = 'receiving' | 'parsing' | 'storing' | 'done' | 'failed';
+/** queued: received, waiting for one of the server's ingest slots. */
+export type IngestPhase = 'receiving' | 'queued' | 'parsing' | 'storing' | 'done' | 'failed';
 
 /** GET /api/workspaces/:workspaceId/ingests/:ingestId */
 export interface IngestProgressDto {

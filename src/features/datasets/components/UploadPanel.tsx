@@ -127,7 +127,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
         <div className="space-y-3" data-testid="upload-progress">
           <ProgressBar label="Transfer" value={transfer} />
           <ProgressBar
-            label={server?.phase === 'storing' ? 'Storing' : 'Reading and checking'}
+            label={server?.phase === 'storing' ? 'Storing' : server?.phase === 'queued' ? 'Waiting for the server to finish other uploads' : 'Reading and checking'}
             value={server?.phase === 'parsing' || server?.phase === 'storing' ? server.fraction : server?.phase === 'done' ? 1 : 0}
             detail={server && server.rowsParsed > 0 ? `${server.rowsParsed.toLocaleString()} rows` : undefined}
           />
