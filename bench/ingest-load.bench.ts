@@ -2,7 +2,7 @@
  * Reads while large uploads are stored: p50 and p95 latency of a read endpoint (GET the dataset list,
  * which needs the database) while two ~100 MB uploads from two workspaces run through the real HTTP
  * route of one server process. The same endpoint is first measured with the server idle, in this run,
- * as the reference. Target: p95 during the uploads < 250 ms (a page load that still feels immediate;
+ * as the reference (the server runs with its default ingest cap, LARIAT_INGEST_SLOTS). Target: p95 during the uploads < 250 ms (a page load that still feels immediate;
  * common practice for interactive responses). `BENCH_INGEST_LOAD_ROWS` (default 500,000 rows of
  * about 200 bytes) makes the files smaller.
  */

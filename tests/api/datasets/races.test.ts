@@ -16,7 +16,8 @@ let t: TestApp;
 let alice: Session;
 
 beforeAll(async () => {
-  t = await startTestApp();
+  // Two ingests at once in one process (with one slot they only race across server processes).
+  t = await startTestApp({ LARIAT_INGEST_SLOTS: '2' });
   alice = await signUp(t.app);
 });
 afterAll(async () => closeApp(t));
