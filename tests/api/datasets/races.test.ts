@@ -111,12 +111,14 @@ describe('uploads at the same time', () => {
       const res = await withCsrf(alice.agent.post(uploadUrl(alice, ingest)), alice.csrf).attach('file', Buffer.from('a,b\n1,2\n3,4\n'), 'secret-params.csv');
       expect(res.status).toBe(500);
       const message: string = res.body.error.message;
-      const id = /error id ([0-9a-f]{8})/.exec(message)?.[1];
+      const id = /\(error ([0-9a-f]{12})\)/.exec(message)?.[1];
       expect(id, message).toBeDefined();
-      expect(message).toBe(`The upload failed on the server and nothing was stored. Please try again; if it fails again, tell your administrator the error id ${id}.`);
+      expect(message).toBe(
+        `The upload failed and nothing was stored. Something went wrong on the server (error ${id}). The error was logged; quote this id when you report it.`,
+      );
       const progress = await alice.agent.get(`${apiBase(alice)}/ingests/${ingest}`);
       expect(progress.body).toMatchObject({ phase: 'failed', message });
-      const line = logged.find((l) => l.includes(`error id ${id}`));
+      const line = logged.find((l) => l.includes(`error ${id} in ingest`));
       expect(line, logged.join('\n')).toBeDefined();
       expect(line).toContain('code=P0001');
       expect(logged.join('\n')).not.toContain('secret-params');
