@@ -5,6 +5,8 @@ import type { AppContext } from './context';
 import { connectDatabase } from './db/client';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer } from './mail/mailer';
+import { startQueue } from './queue/queue';
+import { startWorkers } from './queue/workers';
 import { productionDatabaseProblems } from './security/production-checks';
 import { DEMO_ACCOUNT } from './seed/demo-account';
 import { outboxEnabled } from './dev/outbox';
@@ -25,7 +27,9 @@ if (!smtpUrl) {
   smtpUrl = `smtp://127.0.0.1:${devMailbox.port}`;
 }
 
-const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox };
+const queue = await startQueue(config.DATABASE_URL);
+const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, queue };
+await startWorkers(ctx);
 const app = createApp(ctx);
 const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
   const lines = [
@@ -44,6 +48,7 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
 
 async function shutdown(): Promise<void> {
   server.close();
+  await queue.stop();
   await devMailbox?.close();
   await database.close();
   process.exit(0);

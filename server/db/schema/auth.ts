@@ -74,6 +74,8 @@ export const invitations = pgTable(
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
     acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    /** When its e-mail went out (sent by a queued job); older invitations to the address end then. */
+    mailedAt: timestamp('mailed_at', { withTimezone: true }),
   },
   (t) => [index('invitations_workspace_idx').on(t.workspaceId)],
 );
