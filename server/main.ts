@@ -12,7 +12,7 @@ import { DEMO_ACCOUNT } from './seed/demo-account';
 import { outboxEnabled } from './dev/outbox';
 
 const config = loadConfig();
-const database = connectDatabase(config.DATABASE_URL);
+const database = connectDatabase(config.DATABASE_URL, 10, config.LARIAT_DB_CONNECT_TIMEOUT_MS);
 const problems = await productionDatabaseProblems(config, database.db);
 if (problems.length > 0) {
   await database.close();

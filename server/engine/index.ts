@@ -9,7 +9,8 @@ export { encodeForFit, fitPath, fitPathOnDesign, fitPathPrepared, prepareFit } f
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
 export { crossProducts, subtractCrossProducts } from './core/crossProducts';
-export { computeLambdaMax, lambdaGrid, defaultLambdaRatio } from './path/grid';
+export { computeLambdaMax, lambdaGrid } from './path/grid';
+export * from './defaults';
 export { createRng } from './random';
 export type { Rng } from './random';
 export * from './types';

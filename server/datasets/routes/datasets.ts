@@ -4,15 +4,17 @@ import { columnSettingsSchema } from '../../../shared/datasets';
 import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
 import type { AppContext } from '../../context';
 import { fromZod } from '../../http/errors';
-import { countFileChunks, readFileChunk } from '../data/uploads';
 import { changeColumnSettings } from '../service/column-settings';
 import { deleteDataset, getDataset, getVersion, listDatasets, requireVersion } from '../service/datasets';
 import { prepareCleanedCsv } from '../service/export';
+import { originalChunks } from '../service/original';
+import { IngestBusy, RETRY_AFTER_SECONDS, type IngestGate } from '../service/ingest-gate';
 import { importOpenDataset, listOpenDatasets } from '../service/open-datasets';
 import { previewRows } from '../service/preview';
 import { contentDisposition, datasetIdParam, intQuery, versionParam } from './params';
+import { sendStream } from './send-stream';
 
-export function datasetsRouter(ctx: AppContext): Router {
+export function datasetsRouter(ctx: AppContext, gate: IngestGate): Router {
   const router = Router();
   const editor = requireWorkspaceRole('admin', 'analyst');
   const base = '/workspaces/:workspaceId/datasets';
@@ -55,20 +57,14 @@ export function datasetsRouter(ctx: AppContext): Router {
   router.get(`${version}/original`, anyMember, async (req, res) => {
     const s = scope(req);
     const { version: v } = await requireVersion(ctx.db, s.workspaceId, s.datasetId, s.number);
-    const chunks = await countFileChunks(ctx.db, v.uploadId);
     res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Length': String(v.sizeBytes), 'Content-Disposition': contentDisposition(v.fileName) });
-    for (let seq = 0; seq < chunks; seq++) {
-      const chunk = await readFileChunk(ctx.db, v.uploadId, seq);
-      if (chunk && !res.write(chunk)) await new Promise((resolve) => res.once('drain', resolve));
-    }
-    res.end();
+    await sendStream(res, originalChunks(ctx.db, v.uploadId));
   });
 
   router.get(`${version}/cleaned.csv`, anyMember, async (req, res) => {
     const csv = await prepareCleanedCsv(ctx.db, scope(req));
     res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': contentDisposition(csv.fileName) });
-    await csv.writeTo(res);
-    res.end();
+    await sendStream(res, csv.chunks());
   });
 
   router.get('/workspaces/:workspaceId/open-datasets', anyMember, async (req, res) => {
@@ -76,7 +72,16 @@ export function datasetsRouter(ctx: AppContext): Router {
   });
 
   router.post('/workspaces/:workspaceId/open-datasets/:key/import', editor, async (req, res) => {
-    const result = await importOpenDataset(ctx.db, workspaceMembership(req).workspaceId, sessionUser(req).id, String(req.params.key));
+    const release = await gate.enter().catch((error: unknown) => {
+      if (error instanceof IngestBusy) res.set('Retry-After', String(RETRY_AFTER_SECONDS));
+      throw error;
+    });
+    let result;
+    try {
+      result = await importOpenDataset(ctx.db, workspaceMembership(req).workspaceId, sessionUser(req).id, String(req.params.key));
+    } finally {
+      release();
+    }
     res.status(result.duplicate ? 200 : 201).json(result);
   });
 

@@ -12,15 +12,18 @@ import { ingestIdSchema, parseMissingMarkers, uploadFieldsSchema } from '../../.
 import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
 import type { AppContext } from '../../context';
 import { fromZod, HttpError, notFound } from '../../http/errors';
-import { FileProblem } from '../parse/errors';
 import { ingestFile } from '../service/ingest';
+import { publicIngestFailure } from '../service/ingest-errors';
+import { IngestBusy, RETRY_AFTER_SECONDS, type IngestGate } from '../service/ingest-gate';
+import { sweepIngestLeftovers } from '../service/leftovers';
 import { readProgress, startProgress } from '../service/progress';
 import { ClientGone, receiveUpload } from './receive-upload';
 
-export function uploadsRouter(ctx: AppContext): Router {
+export function uploadsRouter(ctx: AppContext, gate: IngestGate): Router {
   const router = Router();
   const tempDir = path.resolve(ctx.config.LARIAT_STATE_DIR, 'ingest');
   const limitBytes = Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024);
+  sweepIngestLeftovers(tempDir); // the router is built once, at start-up
 
   router.post('/workspaces/:workspaceId/datasets/uploads', requireWorkspaceRole('admin', 'analyst'), async (req, res) => {
     const { workspaceId } = workspaceMembership(req);
@@ -28,11 +31,14 @@ export function uploadsRouter(ctx: AppContext): Router {
     if (!ingest.success) throw fromZod(ingest.error, 'ingest');
     const progress = startProgress(ingest.data, workspaceId);
     let filePath: string | null = null;
+    let release: (() => void) | null = null;
     try {
+      if (gate.full()) throw new IngestBusy(); // before the transfer, which would be wasted
       const upload = await receiveUpload(req, { limitBytes, tempDir, onBytes: (b) => progress.receiving(b) });
       filePath = upload.filePath;
       const fields = uploadFieldsSchema.safeParse(upload.fields);
       if (!fields.success) throw fromZod(fields.error, 'fields');
+      release = await gate.enter(() => progress.phase('queued', 0));
       const result = await ingestFile(ctx.db, {
         workspaceId,
         userId: sessionUser(req).id,
@@ -45,20 +51,25 @@ export function uploadsRouter(ctx: AppContext): Router {
         sizeBytes: upload.sizeBytes,
         missingMarkers: parseMissingMarkers(fields.data.missing),
         columnLimit: ctx.config.LARIAT_COLUMN_LIMIT,
+        headerRow: fields.data.headerRow !== 'no',
         tempDir,
         progress,
       });
       progress.finish(result.message);
       res.status(result.duplicate ? 200 : 201).json(result);
     } catch (error) {
-      progress.fail(error instanceof Error ? error.message : 'The upload failed.');
-      if (error instanceof ClientGone) return;
-      if (error instanceof FileProblem) {
-        if (error.status === 413) res.set('Connection', 'close'); // stop receiving the rest
-        throw new HttpError(error.status, error.message, error.field);
+      if (error instanceof ClientGone) {
+        progress.fail(error.message);
+        return;
       }
-      throw error;
+      // Only Lariat's own messages reach the uploader and the progress entry (ingest-errors.ts).
+      const failure = publicIngestFailure(error);
+      progress.fail(failure.message);
+      if (failure.status === 413 || failure.status === 429) res.set('Connection', 'close'); // stop receiving the rest
+      if (failure.status === 429) res.set('Retry-After', String(RETRY_AFTER_SECONDS));
+      throw new HttpError(failure.status, failure.message, failure.field);
     } finally {
+      release?.();
       if (filePath) fs.rm(filePath, { force: true }, () => undefined);
     }
   });
