@@ -1,6 +1,7 @@
 /** The e-mails accounts send: plain text with one link, built from config.publicUrl. */
 import type { WorkspaceRole } from '../../shared/members';
 import type { AppContext, MailMessage } from '../context';
+import { reportUnexpected } from '../http/unexpected';
 
 export function invitationMail(
   ctx: AppContext,
@@ -38,7 +39,8 @@ export function passwordResetMail(ctx: AppContext, m: { to: string; token: strin
 
 /** Sends without making the caller wait or fail: a mail relay hiccup must not reveal or break anything. */
 export function sendInBackground(ctx: AppContext, message: MailMessage): void {
-  ctx.sendMail(message).catch((err: unknown) => console.error('[lariat] could not send e-mail to', message.to, err));
+  // Logged without the message (its links are credentials) or the relay's full error text.
+  ctx.sendMail(message).catch((err: unknown) => reportUnexpected(err, `e-mail "${message.subject}"`));
 }
 
 export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut: number }): MailMessage {

@@ -39,7 +39,7 @@ function headerText(value: unknown): string | null {
  * `logFile` (browser tests only): each captured message is also appended there as one JSON line, so
  * a test can follow a link mailed to someone who cannot sign in yet (a sign-up's own link).
  */
-export async function startFakeSmtp(port = 0, host = '127.0.0.1', logFile?: string): Promise<FakeSmtp> {
+export async function startFakeSmtp(port = 0, host = '127.0.0.1', logFile?: string, announce?: (message: CapturedMessage) => void): Promise<FakeSmtp> {
   const messages: CapturedMessage[] = [];
   let nextId = 1;
   const server = new SMTPServer({
@@ -61,6 +61,7 @@ export async function startFakeSmtp(port = 0, host = '127.0.0.1', logFile?: stri
           });
           if (messages.length > MAX_KEPT) messages.shift();
           if (logFile) fs.appendFileSync(logFile, `${JSON.stringify(messages[messages.length - 1])}\n`);
+          announce?.(messages[messages.length - 1]);
           callback();
         })
         .catch((err: Error) => callback(err));

@@ -6,6 +6,8 @@ import type { AppContext } from '../../server/context';
 import { connectDatabase } from '../../server/db/client';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { createMailer } from '../../server/mail/mailer';
+import { startQueue } from '../../server/queue/queue';
+import { startWorkers } from '../../server/queue/workers';
 import { createTestDatabase } from './databases';
 
 export interface TestApp {
@@ -37,12 +39,15 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     ...env,
   });
   const handle = connectDatabase(database.url, 4);
+  const queue = await startQueue(database.url, { max: 2 });
   const ctx: AppContext = {
     config,
     db: handle.db,
     sendMail: createMailer(`smtp://127.0.0.1:${mail.port}`, config.LARIAT_MAIL_FROM),
     devMailbox: mail,
+    queue,
   };
+  await startWorkers(ctx);
   const app = createApp(ctx);
   const testApp: TestApp = {
     app,
@@ -51,6 +56,7 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     async close() {
       // Work queued after a response (e-mails after a sign-up) finishes before the database goes.
       await new Promise((r) => setTimeout(r, 50));
+      await queue.stop();
       await handle.close();
       await mail.close();
       await database.drop();

@@ -9,12 +9,14 @@
  * `agent` keeps the session cookie; state-changing requests also need the CSRF header (`withCsrf`).
  */
 import { randomBytes } from 'node:crypto';
+import { eq } from 'drizzle-orm';
 import type express from 'express';
 import request from 'supertest';
 import type { Test } from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import type { MeDto } from '../../shared/auth';
 import type { WorkspaceRole } from '../../shared/members';
+import { invitations } from '../../server/db/schema/auth';
 import { testAppOf, type TestApp } from './app';
 
 export const TEST_PASSWORD = 'correct horse battery staple';
@@ -91,6 +93,7 @@ export async function inviteAndJoin(testApp: TestApp, admin: Session, email: str
   const invited = await withCsrf(admin.agent.post(`/api/workspaces/${admin.workspaceId}/invitations`), admin.csrf).send({ email, role });
   if (invited.status !== 201) fail(`Inviting ${email}`, invited);
   const mail = await newMail(testApp, email, /invited you/, before);
+  await invitationMailed(testApp, (invited.body as { id: string }).id);
   const token = tokenFromMail(mail.text, 'invitations');
   const agent = request.agent(testApp.app);
   const accepted = await agent.post(`/api/invitations/${token}/accept`).send({ name, password: TEST_PASSWORD });
@@ -107,6 +110,20 @@ export async function newMail(testApp: TestApp, to: string, subject: RegExp, aft
     const found = testApp.mail.messages.find((m) => m.id > afterId && m.to.includes(wanted) && subject.test(m.subject));
     if (found) return found;
     if (Date.now() > deadline) throw new Error(`No new e-mail to ${to} matching ${subject} within 10 s`);
+    await new Promise((r) => setTimeout(r, 25));
+  }
+}
+
+/**
+ * Waits until the queued job has finished with an invitation (its e-mail is sent and older pending
+ * invitations to the address are ended): the e-mail lands a moment before that.
+ */
+export async function invitationMailed(testApp: TestApp, invitationId: string): Promise<void> {
+  const deadline = Date.now() + 10_000;
+  for (;;) {
+    const [row] = await testApp.ctx.db.select({ mailedAt: invitations.mailedAt }).from(invitations).where(eq(invitations.id, invitationId));
+    if (row?.mailedAt) return;
+    if (Date.now() > deadline) throw new Error(`Invitation ${invitationId} was not mailed within 10 s`);
     await new Promise((r) => setTimeout(r, 25));
   }
 }

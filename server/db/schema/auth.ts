@@ -74,6 +74,8 @@ export const invitations = pgTable(
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
     acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    /** When its e-mail went out (sent by a queued job); older invitations to the address end then. */
+    mailedAt: timestamp('mailed_at', { withTimezone: true }),
   },
   (t) => [index('invitations_workspace_idx').on(t.workspaceId)],
 );
@@ -90,7 +92,7 @@ export const passwordResets = pgTable('password_resets', {
 });
 
 /**
- * A sign-up waiting for its e-mailed link (decision 9): the account exists only once the link is
+ * A sign-up waiting for its e-mailed link (decision 10): the account exists only once the link is
  * used, so the sign-up answer is the same whether or not the address already has an account.
  */
 export const signUpRequests = pgTable('sign_up_requests', {
