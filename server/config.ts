@@ -20,6 +20,8 @@ const schema = z.object({
   /** smtp://host:port of a real relay; absent in development/test: a local fake SMTP server is started. */
   LARIAT_SMTP_URL: z.string().optional(),
   LARIAT_FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  /** Browser tests only (NODE_ENV=test): a file where the fake SMTP server also writes what it captures. */
+  LARIAT_FAKE_SMTP_LOG: z.string().optional(),
   LARIAT_MAIL_FROM: z.string().default('Lariat <no-reply@lariat.localhost>'),
   LARIAT_UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
   LARIAT_COLUMN_LIMIT: z.coerce.number().int().positive().default(5000),

@@ -21,7 +21,7 @@ let devMailbox: FakeSmtp | undefined;
 let smtpUrl = config.LARIAT_SMTP_URL;
 if (!smtpUrl) {
   if (config.NODE_ENV === 'production') throw new Error('LARIAT_SMTP_URL is required in production');
-  devMailbox = await startFakeSmtp(config.LARIAT_FAKE_SMTP_PORT);
+  devMailbox = await startFakeSmtp(config.LARIAT_FAKE_SMTP_PORT, '127.0.0.1', config.NODE_ENV === 'test' ? config.LARIAT_FAKE_SMTP_LOG : undefined);
   smtpUrl = `smtp://127.0.0.1:${devMailbox.port}`;
 }
 

@@ -53,3 +53,33 @@ export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut:
     ].join('\n'),
   };
 }
+
+export function finishSignUpMail(ctx: AppContext, m: { to: string; token: string }): MailMessage {
+  const link = `${ctx.config.publicUrl}/sign-up/finish/${m.token}`;
+  return {
+    to: m.to,
+    subject: 'Finish creating your Lariat account',
+    text: [
+      'Someone (hopefully you) started creating a Lariat account with this e-mail address.',
+      '',
+      `Finish creating it: ${link}`,
+      '',
+      'The link works once and expires in 1 hour. If you did not ask for this, ignore this e-mail; no account is created.',
+    ].join('\n'),
+  };
+}
+
+export function accountExistsMail(ctx: AppContext, m: { to: string }): MailMessage {
+  return {
+    to: m.to,
+    subject: 'Someone tried to create a Lariat account with your address',
+    text: [
+      'Someone (hopefully you) tried to create a Lariat account with this e-mail address, but it already has one.',
+      '',
+      `Sign in: ${ctx.config.publicUrl}/sign-in`,
+      `Forgot your password? Choose a new one: ${ctx.config.publicUrl}/forgot-password`,
+      '',
+      'If this was not you, you can ignore this e-mail: nothing changed on your account.',
+    ].join('\n'),
+  };
+}

@@ -7,6 +7,7 @@ export const paths = {
   auth: {
     signIn: { path: '/sign-in', getHref: (redirectTo?: string) => (redirectTo ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in') },
     signUp: { path: '/sign-up', getHref: () => '/sign-up' },
+    finishSignUp: { path: '/sign-up/finish/:token', getHref: (token: string) => `/sign-up/finish/${encodeURIComponent(token)}` },
     forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
     resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
     acceptInvitation: { path: '/invitations/:token', getHref: (token: string) => `/invitations/${encodeURIComponent(token)}` },

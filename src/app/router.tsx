@@ -15,6 +15,7 @@ function WorkspaceIndex() {
 // Pages load on first visit (route `lazy`), so the first download stays small as features grow.
 const signIn = () => import('@/features/auth/components/SignInPage').then((m) => ({ Component: m.SignInPage }));
 const signUp = () => import('@/features/auth/components/SignUpPage').then((m) => ({ Component: m.SignUpPage }));
+const finishSignUp = () => import('@/features/auth/components/FinishSignUpPage').then((m) => ({ Component: m.FinishSignUpPage }));
 const forgotPassword = () => import('@/features/auth/components/ForgotPasswordPage').then((m) => ({ Component: m.ForgotPasswordPage }));
 const resetPassword = () => import('@/features/auth/components/ResetPasswordPage').then((m) => ({ Component: m.ResetPasswordPage }));
 const acceptInvitation = () =>
@@ -41,6 +42,7 @@ export function createAppRouter() {
             { path: paths.auth.forgotPassword.path, lazy: forgotPassword },
           ],
         },
+        { path: paths.auth.finishSignUp.path, lazy: finishSignUp },
         { path: paths.auth.resetPassword.path, lazy: resetPassword },
         { path: paths.auth.acceptInvitation.path, lazy: acceptInvitation },
         {

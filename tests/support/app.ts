@@ -15,6 +15,15 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
+const byApp = new WeakMap<express.Express, TestApp>();
+
+/** The TestApp of an Express app made by startTestApp (helpers that get only `app` read its mail through it). */
+export function testAppOf(app: express.Express): TestApp {
+  const found = byApp.get(app);
+  if (!found) throw new Error('This Express app was not made by startTestApp');
+  return found;
+}
+
 export async function startTestApp(env: Record<string, string> = {}): Promise<TestApp> {
   const database = await createTestDatabase();
   const mail = await startFakeSmtp(0);
@@ -35,14 +44,18 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     devMailbox: mail,
   };
   const app = createApp(ctx);
-  return {
+  const testApp: TestApp = {
     app,
     ctx,
     mail,
     async close() {
+      // Work queued after a response (e-mails after a sign-up) finishes before the database goes.
+      await new Promise((r) => setTimeout(r, 50));
       await handle.close();
       await mail.close();
       await database.drop();
     },
   };
+  byApp.set(app, testApp);
+  return testApp;
 }

@@ -2,7 +2,7 @@
  * Signed-in sessions for API tests.
  *
  *   const t = await startTestApp();
- *   const alice = await signUp(t.app);                       // admin of a new workspace
+ *   const alice = await signUp(t.app);                       // admin of a new workspace (follows the e-mailed link)
  *   await withCsrf(alice.agent.post(`/api/workspaces/${alice.workspaceId}/...`), alice.csrf).send({...});
  *   const bob = await inviteAndJoin(t, alice, 'bob@example.test', 'viewer');
  *
@@ -15,7 +15,7 @@ import type { Test } from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import type { MeDto } from '../../shared/auth';
 import type { WorkspaceRole } from '../../shared/members';
-import type { TestApp } from './app';
+import { testAppOf, type TestApp } from './app';
 
 export const TEST_PASSWORD = 'correct horse battery staple';
 
@@ -54,9 +54,15 @@ export async function signUp(
   const email = opts.email ?? uniqueEmail();
   const password = opts.password ?? TEST_PASSWORD;
   const body = { email, password, name: opts.name ?? 'Test Person', ...(opts.workspaceName ? { workspaceName: opts.workspaceName } : {}) };
+  const testApp = testAppOf(app);
+  const before = lastMailId(testApp);
   const res = await agent.post('/api/auth/sign-up').send(body);
-  if (res.status !== 201) fail(`Sign-up of ${email}`, res);
-  const me = res.body as MeDto;
+  if (res.status !== 202) fail(`Sign-up of ${email}`, res);
+  // The account exists once the e-mailed link is used (server/accounts/sign-up.ts).
+  const mail = await newMail(testApp, email, /Finish creating/, before);
+  const done = await agent.post('/api/auth/sign-up/complete').send({ token: tokenFromMail(mail.text, 'sign-up/finish') });
+  if (done.status !== 201) fail(`Finishing the sign-up of ${email}`, done);
+  const me = done.body as MeDto;
   return { agent, userId: me.user.id, email: me.user.email, password, workspaceId: me.memberships[0].workspaceId, csrf: me.csrfToken };
 }
 
@@ -70,7 +76,7 @@ export async function signIn(app: express.Express, email: string, password = TES
 }
 
 /** Pulls the token out of a link like `${publicUrl}/invitations/<token>` in a captured e-mail. */
-export function tokenFromMail(text: string, kind: 'invitations' | 'reset-password'): string {
+export function tokenFromMail(text: string, kind: 'invitations' | 'reset-password' | 'sign-up/finish'): string {
   const match = new RegExp(`/${kind}/([A-Za-z0-9_-]+)`).exec(text);
   if (!match) throw new Error(`No /${kind}/<token> link in the e-mail:\n${text}`);
   return match[1];

@@ -88,3 +88,19 @@ export const passwordResets = pgTable('password_resets', {
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
   usedAt: timestamp('used_at', { withTimezone: true }),
 });
+
+/**
+ * A sign-up waiting for its e-mailed link (decision 9): the account exists only once the link is
+ * used, so the sign-up answer is the same whether or not the address already has an account.
+ */
+export const signUpRequests = pgTable('sign_up_requests', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  workspaceName: text('workspace_name'),
+  passwordHash: text('password_hash').notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  createdAt: createdAt(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+});

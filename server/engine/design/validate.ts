@@ -7,7 +7,7 @@ const fail = (message: string, field: string): never => {
 /**
  * Checks a table-level fit spec before any work: every problem is an EngineInputError whose message
  * names the column, row, option or value at fault (rows are 1-based data rows). Constant predictors
- * are not errors: they are reported and left out (DESIGN.md); a constant response is.
+ * are not errors: they are reported and left out (docs/engine.md, "Data and encoding"); a constant response is.
  */
 export function validateSpec(table: EngineTable, spec: FitSpec): void {
   if (table.nRows === 0 || table.columns.length === 0) fail('the data has no rows', 'data');

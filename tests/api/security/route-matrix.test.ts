@@ -49,6 +49,7 @@ const V = `${W}/datasets/:datasetId/versions/:number`;
 const TABLE: Record<string, Row> = {
   'GET /api/health': open(200),
   'POST /api/auth/sign-up': open(400),
+  'POST /api/auth/sign-up/complete': open(400),
   'POST /api/auth/sign-in': open(400),
   'POST /api/auth/sign-out': { ...open(204), fresh: true },
   'GET /api/auth/me': personal(200),
@@ -159,6 +160,7 @@ describe('route-by-role matrix (from the router)', () => {
 /** Routes that carry their own proof (no session yet, or an e-mailed token): see server/auth/csrf.ts. */
 const CSRF_EXEMPT = new Set([
   'POST /api/auth/sign-up',
+  'POST /api/auth/sign-up/complete',
   'POST /api/auth/sign-in',
   'POST /api/auth/password-reset/request',
   'POST /api/auth/password-reset/complete',
