@@ -25,7 +25,7 @@ const schema = z.object({
   LARIAT_MAIL_FROM: z.string().default('Lariat <no-reply@lariat.localhost>'),
   LARIAT_UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
   LARIAT_COLUMN_LIMIT: z.coerce.number().int().positive().default(5000),
-  /** Ingests run at once per process, and how many more may wait (docs/decisions/0009-ingest-cap-and-upload-hardening.md). */
+  /** Ingests run at once per process, and how many more may wait (docs/decisions/0010-ingest-cap-and-upload-hardening.md). */
   LARIAT_INGEST_SLOTS: z.coerce.number().int().positive().default(1),
   LARIAT_INGEST_QUEUE: z.coerce.number().int().min(0).default(4),
   /** How long a request waits for a free database connection before it fails. */
