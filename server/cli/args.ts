@@ -44,11 +44,11 @@ export const DEFAULTS = {
   maxIterations: DEFAULT_MAX_ITERATIONS,
 };
 
-const VALUE_OPTIONS = new Set([
+export const VALUE_OPTIONS = new Set([
   'data', 'response', 'predictors', 'family', 'penalty', 'l1-share', 'groups', 'penalty-weights', 'lambda',
   'path-length', 'path-decades', 'max-terms', 'folds', 'fold-column', 'seed', 'tolerance', 'max-iterations', 'workers',
 ]);
-const FLAG_OPTIONS = new Set(['no-standardize', 'help']);
+export const FLAG_OPTIONS = new Set(['no-standardize', 'help']);
 
 /** Splits argv into option -> raw value; accepts `--name value` and `--name=value`. */
 export function tokenize(argv: string[]): Map<string, string | true> {

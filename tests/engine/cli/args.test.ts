@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULTS, parseFitOptions, UsageError } from '../../../server/cli/args';
+import { DEFAULTS, FLAG_OPTIONS, parseFitOptions, UsageError, VALUE_OPTIONS } from '../../../server/cli/args';
+import { HELP } from '../../../server/cli/help';
 
 const base = ['--data', 'd.csv', '--response', 'y'];
 
@@ -66,4 +67,17 @@ describe('parseFitOptions', () => {
       expect(() => parseFitOptions(argv)).toThrow(message);
     });
   }
+});
+
+describe('--help', () => {
+  it('explains every option the parser accepts', () => {
+    for (const name of [...VALUE_OPTIONS, ...FLAG_OPTIONS].filter((n) => n !== 'help')) expect(HELP, `--${name}`).toContain(`--${name}`);
+  });
+
+  it('states the measured defaults and no option of the old vocabulary', () => {
+    expect(HELP).toContain(`Default ${DEFAULTS.pathDecades}`);
+    expect(HELP).toContain(`Default ${DEFAULTS.tolerance}`);
+    expect(HELP).toContain('devianceExplained');
+    for (const old of ['--alpha', '--lambda-ratio', 'devianceRatio', 'penalty factor']) expect(HELP).not.toContain(old);
+  });
 });

@@ -121,6 +121,20 @@ describe('lariat fit (spawned CLI)', () => {
     expect(limited.lambda).toEqual(shallow.lambda.slice(0, k + 1));
   });
 
+  it('notes when the cross-validation minimum sits at the end of the path, and only then', () => {
+    const diabetes = fileURLToPath(new URL('../../../datasets/open/diabetes.csv', import.meta.url));
+    const args = ['--data', diabetes, '--response', 'progression', '--path-length', '20', '--folds', '5'];
+    const shallow = fitJson(...args, '--no-standardize', '--path-decades', '1');
+    const last = shallow.lambda.length - 1;
+    // Diabetes on the raw scale: the CV error still falls at 1 decade; standardized, its minimum is
+    // near 2 decades, well inside a 6-decade path (docs/decisions/0006-path-depth.md).
+    expect(shallow.cv?.minimum.index).toBe(last);
+    expect(shallow.notes.join('\n')).toContain('cross-validation minimum is at the smallest lambda');
+    const deep = fitJson(...args, '--path-decades', '6');
+    expect(deep.cv?.minimum.index).toBeLessThan(deep.lambda.length - 1);
+    expect(deep.notes.join('\n')).not.toContain('cross-validation minimum');
+  });
+
   it('carries the statistical cautions, and names every solve that stopped at the iteration limit', () => {
     const ok = JSON.parse(cli('fit', '--data', 'data.csv', '--response', 'y', '--path-length', '4', '--folds', '0').stdout) as {
       cautions: string[];
