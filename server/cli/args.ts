@@ -134,8 +134,8 @@ export function parseFitOptions(argv: string[]): FitOptions {
   }
   if (l1Share !== undefined && !(l1Share > 0 && l1Share <= 1)) throw new UsageError(`--l1-share must be in (0, 1] (got "${shareRaw}")`);
   const lambdaRaw = get('lambda');
-  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('path-decades'))) {
-    throw new UsageError('--lambda cannot be combined with --path-length or --path-decades (they shape the automatic path)');
+  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('path-decades') || t.has('max-terms'))) {
+    throw new UsageError('--lambda cannot be combined with --path-length, --path-decades or --max-terms (they shape the automatic path)');
   }
   const decadesRaw = get('path-decades');
   const pathDecades = decadesRaw === undefined ? DEFAULTS.pathDecades : number('path-decades', decadesRaw);

@@ -39,7 +39,8 @@ Model
                            coefficients are always reported on the original scale too.
 
 Lambda path
-  --lambda v1,v2,...       your own lambdas, strictly descending (replaces the automatic path)
+  --lambda v1,v2,...       your own lambdas, strictly descending (replaces the automatic path, so
+                           not with --path-length, --path-decades or --max-terms)
   --path-length L          number of lambdas on the automatic path. Default ${DEFAULTS.pathLength}: enough for smooth
                            coefficient and cross-validation curves at a modest cost.
   --path-decades D         how far the automatic path goes: from lambda_max (the smallest lambda

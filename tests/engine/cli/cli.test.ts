@@ -114,7 +114,10 @@ describe('lariat fit (spawned CLI)', () => {
     const shallow = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--folds', '0');
     const last = shallow.lambda[shallow.lambda.length - 1];
     expect(Math.abs(last / shallow.lambdaMax - 1e-2)).toBeLessThan(1e-12);
-    const limited = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--max-terms', '1', '--folds', '0');
+    const limited = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--max-terms', '1', '--folds', '4');
+    // Cross-validation refits every lambda of the shortened path in each fold.
+    expect(limited.cv?.mean).toHaveLength(limited.lambda.length);
+    expect(limited.cv?.mean.every((v) => Number.isFinite(v))).toBe(true);
     const k = limited.lambda.length - 1;
     expect(limited.nonzero[k]).toBeGreaterThan(1);
     expect(limited.nonzero.slice(0, k).every((count) => count <= 1)).toBe(true);
