@@ -1,5 +1,7 @@
 import type { RouteObject } from 'react-router';
 import { datasetsRoutes } from '@/features/datasets/routes';
+import { fitsRoutes } from '@/features/fits/routes';
+import { modelsRoutes } from '@/features/models/routes';
 
 /**
  * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
@@ -9,4 +11,6 @@ import { datasetsRoutes } from '@/features/datasets/routes';
  */
 export const workspaceFeatureRoutes: RouteObject[] = [
   ...datasetsRoutes,
+  ...modelsRoutes,
+  ...fitsRoutes,
 ];
