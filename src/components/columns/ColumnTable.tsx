@@ -189,4 +189,4 @@ export function ColumnTable({ columns, label, selection, renderType, renderNote,
   );
 }
 
-const WIDTHS: Record<string, string> = { name: 'w-[26%]', type: 'w-44', missing: 'w-20', distinct: 'w-20' };
+const WIDTHS: Record<string, string> = { name: 'w-[20%]', type: 'w-40', missing: 'w-16', distinct: 'w-20' };

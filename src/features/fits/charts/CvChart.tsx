@@ -40,11 +40,25 @@ export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
   const label = CV_METRIC_LABELS[cv.metric];
   return (
     <ChartFrame
+      footer={
+      <ul className="mt-1 flex flex-wrap gap-4 text-xs" aria-label="Marked lambdas">
+          <MarkKey color={MARK_COLORS.minimum} dashed>
+            Minimum: lambda {formatStat(cv.minimum.lambda)}
+          </MarkKey>
+          <MarkKey color={MARK_COLORS.oneSe} dashed>
+            One standard error: lambda {formatStat(cv.oneStandardError.lambda)}
+          </MarkKey>
+          <MarkKey color={MARK_COLORS.chosen}>Chosen: lambda {formatStat(lambda[chosenIndex])}</MarkKey>
+          {cv.unconvergedFolds.length > 0 && <li className="font-bold text-red-700 dark:text-red-300">Folds {cv.unconvergedFolds.map((f) => f + 1).join(', ')} did not converge at some lambda.</li>}
+        </ul>
+      }
       id="cv"
       title="Cross-validation"
       description={`${label} on held-out rows, the mean over ${cv.folds} folds with plus/minus one standard error. Marked: the minimum, the one-standard-error choice (the largest lambda within one standard error of the minimum) and the chosen lambda. Click to choose.`}
     >
+      {(width) => (
       <XYChart
+        width={width}
         height={340}
         margin={{ ...MARGIN, top: 44 }}
         theme={chartTheme}
@@ -71,8 +85,8 @@ export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
         <ErrorBars points={bars} color="#94a3b8" />
         <LineSeries dataKey="mean" data={points} {...accessors} stroke={SERIES_COLORS[0]} strokeWidth={1.5} />
         <GlyphSeries dataKey="points" data={points} {...accessors} colorAccessor={() => SERIES_COLORS[0]} size={4} />
-        <VerticalMark x={xs[cv.minimum.index]} color={MARK_COLORS.minimum} label="minimum" dashed />
-        <VerticalMark x={xs[cv.oneStandardError.index]} color={MARK_COLORS.oneSe} label="1 SE" dashed />
+        <VerticalMark x={xs[cv.minimum.index]} color={MARK_COLORS.minimum} dashed />
+        <VerticalMark x={xs[cv.oneStandardError.index]} color={MARK_COLORS.oneSe} dashed />
         <VerticalMark x={xs[chosenIndex]} color={MARK_COLORS.chosen} />
         <Tooltip<CvPoint>
           snapTooltipToDatumX
@@ -92,16 +106,7 @@ export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
           }}
         />
       </XYChart>
-      <ul className="mt-1 flex flex-wrap gap-4 text-xs" aria-label="Marked lambdas">
-        <MarkKey color={MARK_COLORS.minimum} dashed>
-          Minimum: lambda {formatStat(cv.minimum.lambda)}
-        </MarkKey>
-        <MarkKey color={MARK_COLORS.oneSe} dashed>
-          One standard error: lambda {formatStat(cv.oneStandardError.lambda)}
-        </MarkKey>
-        <MarkKey color={MARK_COLORS.chosen}>Chosen: lambda {formatStat(lambda[chosenIndex])}</MarkKey>
-        {cv.unconvergedFolds.length > 0 && <li className="font-bold text-red-700 dark:text-red-300">Folds {cv.unconvergedFolds.map((f) => f + 1).join(', ')} did not converge at some lambda.</li>}
-      </ul>
+      )}
     </ChartFrame>
   );
 }

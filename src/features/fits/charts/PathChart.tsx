@@ -47,6 +47,16 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
 
   return (
     <ChartFrame
+      footer={
+      <ul className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label="Terms drawn">
+          {series.map((s, n) => (
+            <li key={s.j} className="flex items-center gap-1">
+              <span aria-hidden="true" className="inline-block h-2 w-3 rounded-sm" style={{ background: SERIES_COLORS[n % SERIES_COLORS.length] }} />
+              {terms[s.j]}
+            </li>
+          ))}
+        </ul>
+      }
       id="paths"
       title="Coefficient paths"
       description={`Each line is one term's coefficient (${scaleLabel}) as the penalty weakens. ${shown.length} of ${everNonzero} terms that ever enter are drawn, the largest first. Hover a line to name it; click to choose that lambda.`}
@@ -76,7 +86,9 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
         </>
       }
     >
+      {(width) => (
       <XYChart
+        width={width}
         height={340}
         margin={MARGIN}
         theme={chartTheme}
@@ -112,14 +124,7 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
           }}
         />
       </XYChart>
-      <ul className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label="Terms drawn">
-        {series.map((s, n) => (
-          <li key={s.j} className="flex items-center gap-1">
-            <span aria-hidden="true" className="inline-block h-2 w-3 rounded-sm" style={{ background: SERIES_COLORS[n % SERIES_COLORS.length] }} />
-            {terms[s.j]}
-          </li>
-        ))}
-      </ul>
+      )}
     </ChartFrame>
   );
 }

@@ -25,7 +25,9 @@ interface Props {
 export function ScatterChart({ id, title, description, points, xLabel, yLabel, reference, line = false, domain }: Props) {
   return (
     <ChartFrame id={id} title={title} description={description}>
+      {(width) => (
       <XYChart
+        width={width}
         height={280}
         margin={MARGIN}
         theme={chartTheme}
@@ -39,6 +41,7 @@ export function ScatterChart({ id, title, description, points, xLabel, yLabel, r
         {line && <LineSeries dataKey={`${id}-line`} data={points} {...accessors} stroke={SERIES_COLORS[0]} strokeWidth={2} />}
         <GlyphSeries dataKey={`${id}-points`} data={points} {...accessors} colorAccessor={() => SERIES_COLORS[0]} size={line ? 5 : 3} />
       </XYChart>
+      )}
     </ChartFrame>
   );
 }

@@ -35,7 +35,9 @@ export function FitProgressPanel({ workspaceId, fitId, initial, canCancel }: { w
             {percent}%
           </span>
         </div>
-        <progress aria-label="Fit progress" max={100} value={percent} className="h-2 w-full accent-lariat-700" />
+        <div role="progressbar" aria-label="Fit progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={percent} className="h-2.5 w-full overflow-hidden rounded-full bg-slate-200 dark:bg-slate-700">
+          <div className="h-full rounded-full bg-lariat-600 transition-[width] duration-500 dark:bg-lariat-300" style={{ width: `${percent}%` }} />
+        </div>
       </div>
       <dl className="grid grid-cols-2 gap-3 text-sm sm:grid-cols-4">
         <div>
