@@ -41,7 +41,7 @@ export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
   return (
     <ChartFrame
       footer={
-      <ul className="mt-1 flex flex-wrap gap-4 text-xs" aria-label="Marked lambdas">
+        <ul className="mt-1 flex flex-wrap gap-4 text-xs" aria-label="Marked lambdas">
           <MarkKey color={MARK_COLORS.minimum} dashed>
             Minimum: lambda {formatStat(cv.minimum.lambda)}
           </MarkKey>

@@ -48,7 +48,7 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
   return (
     <ChartFrame
       footer={
-      <ul className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label="Terms drawn">
+        <ul className="mt-2 flex flex-wrap gap-x-3 gap-y-1 text-xs" aria-label="Terms drawn">
           {series.map((s, n) => (
             <li key={s.j} className="flex items-center gap-1">
               <span aria-hidden="true" className="inline-block h-2 w-3 rounded-sm" style={{ background: SERIES_COLORS[n % SERIES_COLORS.length] }} />
