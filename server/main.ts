@@ -6,6 +6,9 @@ import { connectDatabase } from './db/client';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer } from './mail/mailer';
 import { DEMO_ACCOUNT } from './seed/demo-account';
+import { FIT_QUEUES } from './fits/jobs';
+import { JobQueue } from './queue/boss';
+import { queueSettings } from './worker/start';
 
 const config = loadConfig();
 const database = connectDatabase(config.DATABASE_URL);
@@ -18,7 +21,9 @@ if (!smtpUrl) {
   smtpUrl = `smtp://127.0.0.1:${devMailbox.port}`;
 }
 
-const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox };
+// The API only sends fit jobs; `npm run worker` processes run them.
+const queue = await JobQueue.start(queueSettings(config, config.DATABASE_URL), FIT_QUEUES);
+const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, fitJobs: queue };
 const app = createApp(ctx);
 const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
   const lines = [
@@ -34,6 +39,7 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
 
 async function shutdown(): Promise<void> {
   server.close();
+  await queue.stop();
   await devMailbox?.close();
   await database.close();
   process.exit(0);

@@ -145,6 +145,8 @@ export interface PathOptions {
    * deviance ratio between consecutive lambdas is below 1e-5, or it exceeds 0.999. Default false.
    */
   earlyStop?: boolean;
+  /** Called after each lambda is solved (fit workers report live progress with it). */
+  onLambda?: (done: number, total: number) => void;
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
   /**

@@ -82,6 +82,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
     }, lipschitz);
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
+    options.onLambda?.(result.lambda.length, grid.length);
     if (options.earlyStop && shouldStop(result.devianceRatio)) {
       notes.push(`path stopped early after ${result.lambda.length} lambdas: the deviance ratio stopped improving`);
       break;
