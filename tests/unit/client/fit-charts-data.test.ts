@@ -25,14 +25,14 @@ describe('coefficient path data', () => {
     expect(topTerms(peak, 10)).toEqual([1, 2, 0]);
   });
 
-  it('sums absolute coefficients for the L1-norm axis and fills zeros where a term is absent', () => {
+  it('sums absolute coefficients for the L1-norm axis; a path has zeros where the term is absent, in increasing x', () => {
     const norms = l1Norms(coefficients);
     expect(norms[0]).toBe(0);
     expect(close(norms[2], 2.4)).toBe(true);
-    expect(termPath(coefficients, 2, [10, 20, 30])).toEqual([
-      { i: 0, x: 10, y: 0 },
+    expect(termPath(coefficients, 2, [30, 20, 10])).toEqual([
+      { i: 2, x: 10, y: 0.7 },
       { i: 1, x: 20, y: 0 },
-      { i: 2, x: 30, y: 0.7 },
+      { i: 0, x: 30, y: 0 },
     ]);
   });
 });

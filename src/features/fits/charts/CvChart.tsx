@@ -33,7 +33,8 @@ function spread(n: number, count: number): number[] {
 
 export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
   const xs = useMemo(() => lambda.map((l) => Math.log10(l)), [lambda]);
-  const points = useMemo(() => cv.mean.map((m, i) => ({ i, x: xs[i], y: m })), [cv.mean, xs]);
+  // Increasing x: the chart finds the point nearest the pointer by bisection.
+  const points = useMemo(() => cv.mean.map((m, i) => ({ i, x: xs[i], y: m })).sort((a, b) => a.x - b.x), [cv.mean, xs]);
   const bars = useMemo(() => cv.mean.map((m, i) => ({ x: xs[i], low: m - cv.standardError[i], high: m + cv.standardError[i] })), [cv, xs]);
   const topTicks = spread(xs.length, 8);
   const lastUp = useRef<unknown>(null);

@@ -31,10 +31,15 @@ export function l1Norms(coefficients: SparseTerms[]): number[] {
   return coefficients.map((c) => c.values.reduce((s, v) => s + Math.abs(v), 0));
 }
 
-/** One term's coefficient at every lambda (zeros where the sparse vector leaves it out). */
+/**
+ * One term's coefficient at every lambda (zeros where the sparse vector leaves it out), in increasing
+ * x: the chart finds the point nearest the pointer by bisection, which needs sorted x.
+ */
 export function termPath(coefficients: SparseTerms[], term: number, xs: number[]): PathPoint[] {
-  return coefficients.map((c, i) => {
-    const k = c.terms.indexOf(term);
-    return { i, x: xs[i], y: k < 0 ? 0 : c.values[k] };
-  });
+  return coefficients
+    .map((c, i) => {
+      const k = c.terms.indexOf(term);
+      return { i, x: xs[i], y: k < 0 ? 0 : c.values[k] };
+    })
+    .sort((a, b) => a.x - b.x || a.i - b.i);
 }
