@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 import type { UserRef } from './datasets';
-import type { FitStatus, FitSummaryDto } from './fits';
+import type { FitSpec, FitStatus, FitSummaryDto, SpecChangeDto } from './fits';
 
 export const MODEL_NAME_MAX = 120;
 export const MODEL_DESCRIPTION_MAX = 2000;
@@ -70,6 +70,6 @@ export interface ModelListItemDto {
 
 /** GET /api/workspaces/:workspaceId/models/:modelId */
 export interface ModelDetailDto extends ModelListItemDto {
-  /** Newest first. */
-  versions: (FitSummaryDto & { metrics: FitKeyMetricsDto })[];
+  /** Newest first; each with its spec and what changed against the version before it (null for version 1). */
+  versions: (FitSummaryDto & { metrics: FitKeyMetricsDto; spec: FitSpec; specChanges: SpecChangeDto[] | null })[];
 }

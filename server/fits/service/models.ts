@@ -8,6 +8,7 @@ import { requireDataset } from '../../datasets/service/datasets';
 import { badRequest, conflict, fromZod, notFound } from '../../http/errors';
 import { findModelRow, latestFits, listFitSummaries, listModelRows, type ModelRow } from '../data';
 import { EMPTY_METRICS, fitSummaryDto, modelListItem } from './dto';
+import { specChanges } from './spec-diff';
 
 export async function requireModel(db: Database, workspaceId: string, modelId: string): Promise<ModelRow> {
   const model = await findModelRow(db, workspaceId, modelId);
@@ -30,7 +31,10 @@ export async function getModel(db: Database, workspaceId: string, modelId: strin
   const latest = versions[0];
   return {
     ...modelListItem(model, latest ? { count: versions.length, latest } : undefined),
-    versions: versions.map((f) => ({ ...fitSummaryDto(f), metrics: f.keyMetrics ?? EMPTY_METRICS })),
+    versions: versions.map((f) => {
+      const previous = versions.find((v) => v.version === f.version - 1);
+      return { ...fitSummaryDto(f), metrics: f.keyMetrics ?? EMPTY_METRICS, spec: f.spec, specChanges: previous ? specChanges(previous.spec, f.spec) : null };
+    }),
   };
 }
 
