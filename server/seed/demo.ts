@@ -1,12 +1,13 @@
 /**
  * Seeds the demo workspace (idempotent): the demo account, its workspace, and the invented
- * Harbour Creamery dataset (datasets/demo). Run by `npm start` and `npm run dev` after migrations.
+ * Harbour Creamery dataset (datasets/demo) with one finished fit (server/fits/demo-fit.ts). Run by `npm start` and `npm run dev` after migrations.
  */
 import { fileURLToPath } from 'node:url';
 import { DEMO_CSV_PATH } from '../../datasets/demo/generate';
 import { ensureUserWithWorkspace } from '../accounts/accounts';
 import { connectDatabase, type Database } from '../db/client';
 import { importDatasetFromFile } from '../datasets/index';
+import { ensureDemoFit } from '../fits/demo-fit';
 import { DEMO_ACCOUNT } from './demo-account';
 
 export async function seedDemo(db: Database): Promise<{ workspaceId: string; datasetId: string }> {
@@ -26,6 +27,7 @@ export async function seedDemo(db: Database): Promise<{ workspaceId: string; dat
       'outcomes, 44 numeric candidate predictors of which a handful matter, and three categorical ones.',
     filePath: DEMO_CSV_PATH,
   });
+  await ensureDemoFit(db, { workspaceId, userId, datasetId });
   return { workspaceId, datasetId };
 }
 

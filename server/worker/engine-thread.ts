@@ -26,7 +26,13 @@ export class TaskCancelled extends Error {
   }
 }
 
-export class EngineThread {
+/** What the fit jobs need from an engine: run a task (off the caller's loop, or inline) and cancel it. */
+export interface EngineRunner {
+  run<T>(task: EngineTask, onProgress?: (done: number, total: number) => void): Promise<T>;
+  cancel(reason?: Error): Promise<void>;
+}
+
+export class EngineThread implements EngineRunner {
   private worker: Worker | null = null;
   private abort: ((error: Error) => void) | null = null;
 

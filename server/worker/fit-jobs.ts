@@ -19,7 +19,7 @@ import { jobId, type EvaluateJob, type FinishJob, type FitQueue, type FoldJob, t
 import { keyMetrics } from '../fits/service/key-metrics';
 import type { FitStoredCv, FitStoredResults, FoldStoredLosses, StoredEvaluation } from '../fits/stored-types';
 import type { QueuedJob } from '../queue/boss';
-import { TaskCancelled, type EngineThread } from './engine-thread';
+import { TaskCancelled, type EngineRunner } from './engine-thread';
 import type { EngineTask } from './engine-protocol';
 import { cachedTable } from './table-cache';
 
@@ -59,7 +59,7 @@ async function failFit(db: Database, fitId: string, message: string): Promise<vo
 /** Runs an engine task, ending it early when the fit is cancelled meanwhile. */
 async function runWatched<T>(
   deps: FitWorkerDeps,
-  thread: EngineThread,
+  thread: EngineRunner,
   fitId: string,
   task: EngineTask,
   onProgress?: (done: number, total: number) => void,
@@ -83,7 +83,7 @@ async function runWatched<T>(
   }
 }
 
-export function fitJobHandler(deps: FitWorkerDeps, thread: EngineThread) {
+export function fitJobHandler(deps: FitWorkerDeps, thread: EngineRunner) {
   return async (job: QueuedJob<unknown>): Promise<void> => {
     const fitId = (job.data as { fitId: string }).fitId;
     try {
@@ -108,7 +108,7 @@ export function fitJobHandler(deps: FitWorkerDeps, thread: EngineThread) {
   };
 }
 
-async function runPathStep(deps: FitWorkerDeps, thread: EngineThread, job: PathJob): Promise<void> {
+async function runPathStep(deps: FitWorkerDeps, thread: EngineRunner, job: PathJob): Promise<void> {
   const { db } = deps;
   const fit = await loadFit(db, job.fitId);
   if (!fit || ENDED.includes(fit.status)) return;
@@ -171,7 +171,7 @@ async function runPathStep(deps: FitWorkerDeps, thread: EngineThread, job: PathJ
   for (let k = 0; k < folds; k++) await deps.send('fit-fold', { fitId: job.fitId, fold: k }, { id: jobId('fold', job.fitId, k) });
 }
 
-async function runFoldStep(deps: FitWorkerDeps, thread: EngineThread, job: FoldJob, retryCount: number): Promise<void> {
+async function runFoldStep(deps: FitWorkerDeps, thread: EngineRunner, job: FoldJob, retryCount: number): Promise<void> {
   const { db } = deps;
   const fit = await loadFit(db, job.fitId);
   if (!fit || ENDED.includes(fit.status) || !fit.results) return;
@@ -242,7 +242,7 @@ async function evaluationInput(db: Database, fit: NonNullable<Awaited<ReturnType
   };
 }
 
-async function runFinishStep(deps: FitWorkerDeps, thread: EngineThread, job: FinishJob): Promise<void> {
+async function runFinishStep(deps: FitWorkerDeps, thread: EngineRunner, job: FinishJob): Promise<void> {
   const { db } = deps;
   const fit = await loadFit(db, job.fitId);
   if (!fit || fit.status !== 'running' || !fit.results) return;
@@ -305,7 +305,7 @@ async function markEvaluation(db: Database, job: EvaluateJob, state: 'ready' | '
     .where(and(eq(fitEvaluations.fitId, job.fitId), eq(fitEvaluations.lambdaIndex, job.index), eq(fitEvaluations.state, 'waiting')));
 }
 
-async function runEvaluateStep(deps: FitWorkerDeps, thread: EngineThread, job: EvaluateJob): Promise<void> {
+async function runEvaluateStep(deps: FitWorkerDeps, thread: EngineRunner, job: EvaluateJob): Promise<void> {
   const { db } = deps;
   const fit = await loadFit(db, job.fitId);
   if (!fit || fit.status !== 'finished' || !fit.results) return;
