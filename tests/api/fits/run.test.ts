@@ -131,4 +131,39 @@ describe('running a fit', () => {
     const again = await post(alice, `/fits/${queued.id}/cancel`, {});
     expect(again.status).toBe(409);
   });
+
+  it('a solve that hits its iteration limit is flagged, never shown as a plain success', async () => {
+    // The group lasso has no exact finishing step, so 10 iterations cannot reach a 1e-14 gap.
+    const { l1Share: _mix, ...rest } = spec;
+    const fit = await waitForFit(alice, (await runFit(alice, model.id, { ...rest, penalty: 'group-lasso', maxIterations: 10, tolerance: 1e-14 })).id);
+    expect(fit.status).toBe('finished');
+    expect(fit.unconverged).toBe(true);
+    expect(fit.message).toMatch(/iteration limit/);
+    const r = fit.results!;
+    expect(r.unconvergedLambdas.length).toBeGreaterThan(0);
+    for (const l of r.unconvergedLambdas) expect(r.certificates[l].status).toBe('iteration-limit');
+    expect(r.certificates[r.unconvergedLambdas[0]].gap).toBeGreaterThan(1e-14);
+  });
+
+  it('a failure found by the engine is recorded with its message (fold ids that are not whole numbers)', async () => {
+    const fit = await waitForFit(alice, (await runFit(alice, model.id, { ...spec, predictors: ['x1', 'x2', 'g'], cv: { kind: 'column', column: 'n3' } })).id);
+    expect(fit.status).toBe('failed');
+    expect(fit.message).toMatch(/fold column "n3" has -?[0-9.]+ in row \d+; fold ids are whole numbers/);
+    expect(fit.results).toBeNull();
+  });
+
+  it('a holdout split: the chosen lambda is scored on rows the fit never saw; maxTerms ends the path', async () => {
+    const fit = await waitForFit(alice, (await runFit(alice, model.id, { ...spec, holdout: { share: 0.2, seed: 4 }, path: { kind: 'automatic', pathLength: 30, maxTerms: 3 } })).id);
+    expect(fit.status, fit.message ?? '').toBe('finished');
+    const r = fit.results!;
+    expect(r.rowsFitted).toBe(240);
+    const h = r.evaluation.holdout!;
+    expect(h.rowCount).toBe(60);
+    expect(h.metrics.find((m) => m.name === 'rSquared')!.value).toBeGreaterThan(0.5);
+    expect(r.evaluation.diagnostics!.rows).toBe('holdout');
+    // The path stops after the first lambda with more than 3 terms.
+    const last = r.nonzero.length - 1;
+    expect(r.nonzero[last]).toBeGreaterThan(3);
+    expect(r.nonzero.slice(0, last).every((k) => k <= 3)).toBe(true);
+  });
 });
