@@ -16,24 +16,23 @@ export function PenaltySection({ form, columns, extra }: { form: UseFormReturn<F
   const { errors } = form.formState;
   const penalty = form.watch('penalty');
   const l1Error = errorAt(errors, extra, 'l1Share');
+  // One registration for the radio group: react-hook-form keeps one set of options per field name.
+  const penaltyField = form.register('penalty', {
+    onChange: (e: { target: { value: string } }) => {
+      const p = e.target.value;
+      // Fields of the other penalties do not apply: clear them so the schema does not object.
+      if (p !== 'elastic-net') form.setValue('l1Share', undefined);
+      if (p !== 'group-lasso') form.setValue('groups', undefined);
+      else form.setValue('groups', categoricalGroups(columns, form.getValues('predictors')));
+      void form.trigger(['l1Share', 'groups']);
+    },
+  });
   return (
     <FormSection title="Penalty">
       <div role="radiogroup" aria-label="Penalty" className="grid gap-2 sm:grid-cols-3">
         {PENALTIES.map((p) => (
           <label key={p} className="flex gap-2 rounded-md border border-slate-200 p-3 text-sm has-[:checked]:border-lariat-600 has-[:checked]:bg-lariat-50 dark:border-slate-700 dark:has-[:checked]:bg-lariat-950">
-            <input
-              type="radio"
-              value={p}
-              {...form.register('penalty', {
-                onChange: () => {
-                  // Fields of the other penalties do not apply: clear them so the schema does not object.
-                  if (p !== 'elastic-net') form.setValue('l1Share', undefined);
-                  if (p !== 'group-lasso') form.setValue('groups', undefined);
-                  else form.setValue('groups', categoricalGroups(columns, form.getValues('predictors')));
-                  void form.trigger(['l1Share', 'groups']);
-                },
-              })}
-            />
+            <input type="radio" value={p} {...penaltyField} />
             <span>
               <span className="font-bold">{PENALTY_LABELS[p]}</span>
               <span className="block text-xs text-slate-600 dark:text-slate-400">{HINTS[p]}</span>
