@@ -6,6 +6,7 @@
  * every page this feature adds.
  */
 import fs from 'node:fs';
+import Papa from 'papaparse';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkA11y, expectVisible, launchBrowser, newContext } from '../support/browser';
@@ -22,9 +23,9 @@ let workspaceId = '';
 let firstFitUrl = '';
 
 /** Columns and rows of the demo file, read here so the expectations follow the data. */
-const demoLines = fs.readFileSync(DEMO_CSV, 'utf8').trim().split('\n');
-const demoHeader = demoLines[0].split(',');
-const demoRows = demoLines.length - 1;
+const demo = Papa.parse<string[]>(fs.readFileSync(DEMO_CSV, 'utf8'), { skipEmptyLines: true });
+const demoHeader = demo.data[0];
+const demoRows = demo.data.length - 1;
 const sensorColumns = demoHeader.filter((c) => /^sensor_/.test(c));
 
 beforeAll(async () => {
@@ -138,9 +139,10 @@ describe('fits in the browser', () => {
     expect(drawn).toBeLessThanOrEqual(10);
     // Hovering a path names it.
     const plot = paths.locator('svg').first();
+    await plot.scrollIntoViewIfNeeded();
     const box = await plot.boundingBox();
     if (!box) throw new Error('The path chart has no box');
-    await page.mouse.move(box.x + box.width * 0.7, box.y + box.height * 0.5);
+    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height * 0.5, { steps: 5 });
     await expectVisible(page.getByText(/\(position \d+\)/));
 
     const coefficients = page.getByRole('table', { name: 'Coefficients at the chosen lambda' });
@@ -176,13 +178,24 @@ describe('fits in the browser', () => {
   it('applies the fit to the dataset version and downloads the predictions', async () => {
     await expectVisible(page.getByRole('heading', { name: 'Apply to a table' }));
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download predictions' }).click()]);
-    const file = await download.path();
-    const lines = fs.readFileSync(file, 'utf8').trim().split('\n');
-    expect(lines[0].split(',').slice(0, 2)).toEqual(['row', 'linear_predictor']);
-    // One prediction per row of the table it was applied to.
-    expect(lines.length - 1).toBe(demoRows);
-    const scored = lines.slice(1).filter((l) => Number.isFinite(Number(l.split(',')[1])) && l.split(',')[1] !== '');
+    const parsed = Papa.parse<Record<string, string>>(fs.readFileSync(await download.path(), 'utf8'), { header: true, skipEmptyLines: true, comments: '#' });
+    expect(parsed.meta.fields?.slice(0, 2)).toEqual(['row', 'linear_predictor']);
+    // The cautions travel with the file, as comment lines after the rows.
+    expect(fs.readFileSync(await download.path(), 'utf8')).toContain('# Selected is not causal.');
+    // One prediction per row of the table it was applied to; a row is either scored or says why not.
+    expect(parsed.data.length).toBe(demoRows);
+    const scored = parsed.data.filter((r) => r.linear_predictor !== '' && Number.isFinite(Number(r.linear_predictor)));
     expect(scored.length).toBeGreaterThan(0);
+    for (const r of parsed.data) if (r.linear_predictor === '') expect(r.error).not.toBe('');
+    // The demo's `notes` column is empty in many rows: none of those rows is scored, and the error
+    // names a missing column (notes, or another column missing in the same row).
+    const notes = demoHeader.indexOf('notes');
+    const notesMissing = demo.data.slice(1).map((r) => r[notes].trim() === '');
+    expect(notesMissing.filter(Boolean).length).toBeGreaterThan(0);
+    parsed.data.forEach((r, i) => {
+      if (notesMissing[i]) expect(`${r.linear_predictor}|${r.error}`).toMatch(/^\|.*missing/);
+    });
+    expect(parsed.data.some((r) => /notes/.test(r.error))).toBe(true);
   });
 
   it('runs a second version with a changed spec and lists both versions', async () => {
