@@ -24,6 +24,8 @@ const schema = z.object({
   LARIAT_JOB_RETRIES: z.coerce.number().int().min(0).default(3),
   /** Engine threads per worker process (each runs one job at a time). */
   LARIAT_WORKER_THREADS: z.coerce.number().int().min(1).max(64).default(1),
+  /** CPU priority of fit workers (0 = as the API, 19 = lowest): the API stays responsive beside them. */
+  LARIAT_WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
 });
 
 export type Config = z.infer<typeof schema> & { publicUrl: string; sessionSecret: string };

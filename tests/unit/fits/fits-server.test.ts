@@ -94,7 +94,8 @@ describe('row-wise prediction', () => {
   });
   it('fills a gap with the stored imputation value', () => {
     const table = parseCsvText('x,g\n,b\n', 't.csv');
-    const out = predictRowsWithErrors(table, { family: 'gaussian', encoding: { columns: [{ ...encoding.columns[0], imputeValue: 3 }, encoding.columns[1]] }, intercept: 0, coefficients: [2, 0, -1] });
+    const filled = { column: 'x', kind: 'numeric' as const, term: 0, imputeValue: 3 };
+    const out = predictRowsWithErrors(table, { family: 'gaussian', encoding: { columns: [filled, encoding.columns[1]] }, intercept: 0, coefficients: [2, 0, -1] });
     expect(out.errors).toEqual([null]);
     expect(out.linearPredictor[0]).toBe(5);
   });
