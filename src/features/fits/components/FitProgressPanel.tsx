@@ -27,7 +27,12 @@ export function FitProgressPanel({ workspaceId, fitId, initial, canCancel }: { w
       <h2 id="progress-heading" className="text-lg font-bold">
         {FIT_STATUS_LABELS[p.status]}
       </h2>
-      <p className="text-sm text-slate-700 dark:text-slate-300">{STAGE_WORDS[p.stage]}{p.message ? `: ${p.message}` : ''}</p>
+      {(p.stage !== 'waiting' || p.message) && (
+        <p className="text-sm text-slate-700 dark:text-slate-300">
+          {STAGE_WORDS[p.stage]}
+          {p.message ? `: ${p.message}` : ''}
+        </p>
+      )}
       <div className="space-y-1">
         <div className="flex justify-between text-sm">
           <span>Progress</span>
