@@ -1,7 +1,8 @@
 /** One model: its question, and its versions side by side with key metrics and what changed. */
+import type { ReactNode } from 'react';
 import { Link, useParams } from 'react-router';
 import { FAMILY_LABELS, type ModelDetailDto } from '@shared/models';
-import { CV_METRIC_LABELS, type CvMetric, type SpecChangeDto } from '@shared/fits';
+import { CV_METRIC_LABELS, PENALTY_LABELS, type CvMetric } from '@shared/fits';
 import { paths } from '@/app/paths';
 import { Cautions } from '@/components/Cautions';
 import { Loading } from '@/components/Loading';
@@ -13,7 +14,7 @@ import { useModel } from '../api/model';
 import { FitStatusBadge } from './FitStatusBadge';
 import { formatWhen } from './format';
 
-type Version = ModelDetailDto['versions'][number] & { specChanges?: SpecChangeDto[] | null };
+type Version = ModelDetailDto['versions'][number];
 
 const RULE_WORDS = { minimum: 'CV minimum', 'one-standard-error': 'One standard error', manual: 'Chosen by hand', last: 'End of the path' } as const;
 const LINK = 'font-bold text-lariat-800 underline dark:text-lariat-200';
@@ -25,11 +26,14 @@ export function ModelPage() {
   if (model.isPending) return <Loading label="Loading the model…" />;
   if (model.error) return <Notice tone="error">{model.error.message}</Notice>;
   const m = model.data;
-  const versions = m.versions as Version[];
+  const versions = m.versions;
   const canRun = role === 'admin' || role === 'analyst';
-  const rows: [string, (v: Version) => React.ReactNode][] = [
+  const rows: [string, (v: Version) => ReactNode][] = [
     ['Status', (v) => <FitStatusBadge status={v.status} unconverged={v.unconverged} />],
     ['Dataset version', (v) => `${v.datasetVersion.datasetName}, version ${v.datasetVersion.number}`],
+    ['Penalty', (v) => (v.spec.penalty === 'elastic-net' ? `${PENALTY_LABELS['elastic-net']}, L1 share ${v.spec.l1Share}` : PENALTY_LABELS[v.spec.penalty])],
+    ['Predictors', (v) => `${v.spec.predictors.length} columns`],
+    ['Cross-validation', (v) => (v.spec.cv.kind === 'none' ? 'None' : v.spec.cv.kind === 'folds' ? `${v.spec.cv.folds} folds, seed ${v.spec.cv.seed}` : `Folds from ${v.spec.cv.column}`)],
     ['Lambda', (v) => (v.metrics.lambda === null ? '–' : formatStat(v.metrics.lambda))],
     ['Chosen by', (v) => (v.metrics.chosenRule ? RULE_WORDS[v.metrics.chosenRule] : '–')],
     ['Nonzero terms', (v) => v.metrics.nonzero ?? '–'],
@@ -40,11 +44,7 @@ export function ModelPage() {
     [
       'Changed from the previous version',
       (v) =>
-        v.specChanges === undefined ? (
-          <Link className={LINK} to={paths.workspace.fit.getHref(workspaceId, v.id)}>
-            See the version
-          </Link>
-        ) : v.specChanges === null ? (
+        v.specChanges === null ? (
           'First version'
         ) : v.specChanges.length === 0 ? (
           'Same spec'
