@@ -5,7 +5,7 @@ import type { EvaluateInput } from '../fits/compute/evaluate';
 
 export type EngineTask =
   | { kind: 'path'; table: EngineTable; spec: FitSpec }
-  | { kind: 'fold'; table: EngineTable; spec: FitSpec; lambda: number[]; fold: number }
+  | { kind: 'fold'; table: EngineTable; spec: FitSpec; lambda: number[]; fold: number; fitId: string }
   | { kind: 'evaluate'; input: EvaluateInput };
 
 export type FromEngine =

@@ -21,7 +21,7 @@ function run(task: EngineTask): unknown {
       }
     });
   }
-  if (task.kind === 'fold') return runFold(task.table, task.spec, task.lambda, task.fold);
+  if (task.kind === 'fold') return runFold(task.table, task.spec, task.lambda, task.fold, task.fitId);
   return evaluateAt(task.input);
 }
 

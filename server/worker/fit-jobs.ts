@@ -178,7 +178,7 @@ async function runFoldStep(deps: FitWorkerDeps, thread: EngineRunner, job: FoldJ
   const [done] = await db.select({ fold: fitFolds.fold }).from(fitFolds).where(and(eq(fitFolds.fitId, fit.id), eq(fitFolds.fold, job.fold)));
   if (!done) {
     const tables = await tablesOf(db, fit.spec);
-    const out = await runWatched<FoldOutput>(deps, thread, fit.id, { kind: 'fold', table: tables.train, spec: fit.spec, lambda: fit.results.lambda, fold: job.fold });
+    const out = await runWatched<FoldOutput>(deps, thread, fit.id, { kind: 'fold', table: tables.train, spec: fit.spec, lambda: fit.results.lambda, fold: job.fold, fitId: fit.id });
     if (out === 'cancelled') return;
     await db
       .insert(fitFolds)

@@ -12,7 +12,7 @@ export class InlineEngine implements EngineRunner {
   run<T>(task: EngineTask, onProgress?: (done: number, total: number) => void): Promise<T> {
     try {
       if (task.kind === 'path') return Promise.resolve(runPath(task.table, task.spec, onProgress) as T);
-      if (task.kind === 'fold') return Promise.resolve(runFold(task.table, task.spec, task.lambda, task.fold) as T);
+      if (task.kind === 'fold') return Promise.resolve(runFold(task.table, task.spec, task.lambda, task.fold, task.fitId) as T);
       return Promise.resolve(evaluateAt(task.input) as T);
     } catch (error) {
       return Promise.reject(error as Error);
