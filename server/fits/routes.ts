@@ -17,7 +17,7 @@ import { fromZod, HttpError, notFound } from '../http/errors';
 import { registerFitDependents } from './dependents';
 import { cancelFit } from './service/cancel';
 import { chooseLambda } from './service/choose';
-import { getFitDetail, getProgress } from './service/detail';
+import { getFitDetail, getProgress, requireFit } from './service/detail';
 import { createModel, getModel, listModels } from './service/models';
 import { predictCsvFile, predictDatasetVersion, type PredictionsCsv } from './service/predictions';
 import { runFit } from './service/run';
@@ -79,6 +79,7 @@ export function fitsRouter(ctx: AppContext): Router {
   });
   router.post(`${base}/fits/:fitId/predictions`, anyMember, async (req, res) => {
     const fitId = idParam(req, 'fitId');
+    await requireFit(ctx.db, ws(req), fitId); // 404 before reading a stranger's upload
     const limitBytes = Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024);
     let upload;
     try {

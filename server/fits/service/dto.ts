@@ -58,7 +58,7 @@ export function modelListItem(m: ModelRow, versions: { count: number; latest: Fi
 export function progressDto(f: FitSummaryRow, now = Date.now()): FitProgressDto {
   const p = f.progress;
   const ended = f.status === 'finished' || f.status === 'failed' || f.status === 'cancelled';
-  const elapsedMs = f.startedAt ? (f.finishedAt ?? (ended ? new Date(now) : new Date(now))).getTime() - f.startedAt.getTime() : 0;
+  const elapsedMs = f.startedAt ? (f.finishedAt?.getTime() ?? now) - f.startedAt.getTime() : 0;
   const pathShare = p.lambdaCount ? p.lambdaIndex / p.lambdaCount : 0;
   const units = 1 + p.foldsTotal;
   let fraction = f.status === 'finished' ? 1 : p.stage === 'path' || p.stage === 'waiting' ? pathShare / units : (1 + p.foldsDone) / units;

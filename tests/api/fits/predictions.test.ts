@@ -50,7 +50,7 @@ beforeAll(async () => {
   const g = await createModel(alice, { name: 'Apply y', datasetId: data.datasetId, outcome: 'y', family: 'gaussian' });
   const b = await createModel(alice, { name: 'Apply yes', datasetId: data.datasetId, outcome: 'yes', family: 'binomial' });
   const spec = { predictors: ['x1', 'x2', 'n1', 'g'], penalty: 'lasso' as const, path: { kind: 'automatic' as const, pathLength: 15 }, cv: { kind: 'folds' as const, folds: 3, seed: 5 } };
-  [gaussian, binomial] = await Promise.all([runFit(alice, g.id, spec), runFit(alice, b.id, spec)].map(async (p) => waitForFit(alice, (await p).id)));
+  [gaussian, binomial] = await Promise.all([runFit(alice, g.id, spec), runFit(alice, b.id, { ...spec, metric: 'auc' })].map(async (p) => waitForFit(alice, (await p).id)));
   expect(gaussian.status).toBe('finished');
   expect(binomial.status, binomial.message ?? '').toBe('finished');
 });
@@ -58,6 +58,23 @@ afterAll(async () => closeFitsApp(t));
 
 const upload = (fit: FitDetailDto, csv: string) =>
   withCsrf(alice.agent.post(`${apiBase(alice)}/fits/${fit.id}/predictions`), alice.csrf).attach('file', Buffer.from(csv), 'new-rows.csv');
+
+describe('a binomial fit chosen by AUC', () => {
+  it('chooses the lambda with the highest mean AUC (higher is better for AUC); diagnostics give ROC and calibration', () => {
+    const cv = binomial.results!.cv!;
+    expect(cv.metric).toBe('auc');
+    const best = Math.max(...cv.mean.filter((v) => !Number.isNaN(v)));
+    expect(cv.mean[cv.minimum.index]).toBe(best);
+    expect(cv.mean.indexOf(best)).toBe(cv.minimum.index);
+    const d = binomial.results!.evaluation.diagnostics!;
+    if (d.family !== 'binomial') throw new Error('binomial diagnostics expected');
+    expect(d.roc[0]).toMatchObject({ falsePositiveRate: 0, truePositiveRate: 0 });
+    expect(d.roc[d.roc.length - 1]).toMatchObject({ falsePositiveRate: 1, truePositiveRate: 1 });
+    expect(d.auc).toBeGreaterThan(0.8);
+    expect(d.calibration.reduce((n, b) => n + b.count, 0)).toBe(d.rowCount);
+    expect(d.positiveClass).toBe('yes');
+  });
+});
 
 describe('predictions', () => {
   it('a dataset version: one line per row, equal to b0 + x\'b at the chosen lambda', async () => {
