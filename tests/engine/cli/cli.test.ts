@@ -130,7 +130,7 @@ describe('lariat fit (spawned CLI)', () => {
     const shallow = fitJson(...args, '--no-standardize', '--path-decades', '1');
     const last = shallow.lambda.length - 1;
     // Diabetes on the raw scale: the CV error still falls at 1 decade; standardized, its minimum is
-    // near 2 decades, well inside a 6-decade path (docs/decisions/0006-path-depth.md).
+    // near 2 decades, well inside a 6-decade path (docs/decisions/0011-path-depth.md).
     expect(shallow.cv?.minimum.index).toBe(last);
     expect(shallow.notes.join('\n')).toContain('cross-validation minimum is at the smallest lambda');
     const deep = fitJson(...args, '--path-decades', '6');
