@@ -151,6 +151,8 @@ export interface PathOptions {
    * full-data grid). Default: no limit.
    */
   maxTerms?: number;
+  /** Called after each lambda is solved (fit workers report live progress with it). */
+  onLambda?: (done: number, total: number) => void;
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
   /**

@@ -83,6 +83,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
     }, lipschitz);
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
+    options.onLambda?.(result.lambda.length, grid.length);
     const terms = result.nonzero[result.nonzero.length - 1];
     if (automatic && options.maxTerms !== undefined && terms > options.maxTerms && result.lambda.length < grid.length) {
       notes.push(`path ended after ${result.lambda.length} of ${grid.length} lambdas: the model at lambda ${lambda} has ${terms} nonzero terms, more than the limit of ${options.maxTerms}`);
