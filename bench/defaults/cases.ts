@@ -1,5 +1,5 @@
 /**
- * The data behind the default path depth and tolerance (docs/decisions/0006, 0007): the bundled open
+ * The data behind the default path depth and tolerance (docs/decisions/0011, 0012): the bundled open
  * and demo data, the engine benchmark's generator (bench/engine/data.ts), and a mixed-scale,
  * correlated, unstandardized generator that looks more like measurements than the benchmark's
  * unit-variance columns. Each case is a table and a spec without path options; the scripts add

@@ -1,5 +1,5 @@
 /**
- * How deep must the automatic path go? (docs/decisions/0006-path-depth.md). For each case: fit a
+ * How deep must the automatic path go? (docs/decisions/0011-path-depth.md). For each case: fit a
  * deep path (DEEP decades, PER_DECADE lambdas per decade) with 10-fold CV, then report where the
  * CV minimum and the one-standard-error choice fall (in decades below lambda_max), and what a path
  * cut at D decades would lose: the CV error's excess over the deep path's minimum (in standard

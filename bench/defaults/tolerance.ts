@@ -1,6 +1,6 @@
 /**
  * Which relative duality gap makes the coefficients stable to the digits the screens show?
- * (docs/decisions/0007-default-tolerance.md). The results screens show 4 significant digits
+ * (docs/decisions/0012-default-tolerance.md). The results screens show 4 significant digits
  * (src/features/datasets/components/format.ts, formatNumber). For each case: a reference path at
  * tolerance 1e-12, then the same path at each candidate tolerance; per candidate:
  *  - flips: (lambda, term) cells whose 4-significant-digit display differs from the reference's

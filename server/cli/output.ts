@@ -48,7 +48,7 @@ function warningsOf(path: PathResult): string[] {
 
 /**
  * The CV minimum at the smallest lambda means the best model may lie beyond the path's end (likely
- * with --no-standardize on columns of very different scales; docs/decisions/0006-path-depth.md).
+ * with --no-standardize on columns of very different scales; docs/decisions/0011-path-depth.md).
  */
 function cvNotes(path: PathResult, cv: CvResult | null): string[] {
   if (!cv || path.lambda.length < 2 || cv.minimum.index !== path.lambda.length - 1) return [];

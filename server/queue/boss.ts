@@ -1,5 +1,5 @@
 /**
- * The job queue: pg-boss on Lariat's own PostgreSQL (DESIGN.md "Scale"). Generic: start, stop,
+ * The job queue: pg-boss on Lariat's own PostgreSQL (docs/decisions/0006-fits-storage-and-queue.md). Generic: start, stop,
  * send, work. Workers fetch one job at a time per slot and keep it alive with a heartbeat, so the
  * expiry can be short: a worker process that dies stops its heartbeat, pg-boss's maintenance expires
  * the job after LARIAT_JOB_EXPIRE_SECONDS and hands it to another worker as a retry

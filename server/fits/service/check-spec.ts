@@ -1,6 +1,6 @@
 /**
  * A fit request checked against the model and the dataset version's column schema, before anything
- * is stored or queued: each problem is a 400 naming the spec field (DESIGN.md bad input).
+ * is stored or queued: each problem is a 400 naming the spec field (DEVELOPERS.md, bad input).
  */
 import type { ColumnSchema } from '../../../shared/datasets';
 import { familyIssues, type FitRequest } from '../../../shared/fits';

@@ -61,7 +61,11 @@ describe('lariat fit (spawned CLI)', () => {
     expect(L).toBe(8);
     // The contract's keys, written out from docs/cli.md (not taken from the code under test).
     for (const key of ['lambda', 'intercept', 'coefficients', 'dualityGap', 'iterations', 'status', 'cv', 'devianceExplained', 'nonzero', 'lambdaMax']) expect(out).toHaveProperty(key);
-    for (const old of ['devianceRatio', 'alpha', 'lambdaRatio']) expect(out).not.toHaveProperty(old);
+    const documented = [
+      'lambda', 'intercept', 'coefficients', 'dualityGap', 'iterations', 'status', 'cv', 'family', 'lambdaMax', 'standardizedIntercept',
+      'standardizedCoefficients', 'nonzero', 'devianceExplained', 'notes', 'cautions', 'warnings', 'engineVersion', 'timing',
+    ];
+    expect(Object.keys(out).sort()).toEqual(documented.sort());
     for (const key of ['folds', 'metric', 'mean', 'standardError', 'minimum', 'oneStandardError']) expect(out.cv).toHaveProperty(key);
     for (const key of ['intercept', 'dualityGap', 'iterations', 'status'] as const) expect(out[key]).toHaveLength(L);
     expect(Object.keys(out.coefficients)).toEqual(['a', 'b', 'colour=blue', 'colour=green', 'colour=red']);
@@ -130,7 +134,7 @@ describe('lariat fit (spawned CLI)', () => {
     const shallow = fitJson(...args, '--no-standardize', '--path-decades', '1');
     const last = shallow.lambda.length - 1;
     // Diabetes on the raw scale: the CV error still falls at 1 decade; standardized, its minimum is
-    // near 2 decades, well inside a 6-decade path (docs/decisions/0006-path-depth.md).
+    // near 2 decades, well inside a 6-decade path (docs/decisions/0011-path-depth.md).
     expect(shallow.cv?.minimum.index).toBe(last);
     expect(shallow.notes.join('\n')).toContain('cross-validation minimum is at the smallest lambda');
     const deep = fitJson(...args, '--path-decades', '6');
