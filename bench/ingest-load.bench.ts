@@ -11,25 +11,11 @@ import http from 'node:http';
 import path from 'node:path';
 import { generateCsv } from './ingest/generate';
 import { startServer } from './ingest/server';
+import { signUp, type BenchSession } from './ingest/session';
 
 const TARGET_P95_MS = 250;
 
-interface Session {
-  cookie: string;
-  csrf: string;
-  workspaceId: string;
-}
-
-async function signUp(url: string, who: string): Promise<Session> {
-  const res = await fetch(`${url}/api/auth/sign-up`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: `bench-load-${who}-${Date.now()}@example.test`, password: 'correct horse battery staple', name: `Bench ${who}` }),
-  });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
-  const body = (await res.json()) as { csrfToken: string; memberships: { workspaceId: string }[] };
-  return { cookie: res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; '), csrf: body.csrfToken, workspaceId: body.memberships[0].workspaceId };
-}
+type Session = BenchSession;
 
 function uploadFile(url: string, s: Session, filePath: string): Promise<{ status: number; body: string; seconds: number }> {
   const boundary = 'lariat-bench-load-boundary';
@@ -103,7 +89,7 @@ export async function run(): Promise<void> {
   console.log(`input: two uploads of ${rows} rows x 20 columns, ${mb.toFixed(1)} MB each (${filePath})`);
   const server = await startServer({ LARIAT_UPLOAD_LIMIT_MB: String(Math.ceil(mb) + 10) });
   try {
-    const [a, b, reader] = [await signUp(server.url, 'a'), await signUp(server.url, 'b'), await signUp(server.url, 'reader')];
+    const [a, b, reader] = [await signUp(server.url, server.mailbox, 'a'), await signUp(server.url, server.mailbox, 'b'), await signUp(server.url, server.mailbox, 'reader')];
     for (let i = 0; i < 10; i++) await timedRead(server.url, reader); // warm-up
     const idle: number[] = [];
     for (let i = 0; i < 100; i++) idle.push(await timedRead(server.url, reader));

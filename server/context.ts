@@ -1,5 +1,6 @@
 import type { Config } from './config';
 import type { Database } from './db/client';
+import type { FitJobSender } from './fits/jobs';
 import type { FakeSmtp } from './mail/fake-smtp';
 import type { Queue } from './queue/queue';
 
@@ -22,4 +23,6 @@ export interface AppContext {
   queue: Queue;
   /** The local fake SMTP server's captured messages (development and test only). */
   devMailbox?: FakeSmtp;
+  /** Sends fit jobs to the queue (server/queue/boss.ts); absent when no queue was started. */
+  fitJobs?: FitJobSender;
 }

@@ -10,6 +10,9 @@ import { startWorkers } from './queue/workers';
 import { productionDatabaseProblems } from './security/production-checks';
 import { DEMO_ACCOUNT } from './seed/demo-account';
 import { outboxEnabled } from './dev/outbox';
+import { FIT_QUEUES } from './fits/jobs';
+import { JobQueue } from './queue/boss';
+import { queueSettings } from './worker/start';
 
 const config = loadConfig();
 const database = connectDatabase(config.DATABASE_URL, 10, config.LARIAT_DB_CONNECT_TIMEOUT_MS);
@@ -34,7 +37,9 @@ if (!smtpUrl) {
 }
 
 const queue = await startQueue(config.DATABASE_URL);
-const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, queue };
+// The API only sends fit jobs; `npm run worker` processes run them.
+const fitJobs = await JobQueue.start(queueSettings(config, config.DATABASE_URL), FIT_QUEUES);
+const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, queue, fitJobs };
 await startWorkers(ctx);
 const app = createApp(ctx);
 const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
@@ -56,6 +61,7 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
 async function shutdown(): Promise<void> {
   server.close();
   await queue.stop();
+  await fitJobs.stop();
   await devMailbox?.close();
   await database.close();
   process.exit(0);

@@ -22,7 +22,6 @@ const acceptInvitation = () =>
   import('@/features/members/components/AcceptInvitationPage').then((m) => ({ Component: m.AcceptInvitationPage }));
 const newWorkspace = () => import('@/features/workspaces/components/NewWorkspacePage').then((m) => ({ Component: m.NewWorkspacePage }));
 const members = () => import('@/features/members/components/MembersPage').then((m) => ({ Component: m.MembersPage }));
-const models = () => import('@/features/models/components/ModelsEmptyPage').then((m) => ({ Component: m.ModelsEmptyPage }));
 const reviews = () => import('@/features/reviews/components/ReviewsEmptyPage').then((m) => ({ Component: m.ReviewsEmptyPage }));
 const releases = () => import('@/features/releases/components/ReleasesEmptyPage').then((m) => ({ Component: m.ReleasesEmptyPage }));
 const outbox = () => import('./routes/OutboxRoute').then((m) => ({ Component: m.OutboxRoute }));
@@ -55,7 +54,6 @@ export function createAppRouter() {
               children: [
                 { index: true, element: <WorkspaceIndex /> },
                 ...workspaceFeatureRoutes,
-                { path: paths.workspace.models.path, lazy: models },
                 { path: paths.workspace.reviews.path, lazy: reviews },
                 { path: paths.workspace.releases.path, lazy: releases },
                 { path: paths.workspace.members.path, lazy: members },

@@ -45,7 +45,7 @@ describe('accounts', () => {
   it('moves between the workspace areas, each with an honest empty state', async () => {
     const nav = page.getByRole('navigation', { name: 'Workspace' });
     const areas: [string, RegExp][] = [
-      ['Models', /Model building is coming/],
+      ['Models', /No models yet/],
       ['Reviews', /Reviews are coming/],
       ['Releases', /Releases are coming/],
     ];

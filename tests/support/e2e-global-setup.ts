@@ -1,7 +1,7 @@
 /**
  * Once per e2e run: a fresh database copied from the migrated template, the real server
  * (`npx tsx server/main.ts`, NODE_ENV=test, serving dist/client) on a free port with its fake SMTP
- * server, and the base URL handed to the test files through `inject('baseUrl')`.
+ * server, one fit worker (`npx tsx server/worker/main.ts`), and the base URL handed to the test files through `inject('baseUrl')`.
  */
 import { execSync, spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
@@ -121,10 +121,19 @@ export default async function setup(project: TestProject): Promise<() => Promise
   };
   server.stdout?.on('data', keep);
   server.stderr?.on('data', keep);
+  // One fit worker beside the server, as `npm start` runs it.
+  const worker = spawn('npx', ['tsx', 'server/worker/main.ts'], {
+    detached: true,
+    stdio: ['ignore', 'pipe', 'pipe'],
+    env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: database.url, LARIAT_QUEUE_POLL_MS: '250', LARIAT_WORKER_NAME: 'e2e-worker' },
+  });
+  worker.stdout?.on('data', keep);
+  worker.stderr?.on('data', keep);
 
   try {
     await waitForHealth(baseUrl, server, () => log);
   } catch (error) {
+    await stopServer(worker);
     await stopServer(server);
     await database.drop();
     throw error;
@@ -133,6 +142,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
   project.provide('mailLog', mailLog);
 
   return async () => {
+    await stopServer(worker);
     await stopServer(server);
     if (process.env.LARIAT_E2E_SERVER_LOG) console.log(log);
     await database.drop();

@@ -34,10 +34,14 @@ export function detectDelimiter(sample: string, fileName: string): string {
   }
   const lines = text.split('\n').filter((l) => l.trim() !== '').slice(0, 50);
   if (lines.length > 0) {
-    const counts = lines.map((l) => splitWhitespace(l).length);
+    let counts = lines.map((l) => splitWhitespace(l).length);
+    const named = counts[0];
+    // A header without a name for the row-name column (whitespace.ts): judge the rows below it, but
+    // credit only the named columns, so a delimiter that explains the file as well still wins.
+    if (counts.length > 2 && counts[1] === counts[0] + 1) counts = counts.slice(1);
     const fields = counts[0];
     const consistent = counts.filter((n) => n === fields).length / counts.length;
-    const score = fields < 2 ? 0 : consistent * 1000 + Math.min(fields, 999);
+    const score = fields < 2 ? 0 : consistent * 1000 + Math.min(named, 999);
     if (score > best.score) return WHITESPACE;
   }
   return best.delimiter;

@@ -4,6 +4,10 @@
  * split into tokens: a run of characters other than space and tab, or a quoted token ('...' or
  * "..."), whose quotes are removed and inside which spaces are kept. Lines are read as bytes and
  * split once each; cells go to the same RowCollector as the CSV readers.
+ *
+ * Some tools write a row name before each row but no name for that column in the header (one name
+ * fewer than the fields of every row): when the first data row has exactly one field more than the
+ * header, the first column is named `row_name`.
  */
 import fs from 'node:fs';
 import type { RowCollector } from './collect';
@@ -13,6 +17,8 @@ import { Utf8Check } from './utf8-check';
 
 /** The delimiter value that stands for "runs of spaces or tabs" (in the parse report too). */
 export const WHITESPACE = 'whitespace';
+/** The name given to an unnamed first column of row names. */
+export const ROW_NAME_COLUMN = 'row_name';
 
 const isBlank = (ch: string) => ch === ' ' || ch === '\t';
 
@@ -53,11 +59,31 @@ export async function readWhitespace(
   const check = new Utf8Check(fileName);
   let batch: string[][] = [];
   const cells = (j: number) => batch.map((row) => row[j]);
+  // The header row waits for the first data row, which tells whether it lacks a row-name column.
+  let names: string[] | null = null;
+  let blanksAfterNames = 0;
+  const setNames = (fields: number | null) => {
+    const header = names!;
+    c.setHeader(fields === header.length + 1 ? [ROW_NAME_COLUMN, ...header] : header);
+    for (; blanksAfterNames > 0; blanksAfterNames--) c.admit(1, () => true);
+  };
   const onLine = (line: string) => {
     const row = splitWhitespace(line);
+    if (c.header === null && names === null) {
+      if (c.firstRowIsData || row.length === 0) {
+        c.setHeader(row.length === 0 ? [''] : row);
+        if (!c.firstRowIsData) return;
+      } else {
+        names = row;
+        return;
+      }
+    }
     if (c.header === null) {
-      c.setHeader(row.length === 0 ? [''] : row);
-      if (!c.firstRowIsData) return;
+      if (row.length === 0) {
+        blanksAfterNames++;
+        return;
+      }
+      setNames(row.length);
     }
     if (!c.admit(Math.max(1, row.length), () => row.length === 0)) return;
     const at = c.inBatch++;
@@ -88,6 +114,7 @@ export async function readWhitespace(
   // readers do (a blank line, taken back at the end).
   pending.push(decoder.decode(check.finish()));
   onLine(pending.join(''));
+  if (c.header === null && names !== null) setNames(null); // names and no data row: the collector says so
   c.finish(cells);
   return { byteOrderMark: check.byteOrderMark };
 }

@@ -3,7 +3,7 @@
  * first served); beyond that the upload is refused with 429 and a Retry-After. Each running ingest
  * holds a database connection for its whole transaction, so without a cap a few large uploads would
  * take every connection of the pool and starve sign-in and every other request
- * (docs/decisions/0009-ingest-cap-and-upload-hardening.md).
+ * (docs/decisions/0010-ingest-cap-and-upload-hardening.md).
  */
 import { HttpError } from '../../http/errors';
 

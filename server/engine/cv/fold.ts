@@ -35,6 +35,8 @@ export interface FoldLosses {
   losses: Partial<Record<CvMetricName, number[]>>;
   /** Solver status of the fold's fit at each lambda. */
   statuses: SolveStatus[];
+  /** Design columns with a nonzero coefficient at each lambda (for selection stability). */
+  support: number[][];
 }
 
 export const METRICS: Record<Family, CvMetricName[]> = {
@@ -118,7 +120,12 @@ export function runFoldOnDesign(
     const scores = scoreHeldOut(options.family, testSet.y, eta);
     for (const metric of METRICS[options.family]) losses[metric]?.push(scores[metric]);
   }
-  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status) };
+  const support = fit.coefficients.map((b) => {
+    const kept: number[] = [];
+    for (let j = 0; j < b.length; j++) if (b[j] !== 0) kept.push(j);
+    return kept;
+  });
+  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status), support };
 }
 
 /**

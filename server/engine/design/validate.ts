@@ -68,6 +68,7 @@ function checkOptions(spec: FitSpec): void {
   if (spec.maxTerms !== undefined && !(Number.isInteger(spec.maxTerms) && spec.maxTerms >= 1)) {
     fail(`max terms must be a whole number >= 1; got ${spec.maxTerms}`, 'maxTerms');
   }
+  if (spec.maxTerms !== undefined && spec.lambda) fail('max terms ends the automatic path; it cannot be combined with explicit lambdas', 'maxTerms');
   if (!(spec.tolerance > 0 && Number.isFinite(spec.tolerance))) fail(`tolerance must be a positive number; got ${spec.tolerance}`, 'tolerance');
   if (!(Number.isInteger(spec.maxIterations) && spec.maxIterations >= 1)) {
     fail(`iteration limit must be a whole number >= 1; got ${spec.maxIterations}`, 'maxIterations');

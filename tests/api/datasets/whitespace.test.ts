@@ -62,6 +62,15 @@ describe('whitespace-separated uploads', () => {
     expect(v.report.notes).toContain('Every name in the first row is a number: if that row is data, upload the file again saying that the first row is data.');
   });
 
+  it('names an unnamed column of row names row_name (a header one name short, as some tools write)', async () => {
+    const file = ['"height" "weight"', '"a1" 1.72 68.5', '"a2" 1.80 NA', '"a3" 1.65 59.0', '"a4" 1.90 75.25', ''].join('\n');
+    const res = await upload(alice, file, 'measures.txt', { name: 'Measures' });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const v = await version(res.body as UploadResultDto);
+    expect(v.columns.map((c) => c.name)).toEqual(['row_name', 'height', 'weight']);
+    expect(v.columns[2].summary).toMatchObject({ count: 4, missing: 1, min: 59, max: 75.25 });
+  });
+
   it('refuses a headerRow other than yes or no, naming the field', async () => {
     const res = await upload(alice, MATRIX, 'm.dat', { headerRow: 'maybe' });
     expect(res.status).toBe(400);

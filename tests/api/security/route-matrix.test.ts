@@ -82,6 +82,16 @@ const TABLE: Record<string, Row> = {
   [`GET ${V}/cleaned.csv`]: ws(all, 200),
   [`GET ${W}/open-datasets`]: ws(all, 200),
   [`POST ${W}/open-datasets/:key/import`]: ws(editors, 404),
+  [`GET ${W}/models`]: ws(all, 200),
+  [`POST ${W}/models`]: ws(editors, 400),
+  [`GET ${W}/models/:modelId`]: ws(all, 404),
+  [`POST ${W}/models/:modelId/fits`]: ws(editors, 400),
+  [`GET ${W}/fits/:fitId`]: ws(all, 404),
+  [`GET ${W}/fits/:fitId/progress`]: ws(all, 404),
+  [`POST ${W}/fits/:fitId/cancel`]: ws(editors, 404),
+  [`POST ${W}/fits/:fitId/choice`]: ws(editors, 400),
+  [`GET ${W}/fits/:fitId/predictions`]: ws(all, 400),
+  [`POST ${W}/fits/:fitId/predictions`]: ws(all, 404),
 };
 
 let t: TestApp;

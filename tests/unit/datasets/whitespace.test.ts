@@ -48,6 +48,7 @@ describe('detectDelimiter with whitespace-separated columns', () => {
     expect(detectDelimiter('a, b, c\n1, 2, 3\n4, 5, 6\n', 'x.csv')).toBe(',');
     expect(detectDelimiter('name,city\nAnn Lee,New York\nBo Li,Rome\n', 'x.csv')).toBe(',');
     expect(detectDelimiter('a\tb\tc\n1 x\t2\t3\n', 'x.tsv')).toBe('\t');
+    expect(detectDelimiter('a\tb\tc\n1 x\t2\t3\n4 y\t5\t6\n', 'x.txt')).toBe('\t');
     expect(detectDelimiter('a;b\n1;2\n', 'x.csv')).toBe(';');
     // One column only: no delimiter and no runs of spaces; the comma default stays.
     expect(detectDelimiter('value\n1\n2\n', 'x.csv')).toBe(',');
@@ -101,6 +102,23 @@ describe('parseCsvFile on whitespace-separated files', () => {
         parsed.spill.close();
       }
     }
+  });
+
+  it('names the unnamed first column of row names row_name (a header one name short)', async () => {
+    const content = ['"GPA" "SAT"', '"1" 3.12 1180', '"2" 2.85 990', '', '"3" 3.90 1420', ''].join('\n');
+    expect(detectDelimiter(content, 'r-export.txt')).toBe(WHITESPACE);
+    const parsed = await parse('r-export.txt', content);
+    try {
+      expect(parsed.header).toEqual(['row_name', 'GPA', 'SAT']);
+      expect(parsed.rowCount).toBe(3);
+      expect(parsed.blankLinesSkipped).toBe(1);
+      expect(Array.from(parsed.spill.readNumbers(0))).toEqual([1, 2, 3]);
+      expect(Array.from(parsed.spill.readNumbers(2))).toEqual([1180, 990, 1420]);
+    } finally {
+      parsed.spill.close();
+    }
+    // A header of names alone is still refused for having no rows.
+    await expect(parse('names-only.txt', "'a' 'b'\n\n")).rejects.toThrow('names-only.txt has a header row but no data rows.');
   });
 
   it('names rows from the first line when there is no header', async () => {
