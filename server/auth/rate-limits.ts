@@ -7,7 +7,7 @@
  * - per IP: 50 per 15 minutes (one address spraying many accounts);
  * - per e-mail from all addresses: no lock-out, a progressive delay (accountDelay below), so an
  *   attacker can slow guessing on an account but cannot lock its owner out.
- * Others: reset requests 5 per IP and e-mail and 30 per IP; reset completion 20 per IP; sign-ups
+ * Others: reset requests 5 per IP and e-mail and 30 per IP; reset and sign-up link use 20 per IP each; sign-ups
  * 20 per IP per hour; invitations 50 and new workspaces 20 per account per hour; wrong current
  * passwords when changing the password 10 per account per 15 minutes.
  * req.ip honours X-Forwarded-For only for the proxies named by LARIAT_TRUST_PROXY (server/app.ts).
@@ -94,6 +94,7 @@ export interface RateLimits {
   signUp: RequestHandler;
   resetRequest: RequestHandler[];
   resetComplete: RequestHandler;
+  signUpComplete: RequestHandler;
   invite: RequestHandler;
   createWorkspace: RequestHandler;
   changePassword: RequestHandler;
@@ -127,6 +128,7 @@ export function createRateLimits(config: Pick<Config, 'LARIAT_RATE_LIMIT_FACTOR'
       }),
     ],
     resetComplete: limiter(f, { limit: 20, windowMinutes: 15, key: ip, field: 'token', message: `Too many attempts to use reset links. ${wait}` }),
+    signUpComplete: limiter(f, { limit: 20, windowMinutes: 15, key: ip, field: 'token', message: `Too many attempts to use sign-up links. ${wait}` }),
     invite: limiter(f, { limit: 50, windowMinutes: 60, key: account, field: 'email', message: 'You have sent many invitations in the last hour. Wait a while and try again.' }),
     createWorkspace: limiter(f, { limit: 20, windowMinutes: 60, key: account, field: 'name', message: 'You have created many workspaces in the last hour. Wait a while and try again.' }),
     // A stolen session must not become a password-guessing oracle.

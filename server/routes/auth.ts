@@ -42,7 +42,7 @@ export function authRouter(ctx: AppContext): Router {
     res.status(202).json({ message: SIGN_UP_ACCEPTED });
   });
 
-  router.post('/auth/sign-up/complete', limits.resetComplete, async (req, res) => {
+  router.post('/auth/sign-up/complete', limits.signUpComplete, async (req, res) => {
     const { token } = parseBody(completeSignUpSchema, req.body);
     const { user } = await completeSignUp(ctx.db, token);
     const csrf = await startSession(ctx, res, user.id, req.get('user-agent'));

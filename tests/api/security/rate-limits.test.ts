@@ -80,6 +80,16 @@ describe('other limits', () => {
     expect(statuses[20]).toBe(429);
   });
 
+  it('limits sign-up-link attempts per address (20 per 15 minutes), apart from reset links', async () => {
+    const statuses: number[] = [];
+    for (let i = 0; i < 21; i++) {
+      statuses.push((await request(t.app).post('/api/auth/sign-up/complete').set('X-Forwarded-For', '10.0.3.1').send({ token: `made-up-token-${i}` })).status);
+    }
+    // 10.0.3.1 used up its reset-link attempts above: the sign-up links count on their own.
+    expect(statuses.slice(0, 20).every((s) => s === 404)).toBe(true);
+    expect(statuses[20]).toBe(429);
+  });
+
   it('limits sign-ups per address (20 per hour)', async () => {
     const statuses: number[] = [];
     for (let i = 0; i < 21; i++) {
