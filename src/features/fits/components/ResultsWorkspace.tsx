@@ -16,6 +16,18 @@ import { ApplyPanel } from './ApplyPanel';
 import { EvaluationPanel } from './EvaluationPanel';
 import { LambdaChooser } from './LambdaChooser';
 
+/** In-page links: the workspace is long, and readers come back for one part. */
+const JUMPS = [
+  ['choice-heading', 'Chosen lambda'],
+  ['cv-title', 'Cross-validation'],
+  ['paths-title', 'Paths'],
+  ['coefficients-heading', 'Coefficients'],
+  ['diagnostics-heading', 'Diagnostics'],
+  ['refit-heading', 'Refit'],
+  ['certificates-heading', 'Solver certificates'],
+  ['apply-heading', 'Apply to a table'],
+] as const;
+
 export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit: FitDetailDto; results: FitResultsDto; workspaceId: string; canChoose: boolean }) {
   const choose = useChooseLambda(workspaceId, fit.id);
   const [scale, setScale] = useState<'original' | 'standardized'>('standardized');
@@ -29,6 +41,13 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
           {results.cv?.unconvergedFolds.length ? ` or in folds ${results.cv.unconvergedFolds.map((f) => f + 1).join(', ')}` : ''}. Their results are not certified; see the solver certificates below.
         </Notice>
       )}
+      <nav aria-label="Parts of the results" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+        {JUMPS.map(([id, label]) => (
+          <a key={id} href={`#${id}`} className="font-bold text-lariat-800 underline dark:text-lariat-200">
+            {label}
+          </a>
+        ))}
+      </nav>
       <LambdaChooser results={results} canChoose={canChoose} busy={choose.isPending} error={choose.error} onChoose={(input) => choose.mutate(input)} />
       <Cautions />
       <div className="grid gap-4 xl:grid-cols-2">
