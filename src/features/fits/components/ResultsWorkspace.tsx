@@ -3,7 +3,6 @@
  * cautions, the CV curve and the coefficient paths, the coefficients with their stability, the
  * diagnostics and refit, the solver's certificates, and applying the fit to a table.
  */
-import { useState } from 'react';
 import type { FitDetailDto, FitResultsDto } from '@shared/fits';
 import { Cautions } from '@/components/Cautions';
 import { Notice } from '@/components/Notice';
@@ -30,7 +29,6 @@ const JUMPS = [
 
 export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit: FitDetailDto; results: FitResultsDto; workspaceId: string; canChoose: boolean }) {
   const choose = useChooseLambda(workspaceId, fit.id);
-  const [scale, setScale] = useState<'original' | 'standardized'>('standardized');
   const onChoose = canChoose ? (index: number) => choose.mutate({ index }) : undefined;
   const index = results.chosen.index;
   return (
@@ -56,23 +54,14 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
         ) : (
           <Notice>No cross-validation in this version: the lambda is the end of the path unless chosen by hand.</Notice>
         )}
-        <div className="space-y-2">
-          <label className="flex items-center gap-2 text-sm">
-            <span className="font-bold">Path scale</span>
-            <select value={scale} onChange={(e) => setScale(e.target.value as typeof scale)} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
-              <option value="standardized">Standardized</option>
-              <option value="original">Original units</option>
-            </select>
-          </label>
-          <PathChart
-            lambda={results.lambda}
-            coefficients={scale === 'original' ? results.coefficients : results.standardizedCoefficients}
-            terms={results.terms}
-            chosenIndex={index}
-            onChoose={onChoose}
-            scaleLabel={scale === 'original' ? 'original units' : 'standardized'}
-          />
-        </div>
+        <PathChart
+          lambda={results.lambda}
+          coefficients={results.coefficients}
+          standardizedCoefficients={results.standardizedCoefficients}
+          terms={results.terms}
+          chosenIndex={index}
+          onChoose={onChoose}
+        />
       </div>
       <CoefficientTable results={results} index={index} />
       <EvaluationPanel evaluation={results.evaluation} />
