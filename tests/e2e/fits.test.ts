@@ -198,6 +198,25 @@ describe('fits in the browser', () => {
     expect(parsed.data.some((r) => /notes/.test(r.error))).toBe(true);
   });
 
+  it('scores an uploaded CSV file, one prediction per uploaded row', async () => {
+    // The first 25 rows of the demo file, with the fat value of the first complete row made unreadable.
+    const fat = demoHeader.indexOf('milk_fat_pct');
+    const first = demo.data.slice(1, 26);
+    const target = first.findIndex((r) => r.every((v) => v.trim() !== ''));
+    expect(target).toBeGreaterThanOrEqual(0);
+    const rows = first.map((r, i) => (i === target ? r.map((v, j) => (j === fat ? 'lots' : v)) : r));
+    const csv = Papa.unparse([demoHeader, ...rows]);
+    await page.getByLabel('Or a CSV file').setInputFiles({ name: 'new-vats.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Score the file' }).click()]);
+    expect(download.suggestedFilename()).toBe('new-vats-predictions.csv');
+    const parsed = Papa.parse<Record<string, string>>(fs.readFileSync(await download.path(), 'utf8'), { header: true, skipEmptyLines: true, comments: '#' });
+    expect(parsed.data.length).toBe(25);
+    // That row has text where a number belongs: not scored, and the reason names the column.
+    expect(parsed.data[target].linear_predictor).toBe('');
+    expect(parsed.data[target].error).toMatch(/milk_fat_pct/);
+    await expectVisible(page.getByText(/Saved new-vats-predictions\.csv\./));
+  });
+
   it('runs a second version with a changed spec and lists both versions', async () => {
     await page.getByRole('link', { name: 'Run again with changes' }).click();
     await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat: run version 2' }));
