@@ -105,6 +105,12 @@ describe('fits in the browser', () => {
     await page.getByLabel('L1 share').fill('0.5');
     await expect.poll(() => page.getByText('Elastic net needs an L1 share between 0 and 1.').count()).toBe(0);
     await page.getByLabel('Folds', { exact: true }).fill('5');
+    // A penalty weight for a column that is not a chosen predictor: explained as it is typed.
+    const weights = page.getByLabel(/Penalty weights/);
+    await weights.fill('milk_fat_pct = 0\nsensor_01 = 2');
+    await expectVisible(page.getByText('"sensor_01" has a penalty weight but is not a chosen predictor.'));
+    await weights.fill('milk_fat_pct = 0');
+    await expect.poll(() => page.getByText(/has a penalty weight/).count()).toBe(0);
     await checkA11y(page, 'fit form');
     await page.screenshot({ path: `${SHOTS}/fit-form.png`, fullPage: true });
     await page.getByRole('button', { name: 'Run the fit' }).click();
