@@ -8,7 +8,7 @@ import { Axis, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import type { SparseTerms } from '@shared/fits';
 import { formatStat } from '@/lib/numbers';
 import { ChartFrame } from './ChartFrame';
-import { VerticalMark } from './marks';
+import { HoveredPath, VerticalMark } from './marks';
 import { l1Norms, peakSizes, termPath, topTerms, type PathPoint } from './pathData';
 import { chartTheme, MARGIN, MARK_COLORS, SERIES_COLORS } from './theme';
 
@@ -118,6 +118,7 @@ export function PathChart({ lambda, coefficients: original, standardizedCoeffici
         {series.map((s, n) => (
           <LineSeries key={s.j} dataKey={terms[s.j]} data={s.data} {...accessors} stroke={SERIES_COLORS[n % SERIES_COLORS.length]} strokeWidth={1.5} />
         ))}
+        <HoveredPath series={series.map((s, n) => ({ key: terms[s.j], color: SERIES_COLORS[n % SERIES_COLORS.length], points: s.data }))} />
         <VerticalMark x={xs[chosenIndex]} color={MARK_COLORS.chosen} label="chosen" />
         <Tooltip<PathPoint>
           snapTooltipToDatumX
@@ -126,7 +127,7 @@ export function PathChart({ lambda, coefficients: original, standardizedCoeffici
             const near = tooltipData?.nearestDatum;
             if (!near) return null;
             return (
-              <div className="text-xs">
+              <div className="text-xs text-slate-900">
                 <strong>{near.key}</strong>: {formatStat(near.datum.y)}
                 <br />
                 lambda {formatStat(lambda[near.datum.i])} (position {near.datum.i + 1})
