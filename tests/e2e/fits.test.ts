@@ -248,4 +248,21 @@ describe('fits in the browser', () => {
     await expectVisible(row.getByRole('link', { name: 'Version 2' }));
     await checkA11y(page, 'models page');
   });
+
+  it('cancels a long fit from its progress panel', async () => {
+    await page.getByRole('link', { name: /^Yield per vat$/ }).click();
+    await page.getByRole('link', { name: 'Run a new version' }).click();
+    await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat: run version 3' }));
+    // Many lambdas over many folds at a tight tolerance: long enough to cancel by hand.
+    await page.getByLabel('Number of lambdas').fill('500');
+    await page.getByLabel('Folds', { exact: true }).fill('50');
+    await page.getByLabel(/Tolerance/).fill('1e-12');
+    await page.getByRole('button', { name: 'Run the fit' }).click();
+    await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat, version 3' }));
+    await expectVisible(page.getByRole('progressbar', { name: 'Fit progress' }));
+    await page.getByRole('button', { name: 'Cancel this fit' }).click();
+    await expectVisible(page.getByText(/This fit was cancelled/), 30_000);
+    expect(await page.getByRole('progressbar', { name: 'Fit progress' }).count()).toBe(0);
+    expect(await page.getByRole('heading', { name: 'Chosen lambda' }).count()).toBe(0);
+  });
 });
