@@ -62,10 +62,11 @@ export class JobQueue {
     boss.on('error', (error: Error) => console.error('[lariat] queue:', error.message));
     await boss.start();
     for (const name of queues) {
-      const existing = await boss.getQueue(name);
       const queue = { name, retryLimit: settings.retryLimit, retryDelay: 0, expireInSeconds: settings.expireSeconds };
-      if (!existing) await boss.createQueue(name, queue);
-      else await boss.updateQueue(name, queue);
+      // create_queue inserts ON CONFLICT DO NOTHING, so processes starting together are safe; the
+      // update applies this process's settings to a queue that already existed.
+      await boss.createQueue(name, queue);
+      await boss.updateQueue(name, queue);
     }
     return new JobQueue(boss, settings);
   }

@@ -105,6 +105,12 @@ describe('fits in the browser', () => {
     await page.getByLabel('L1 share').fill('0.5');
     await expect.poll(() => page.getByText('Elastic net needs an L1 share between 0 and 1.').count()).toBe(0);
     await page.getByLabel('Folds', { exact: true }).fill('5');
+    // A penalty weight for a column that is not a chosen predictor: explained as it is typed.
+    const weights = page.getByLabel(/Penalty weights/);
+    await weights.fill('milk_fat_pct = 0\nsensor_01 = 2');
+    await expectVisible(page.getByText('"sensor_01" has a penalty weight but is not a chosen predictor.'));
+    await weights.fill('milk_fat_pct = 0');
+    await expect.poll(() => page.getByText(/has a penalty weight/).count()).toBe(0);
     await checkA11y(page, 'fit form');
     await page.screenshot({ path: `${SHOTS}/fit-form.png`, fullPage: true });
     await page.getByRole('button', { name: 'Run the fit' }).click();
@@ -198,6 +204,25 @@ describe('fits in the browser', () => {
     expect(parsed.data.some((r) => /notes/.test(r.error))).toBe(true);
   });
 
+  it('scores an uploaded CSV file, one prediction per uploaded row', async () => {
+    // The first 25 rows of the demo file, with the fat value of the first complete row made unreadable.
+    const fat = demoHeader.indexOf('milk_fat_pct');
+    const first = demo.data.slice(1, 26);
+    const target = first.findIndex((r) => r.every((v) => v.trim() !== ''));
+    expect(target).toBeGreaterThanOrEqual(0);
+    const rows = first.map((r, i) => (i === target ? r.map((v, j) => (j === fat ? 'lots' : v)) : r));
+    const csv = Papa.unparse([demoHeader, ...rows]);
+    await page.getByLabel('Or a CSV file').setInputFiles({ name: 'new-vats.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Score the file' }).click()]);
+    expect(download.suggestedFilename()).toBe('new-vats-predictions.csv');
+    const parsed = Papa.parse<Record<string, string>>(fs.readFileSync(await download.path(), 'utf8'), { header: true, skipEmptyLines: true, comments: '#' });
+    expect(parsed.data.length).toBe(25);
+    // That row has text where a number belongs: not scored, and the reason names the column.
+    expect(parsed.data[target].linear_predictor).toBe('');
+    expect(parsed.data[target].error).toMatch(/milk_fat_pct/);
+    await expectVisible(page.getByText(/Saved new-vats-predictions\.csv\./));
+  });
+
   it('runs a second version with a changed spec and lists both versions', async () => {
     await page.getByRole('link', { name: 'Run again with changes' }).click();
     await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat: run version 2' }));
@@ -222,5 +247,22 @@ describe('fits in the browser', () => {
     const row = page.locator('[data-model="Yield per vat"]');
     await expectVisible(row.getByRole('link', { name: 'Version 2' }));
     await checkA11y(page, 'models page');
+  });
+
+  it('cancels a long fit from its progress panel', async () => {
+    await page.getByRole('link', { name: /^Yield per vat$/ }).click();
+    await page.getByRole('link', { name: 'Run a new version' }).click();
+    await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat: run version 3' }));
+    // Many lambdas over many folds at a tight tolerance: long enough to cancel by hand.
+    await page.getByLabel('Number of lambdas').fill('500');
+    await page.getByLabel('Folds', { exact: true }).fill('50');
+    await page.getByLabel(/Tolerance/).fill('1e-12');
+    await page.getByRole('button', { name: 'Run the fit' }).click();
+    await expectVisible(page.getByRole('heading', { level: 1, name: 'Yield per vat, version 3' }));
+    await expectVisible(page.getByRole('progressbar', { name: 'Fit progress' }));
+    await page.getByRole('button', { name: 'Cancel this fit' }).click();
+    await expectVisible(page.getByText(/This fit was cancelled/), 30_000);
+    expect(await page.getByRole('progressbar', { name: 'Fit progress' }).count()).toBe(0);
+    expect(await page.getByRole('heading', { name: 'Chosen lambda' }).count()).toBe(0);
   });
 });

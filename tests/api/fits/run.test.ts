@@ -101,6 +101,12 @@ describe('running a fit', () => {
     expect(list.find((m) => m.id === model.id)!.versionCount).toBe(3);
   });
 
+  it('a finished version is immutable in the database: its spec and results cannot change, only the choice', async () => {
+    await expect(t.ctx.db.update(fits).set({ seed: 99 }).where(eq(fits.id, first.id))).rejects.toMatchObject({ cause: { message: expect.stringMatching(/immutable/) } });
+    await expect(t.ctx.db.update(fits).set({ unconverged: true }).where(eq(fits.id, first.id))).rejects.toMatchObject({ cause: { message: expect.stringMatching(/only the chosen lambda may change/) } });
+    await expect(t.ctx.db.update(fits).set({ chosenIndex: 1, chosenRule: 'manual' }).where(eq(fits.id, first.id))).resolves.toBeDefined();
+  });
+
   it('choosing a lambda: a rule or any index; the refit follows; out-of-range is refused', async () => {
     const min = await post(alice, `/fits/${first.id}/choice`, { rule: 'minimum' });
     expect(min.status, JSON.stringify(min.body)).toBe(200);

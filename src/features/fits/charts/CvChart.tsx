@@ -96,7 +96,7 @@ export function CvChart({ lambda, cv, chosenIndex, onChoose }: Props) {
             const d = tooltipData?.nearestDatum?.datum;
             if (!d) return null;
             return (
-              <div className="text-xs">
+              <div className="text-xs text-slate-900">
                 lambda {formatStat(lambda[d.i])} (position {d.i + 1})
                 <br />
                 {label} {formatStat(d.y)} ± {formatStat(cv.standardError[d.i])}

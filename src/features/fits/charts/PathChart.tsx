@@ -8,26 +8,30 @@ import { Axis, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
 import type { SparseTerms } from '@shared/fits';
 import { formatStat } from '@/lib/numbers';
 import { ChartFrame } from './ChartFrame';
-import { VerticalMark } from './marks';
+import { HoveredPath, VerticalMark } from './marks';
 import { l1Norms, peakSizes, termPath, topTerms, type PathPoint } from './pathData';
 import { chartTheme, MARGIN, MARK_COLORS, SERIES_COLORS } from './theme';
 
 interface Props {
   lambda: number[];
+  /** Original scale and standardized scale, one sparse vector per lambda each. */
   coefficients: SparseTerms[];
+  standardizedCoefficients: SparseTerms[];
   terms: string[];
   chosenIndex: number;
   onChoose?: (index: number) => void;
-  /** What the coefficients are measured in, for the axis label. */
-  scaleLabel: string;
 }
 
 const X_KINDS = { 'log-lambda': 'log10(lambda)', l1: 'L1 norm of the coefficients' } as const;
 type XKind = keyof typeof X_KINDS;
 const accessors = { xAccessor: (d: PathPoint) => d.x, yAccessor: (d: PathPoint) => d.y };
 
-export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, scaleLabel }: Props) {
+export function PathChart({ lambda, coefficients: original, standardizedCoefficients, terms, chosenIndex, onChoose }: Props) {
   const [xKind, setXKind] = useState<XKind>('log-lambda');
+  // Standardized by default: sizes are comparable across terms measured in different units.
+  const [scale, setScale] = useState<'standardized' | 'original'>('standardized');
+  const coefficients = scale === 'original' ? original : standardizedCoefficients;
+  const scaleLabel = scale === 'original' ? 'original units' : 'standardized';
   const [k, setK] = useState(10);
   const [search, setSearch] = useState('');
   const peak = useMemo(() => peakSizes(coefficients, terms.length), [coefficients, terms.length]);
@@ -62,6 +66,13 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
       description={`Each line is one term's coefficient (${scaleLabel}) as the penalty weakens. ${shown.length} of ${everNonzero} terms that ever enter are drawn, the largest first. Hover a line to name it; click to choose that lambda.`}
       controls={
         <>
+          <label className="flex flex-col gap-0.5">
+            <span className="text-xs font-bold">Scale</span>
+            <select value={scale} onChange={(e) => setScale(e.target.value as typeof scale)} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
+              <option value="standardized">Standardized</option>
+              <option value="original">Original units</option>
+            </select>
+          </label>
           <label className="flex flex-col gap-0.5">
             <span className="text-xs font-bold">Across</span>
             <select value={xKind} onChange={(e) => setXKind(e.target.value as XKind)} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
@@ -107,6 +118,7 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
         {series.map((s, n) => (
           <LineSeries key={s.j} dataKey={terms[s.j]} data={s.data} {...accessors} stroke={SERIES_COLORS[n % SERIES_COLORS.length]} strokeWidth={1.5} />
         ))}
+        <HoveredPath series={series.map((s, n) => ({ key: terms[s.j], color: SERIES_COLORS[n % SERIES_COLORS.length], points: s.data }))} />
         <VerticalMark x={xs[chosenIndex]} color={MARK_COLORS.chosen} label="chosen" />
         <Tooltip<PathPoint>
           snapTooltipToDatumX
@@ -115,7 +127,7 @@ export function PathChart({ lambda, coefficients, terms, chosenIndex, onChoose, 
             const near = tooltipData?.nearestDatum;
             if (!near) return null;
             return (
-              <div className="text-xs">
+              <div className="text-xs text-slate-900">
                 <strong>{near.key}</strong>: {formatStat(near.datum.y)}
                 <br />
                 lambda {formatStat(lambda[near.datum.i])} (position {near.datum.i + 1})

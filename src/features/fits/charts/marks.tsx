@@ -1,5 +1,5 @@
 import { useContext, type ReactNode } from 'react';
-import { DataContext } from '@visx/xychart';
+import { DataContext, TooltipContext } from '@visx/xychart';
 
 type Scale = (v: number) => number | undefined;
 
@@ -67,4 +67,22 @@ export function MarkKey({ color, dashed = false, children }: { color: string; da
       <span>{children}</span>
     </li>
   );
+}
+
+/**
+ * Redraws the path nearest the pointer thicker, on top of the others, so the one the tooltip names
+ * stands out among dozens (reads the chart's own tooltip state).
+ */
+export function HoveredPath({ series }: { series: { key: string; color: string; points: { x: number; y: number }[] }[] }) {
+  const { xScale, yScale } = useContext(DataContext);
+  const tooltip = useContext(TooltipContext);
+  const key = tooltip?.tooltipOpen ? tooltip.tooltipData?.nearestDatum?.key : undefined;
+  const hovered = key === undefined ? undefined : series.find((s) => s.key === key);
+  if (!hovered || !xScale || !yScale) return null;
+  const sx = xScale as unknown as Scale;
+  const sy = yScale as unknown as Scale;
+  const d = hovered.points
+    .map((p, i) => `${i === 0 ? 'M' : 'L'}${sx(p.x) ?? 0},${sy(p.y) ?? 0}`)
+    .join('');
+  return <path d={d} fill="none" stroke={hovered.color} strokeWidth={4} strokeLinejoin="round" pointerEvents="none" />;
 }

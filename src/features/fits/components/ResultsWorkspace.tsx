@@ -3,7 +3,6 @@
  * cautions, the CV curve and the coefficient paths, the coefficients with their stability, the
  * diagnostics and refit, the solver's certificates, and applying the fit to a table.
  */
-import { useState } from 'react';
 import type { FitDetailDto, FitResultsDto } from '@shared/fits';
 import { Cautions } from '@/components/Cautions';
 import { Notice } from '@/components/Notice';
@@ -16,9 +15,20 @@ import { ApplyPanel } from './ApplyPanel';
 import { EvaluationPanel } from './EvaluationPanel';
 import { LambdaChooser } from './LambdaChooser';
 
+/** In-page links: the workspace is long, and readers come back for one part. */
+const JUMPS = [
+  ['choice-heading', 'Chosen lambda'],
+  ['cv-title', 'Cross-validation'],
+  ['paths-title', 'Paths'],
+  ['coefficients-heading', 'Coefficients'],
+  ['diagnostics-heading', 'Diagnostics'],
+  ['refit-heading', 'Refit'],
+  ['certificates-heading', 'Solver certificates'],
+  ['apply-heading', 'Apply to a table'],
+] as const;
+
 export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit: FitDetailDto; results: FitResultsDto; workspaceId: string; canChoose: boolean }) {
   const choose = useChooseLambda(workspaceId, fit.id);
-  const [scale, setScale] = useState<'original' | 'standardized'>('standardized');
   const onChoose = canChoose ? (index: number) => choose.mutate({ index }) : undefined;
   const index = results.chosen.index;
   return (
@@ -29,6 +39,13 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
           {results.cv?.unconvergedFolds.length ? ` or in folds ${results.cv.unconvergedFolds.map((f) => f + 1).join(', ')}` : ''}. Their results are not certified; see the solver certificates below.
         </Notice>
       )}
+      <nav aria-label="Parts of the results" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+        {JUMPS.map(([id, label]) => (
+          <a key={id} href={`#${id}`} className="font-bold text-lariat-800 underline dark:text-lariat-200">
+            {label}
+          </a>
+        ))}
+      </nav>
       <LambdaChooser results={results} canChoose={canChoose} busy={choose.isPending} error={choose.error} onChoose={(input) => choose.mutate(input)} />
       <Cautions />
       <div className="grid gap-4 xl:grid-cols-2">
@@ -37,23 +54,14 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
         ) : (
           <Notice>No cross-validation in this version: the lambda is the end of the path unless chosen by hand.</Notice>
         )}
-        <div className="space-y-2">
-          <label className="flex items-center gap-2 text-sm">
-            <span className="font-bold">Path scale</span>
-            <select value={scale} onChange={(e) => setScale(e.target.value as typeof scale)} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
-              <option value="standardized">Standardized</option>
-              <option value="original">Original units</option>
-            </select>
-          </label>
-          <PathChart
-            lambda={results.lambda}
-            coefficients={scale === 'original' ? results.coefficients : results.standardizedCoefficients}
-            terms={results.terms}
-            chosenIndex={index}
-            onChoose={onChoose}
-            scaleLabel={scale === 'original' ? 'original units' : 'standardized'}
-          />
-        </div>
+        <PathChart
+          lambda={results.lambda}
+          coefficients={results.coefficients}
+          standardizedCoefficients={results.standardizedCoefficients}
+          terms={results.terms}
+          chosenIndex={index}
+          onChoose={onChoose}
+        />
       </div>
       <CoefficientTable results={results} index={index} />
       <EvaluationPanel evaluation={results.evaluation} />

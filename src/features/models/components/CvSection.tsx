@@ -12,7 +12,7 @@ import {
   MISSING_POLICY_LABELS,
   type FitRequestInput,
 } from '@shared/fits';
-import { errorAt, FieldError, FormSection, INPUT, optionalNumber } from './fitFormParts';
+import { FieldError, FormSection, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
 
 interface Props {
   form: UseFormReturn<FitRequestInput>;
@@ -30,8 +30,8 @@ export function CvSection({ form, columns, family, extra }: Props) {
   const err = (p: string) => errorAt(errors, extra, p);
   const foldColumns = columns.filter((c) => !c.excluded || c.type === 'identifier' || c.type === 'numeric' || c.type === 'categorical');
   const setCv = (next: FitRequestInput['cv']) => {
-    form.setValue('cv', next, { shouldValidate: true });
-    if (next?.kind === 'none') form.setValue('metric', undefined, { shouldValidate: true });
+    setAndValidate(form, 'cv', next);
+    if (next?.kind === 'none') setAndValidate(form, 'metric', undefined);
   };
   return (
     <FormSection title="Choosing lambda" hint="Cross-validation fits each fold without its held-out rows and measures the error on them.">
@@ -106,7 +106,7 @@ export function CvSection({ form, columns, family, extra }: Props) {
         <input
           type="checkbox"
           checked={holdout !== undefined}
-          onChange={(e) => form.setValue('holdout', e.target.checked ? { share: 0.2, seed: DEFAULT_SEED } : undefined, { shouldValidate: true })}
+          onChange={(e) => setAndValidate(form, 'holdout', e.target.checked ? { share: 0.2, seed: DEFAULT_SEED } : undefined)}
         />
         Set rows aside as a holdout and score the chosen fit on them
       </label>

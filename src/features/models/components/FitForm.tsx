@@ -16,7 +16,7 @@ import { applyServerError } from '@/lib/forms';
 import { countFormat } from '@/lib/numbers';
 import { CvSection } from './CvSection';
 import { datasetIssues, unavailableReason } from './fitFormModel';
-import { errorAt, FieldError, FormSection } from './fitFormParts';
+import { FieldError, FormSection, errorAt, setAndValidate } from './fitFormParts';
 import { PathSection } from './PathSection';
 import { PenaltySection } from './PenaltySection';
 import { WeightsSection } from './WeightsSection';
@@ -61,7 +61,7 @@ export function FitForm({ version, outcome, family, defaults, onSubmit }: Props)
           height={360}
           selection={{
             selected,
-            onChange: (next) => form.setValue('predictors', columns.filter((c) => next.has(c.name)).map((c) => c.name), { shouldValidate: true }),
+            onChange: (next) => setAndValidate(form, 'predictors', columns.filter((c) => next.has(c.name)).map((c) => c.name)),
             unavailable: (c) => unavailableReason(c, outcome, foldColumn),
             checkboxLabel: (name) => `Use ${name} as a predictor`,
           }}

@@ -45,8 +45,8 @@ export function ModelsPage() {
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Models</caption>
             <thead className="border-b border-slate-300 dark:border-slate-700">
-              <tr>
-                <th className="py-2">Model</th>
+              <tr className="[&>th]:px-3 [&>th]:py-2 [&>th]:whitespace-nowrap">
+                <th>Model</th>
                 <th>Dataset</th>
                 <th>Outcome</th>
                 <th>Family</th>
@@ -57,8 +57,8 @@ export function ModelsPage() {
             </thead>
             <tbody>
               {models.data.map((m) => (
-                <tr key={m.id} className="border-b border-slate-200 dark:border-slate-800" data-model={m.name}>
-                  <td className="py-2">
+                <tr key={m.id} className="border-b border-slate-200 align-top dark:border-slate-800 [&>td]:px-3 [&>td]:py-2" data-model={m.name}>
+                  <td>
                     <Link className={LINK} to={paths.workspace.model.getHref(workspaceId, m.id)}>
                       {m.name}
                     </Link>
@@ -71,13 +71,19 @@ export function ModelsPage() {
                       <Link className={LINK} to={paths.workspace.fit.getHref(workspaceId, m.latest.id)}>
                         Version {m.latest.version}
                       </Link>
+                    ) : canCreate ? (
+                      <Link className={LINK} to={paths.workspace.runFit.getHref(workspaceId, m.id)}>
+                        Set up the first fit
+                      </Link>
                     ) : (
                       'None yet'
                     )}
                   </td>
-                  <td>{m.latest ? <FitStatusBadge status={m.latest.status} unconverged={m.latest.unconverged} /> : '–'}</td>
-                  <td>
-                    {m.createdBy.name}, {formatWhen(m.createdAt)}
+                  <td className="whitespace-nowrap">{m.latest ? <FitStatusBadge status={m.latest.status} unconverged={m.latest.unconverged} /> : '–'}</td>
+                  <td className="text-xs">
+                    {m.createdBy.name}
+                    <br />
+                    {formatWhen(m.createdAt)}
                   </td>
                 </tr>
               ))}

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import { DEFAULT_PATH_LENGTH, MAX_PATH_DECADES, MIN_PATH_DECADES, type FitRequestInput } from '@shared/fits';
 import { parseLambdas } from './fitFormModel';
-import { errorAt, FieldError, FormSection, INPUT, optionalNumber } from './fitFormParts';
+import { FieldError, FormSection, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
 
 /** The lambda path: Lariat's automatic log-spaced path (length, decades, term limit) or the analyst's own list. */
 export function PathSection({ form, extra }: { form: UseFormReturn<FitRequestInput>; extra: Record<string, string> }) {
@@ -15,14 +15,14 @@ export function PathSection({ form, extra }: { form: UseFormReturn<FitRequestInp
     <FormSection title="Lambda path" hint="Fits run from the strongest penalty (no predictors) towards the weakest; cross-validation then compares them.">
       <div role="radiogroup" aria-label="How the lambdas are laid out" className="flex flex-wrap gap-4 text-sm">
         <label className="flex items-center gap-2">
-          <input type="radio" checked={kind === 'automatic'} onChange={() => form.setValue('path', { kind: 'automatic', pathLength: DEFAULT_PATH_LENGTH }, { shouldValidate: true })} />
+          <input type="radio" checked={kind === 'automatic'} onChange={() => setAndValidate(form, 'path', { kind: 'automatic', pathLength: DEFAULT_PATH_LENGTH })} />
           Automatic path
         </label>
         <label className="flex items-center gap-2">
           <input
             type="radio"
             checked={kind === 'explicit'}
-            onChange={() => form.setValue('path', { kind: 'explicit', lambdas: parseLambdas(lambdaText) }, { shouldValidate: true })}
+            onChange={() => setAndValidate(form, 'path', { kind: 'explicit', lambdas: parseLambdas(lambdaText) })}
           />
           My own lambdas
         </label>
@@ -57,7 +57,7 @@ export function PathSection({ form, extra }: { form: UseFormReturn<FitRequestInp
             placeholder="e.g. 1, 0.5, 0.1, 0.05"
             onChange={(e) => {
               setLambdaText(e.target.value);
-              form.setValue('path', { kind: 'explicit', lambdas: parseLambdas(e.target.value) }, { shouldValidate: true });
+              setAndValidate(form, 'path', { kind: 'explicit', lambdas: parseLambdas(e.target.value) });
             }}
           />
           <FieldError message={err('path.lambdas') ?? firstLambdaError(errors)} />

@@ -3,7 +3,7 @@ import type { UseFormReturn } from 'react-hook-form';
 import type { ColumnSchema } from '@shared/datasets';
 import { PENALTIES, PENALTY_LABELS, type FitRequestInput } from '@shared/fits';
 import { categoricalGroups } from './fitFormModel';
-import { errorAt, FieldError, firstErrorUnder, FormSection, INPUT, optionalNumber } from './fitFormParts';
+import { FieldError, FormSection, INPUT, errorAt, firstErrorUnder, optionalNumber, setAndValidate } from './fitFormParts';
 
 const HINTS = {
   lasso: 'Sets small effects exactly to zero: a short list of predictors.',
@@ -24,7 +24,7 @@ export function PenaltySection({ form, columns, extra }: { form: UseFormReturn<F
       if (p !== 'elastic-net') form.setValue('l1Share', undefined);
       if (p !== 'group-lasso') form.setValue('groups', undefined);
       else form.setValue('groups', categoricalGroups(columns, form.getValues('predictors')));
-      void form.trigger(['l1Share', 'groups']);
+      void form.trigger();
     },
   });
   return (
@@ -68,7 +68,7 @@ function GroupsEditor({ form }: { form: UseFormReturn<FitRequestInput> }) {
   const groups = form.watch('groups') ?? {};
   const [draftName, setDraftName] = useState('');
   const entries = Object.entries(groups);
-  const set = (next: Record<string, string[]>) => form.setValue('groups', next, { shouldValidate: true });
+  const set = (next: Record<string, string[]>) => setAndValidate(form, 'groups', next);
   const error = firstErrorUnder(form.formState.errors, 'groups');
   return (
     <div className="space-y-2">

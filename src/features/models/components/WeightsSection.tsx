@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import type { FitRequestInput } from '@shared/fits';
 import { formatWeights, parseWeights } from './fitFormModel';
-import { FieldError, firstErrorUnder, FormSection, INPUT, optionalNumber } from './fitFormParts';
+import { FieldError, FormSection, INPUT, firstErrorUnder, optionalNumber, setAndValidate } from './fitFormParts';
 
 /** Penalty weights per predictor ("column = weight"; 0 keeps it always in), and the solver's stopping settings. */
 export function WeightsSection({ form }: { form: UseFormReturn<FitRequestInput> }) {
@@ -22,7 +22,7 @@ export function WeightsSection({ form }: { form: UseFormReturn<FitRequestInput> 
             setText(e.target.value);
             const { weights, badLine: bad } = parseWeights(e.target.value);
             setBadLine(bad);
-            form.setValue('penaltyWeights', Object.keys(weights).length ? weights : undefined, { shouldValidate: true });
+            setAndValidate(form, 'penaltyWeights', Object.keys(weights).length ? weights : undefined);
           }}
         />
         <FieldError message={badLine ? `Cannot read “${badLine}”: write column = weight.` : firstErrorUnder(errors, 'penaltyWeights')} />

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { FieldErrors } from 'react-hook-form';
+import type { FieldErrors, Path, PathValue, UseFormReturn } from 'react-hook-form';
 import type { FitRequestInput } from '@shared/fits';
 
 /** The message at a dotted path of the form's errors (zod issues land at their spec path), or one of the dataset checks. */
@@ -61,3 +61,13 @@ export const INPUT = 'rounded-md border border-slate-400 bg-white px-2 py-1 text
 
 /** Empty input -> undefined (the schema's default applies), else a number (NaN when not one, so zod names it). */
 export const optionalNumber = (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v));
+
+/**
+ * Sets a value the form has no input for (a list, a record, a choice of kind) and validates the whole
+ * form: the schema's cross-field rules (weights, groups, fold column) then land beside their fields
+ * at once. `setValue(..., { shouldValidate })` alone validates only inputs registered under that name.
+ */
+export function setAndValidate<K extends Path<FitRequestInput>>(form: UseFormReturn<FitRequestInput>, name: K, value: PathValue<FitRequestInput, K>): void {
+  form.setValue(name, value, { shouldDirty: true });
+  void form.trigger();
+}
