@@ -6,8 +6,6 @@ export interface SolverRoles {
   size: number;
   loss: BoundLoss;
   prox(z: Float64Array, out: Float64Array, step: number): void;
-  /** lambda * P(w). */
-  penalty(w: Float64Array): number;
   /** Relative duality gap at w (image img). */
   gap(w: Float64Array, img: Float64Array): number;
   /**

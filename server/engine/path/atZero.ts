@@ -24,8 +24,8 @@ export interface ZeroFit {
  * at the result as for any solve (the dual point projected on X'theta = 0), and the status follows
  * it: 'converged' when gap / null objective <= tolerance, else 'iteration-limit' (e.g. binomial
  * separation, where no finite minimizer exists), with the unpenalized fit's message.
- * Returns null when the factorization cannot be used (fewer rows than coefficients): the caller
- * then solves with FISTA as for any lambda and notes why.
+ * Returns `{ fallback: reason }` when the factorization cannot be used (e.g. fewer rows than
+ * coefficients): the caller then solves with FISTA as for any lambda and notes the reason.
  */
 export function solveAtZero(
   design: DesignMatrix,

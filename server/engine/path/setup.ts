@@ -81,12 +81,23 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
 /** Up to this many columns the Gram form computes all of G at once (see prepareProblem). */
 export const FULL_GRAM_COLUMNS = 500;
 
-/** Gram form for gaussian fits when n is well above p (n >= 2p and p <= 2000), unless overridden. */
+/**
+ * Above this many columns the Gram form is not used: its columns are cached as they are needed and
+ * all of G is p^2 * 8 bytes (32 MB at 2000 columns, 200 MB at 5000), and a long path touches most
+ * columns through its KKT checks, so the cache would grow towards all of it.
+ */
+export const MAX_GRAM_COLUMNS = 2000;
+
+/**
+ * Gram form for gaussian fits when n is well above p (n >= 2p: one Gram column, p products of
+ * length n, is then cheaper to reuse than to recompute n-long residual products every iteration)
+ * and p <= MAX_GRAM_COLUMNS, unless overridden (docs/decisions: the Gram form).
+ */
 export function usesGram(options: PathOptions, n: number, p: number): boolean {
   if (options.family !== 'gaussian') return false;
   if (options.gram === 'always') return true;
   if (options.gram === 'never') return false;
-  return n >= 2 * p && p <= 2000;
+  return n >= 2 * p && p <= MAX_GRAM_COLUMNS;
 }
 
 export function prepareProblem(design: DesignMatrix, y: Float64Array, options: PathOptions): PreparedProblem {
