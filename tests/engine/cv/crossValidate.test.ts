@@ -3,13 +3,12 @@ import { mean, sampleStandardDeviation } from 'simple-statistics';
 import {
   combineFolds,
   crossValidate,
-  crossValidateAdaptive,
-  crossValidateInWorkers,
   planCrossValidation,
   runFold,
   type FoldLosses,
 } from '../../../server/engine/cv';
-import { parseCsvText } from '../../../server/engine/csv';
+import { crossValidateAdaptive, crossValidateInWorkers } from '../../../server/engine-runner';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import { EngineInputError, type EngineTable, type FitSpec } from '../../../server/engine/types';

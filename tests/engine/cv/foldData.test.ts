@@ -6,7 +6,7 @@
 import { mean } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { combineFolds, crossValidate, planCrossValidation, runFoldOnDesign } from '../../../server/engine/cv';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import type { FitSpec } from '../../../server/engine/types';

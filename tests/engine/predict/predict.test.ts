@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { buildDesign } from '../../../server/engine/design/build';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { predictPath, predictRows, type StoredModel } from '../../../server/engine/predict';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';

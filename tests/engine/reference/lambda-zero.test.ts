@@ -8,7 +8,7 @@
  * practice).
  */
 import { describe, expect, it } from 'vitest';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath, fitPathOnDesign } from '../../../server/engine/index';
 import type { FitSpec } from '../../../server/engine/types';
 import { designFrom, readJson, readNumericCsv } from './helpers';
