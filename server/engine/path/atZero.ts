@@ -4,7 +4,7 @@ import type { StandardizedDesign } from '../core/standardize';
 import { EngineInputError, type DesignMatrix, type SolveInfo } from '../types';
 import { fitUnpenalized, type UnpenalizedResult } from '../unpenalized';
 import { checkFull } from './check';
-import type { LambdaState } from './solveAtLambda';
+import type { PathState } from './solveAtLambda';
 
 /** The exact fit at lambda = 0 on the original scale, recorded instead of record()'s conversion. */
 export interface ZeroFit {
@@ -33,7 +33,7 @@ export function solveAtZero(
   problem: Problem,
   dual: DualContext,
   std: StandardizedDesign,
-  state: LambdaState,
+  state: PathState,
   tolerance: number,
 ): ZeroFit | { fallback: string } {
   const started = performance.now();

@@ -5,7 +5,7 @@ import { defaultLambdaRatio, lambdaGrid } from './grid';
 import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
-import { solveAtLambda, type LambdaState } from './solveAtLambda';
+import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
 
 const DEFAULT_TOLERANCE = 1e-7;
@@ -39,8 +39,14 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
     }
   }
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
-  const state: LambdaState = { coef: Float64Array.from(nullFit.coef), intercept: nullFit.intercept, g: Float64Array.from(nullFit.g), loss: problem.nullObjective };
-  const lipschitz = { value: 0 };
+  const state: PathState = {
+    coef: Float64Array.from(nullFit.coef),
+    intercept: nullFit.intercept,
+    g: Float64Array.from(nullFit.g),
+    loss: problem.nullObjective,
+    lipschitz: 0,
+    support: {},
+  };
   const result: PathResult = {
     family: options.family,
     terms: [...design.terms],
@@ -79,7 +85,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
       maxIterations: options.maxIterations ?? DEFAULT_MAX_ITERATIONS,
       screening: options.screening ?? 'strong',
       polish: options.polish ?? true,
-    }, lipschitz);
+    });
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
     if (options.earlyStop && shouldStop(result.devianceRatio)) {
@@ -99,7 +105,7 @@ function shouldStop(ratios: number[]): boolean {
 
 function record(
   result: PathResult,
-  state: LambdaState,
+  state: PathState,
   info: SolveInfo,
   lambda: number,
   std: PreparedProblem['std'],
@@ -110,7 +116,8 @@ function record(
   const standardized = Float64Array.from(state.coef);
   const original = new Float64Array(p);
   let nonzero = 0;
-  const internalIntercept = problem.family === 'gaussian' ? problem.yMean : state.intercept;
+  // Losses without an intercept slot (gaussian) have the closed-form intercept mean(y) on centred columns.
+  const internalIntercept = problem.loss.intercept ? state.intercept : problem.yMean;
   let intercept = internalIntercept;
   for (let j = 0; j < p; j++) {
     if (standardized[j] === 0 || std.scales[j] === 0) continue;

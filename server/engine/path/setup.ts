@@ -5,7 +5,7 @@ import { buildBlockPenalty } from '../core/penalty';
 import type { Problem } from '../core/problem';
 import { standardizeDesign, type StandardizedDesign } from '../core/standardize';
 import { EngineInputError, type DesignMatrix, type PathOptions } from '../types';
-import { fitNullModel, type NullFit } from './nullFit';
+import { GRAM_FAMILIES, lossFor, type LossRole, type NullFit } from '../core/loss';
 import { penaltyLambdaMax } from '../core/penalty';
 
 export interface PreparedProblem {
@@ -94,7 +94,7 @@ export const MAX_GRAM_COLUMNS = 2000;
  * and p <= MAX_GRAM_COLUMNS, unless overridden (docs/decisions: the Gram form).
  */
 export function usesGram(options: PathOptions, n: number, p: number): boolean {
-  if (options.family !== 'gaussian') return false;
+  if (!GRAM_FAMILIES.has(options.family)) return false;
   if (options.gram === 'always') return true;
   if (options.gram === 'never') return false;
   return n >= 2 * p && p <= MAX_GRAM_COLUMNS;
@@ -141,8 +141,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
       throw new EngineInputError(`column "${design.terms[j]}" has values too large to fit (their squares overflow); rescale it`, design.terms[j]);
     }
   }
-  const nullObjective =
-    options.family === 'gaussian' ? yy / (2 * n) : -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean));
+  const form = usesGram(options, n, p) ? 'gram' : 'design';
   const problem: Problem = {
     family: options.family,
     n,
@@ -153,20 +152,22 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
     yy,
     c,
     gram: new GramCache(std.x, n, p),
-    useGram: usesGram(options, n, p),
+    loss: undefined as unknown as LossRole,
     penalty,
     colNormSq,
-    nullObjective,
+    nullObjective: 0,
   };
+  problem.loss = lossFor(problem, form);
+  problem.nullObjective = problem.loss.nullObjective;
   // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
   // is cheaper than column by column as the working set grows.
-  if (problem.useGram && options.crossProducts) gramFromCrossProducts(problem.gram, options.crossProducts, n, std.centers, std.scales);
-  else if (problem.useGram && p <= FULL_GRAM_COLUMNS) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+  if (form === 'gram' && options.crossProducts) gramFromCrossProducts(problem.gram, options.crossProducts, n, std.centers, std.scales);
+  else if (form === 'gram' && p <= FULL_GRAM_COLUMNS) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
   const fixedU: number[] = [];
   for (let u = 0; u < penalty.nBlocks; u++) {
     if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);
   }
-  const nullFit = fitNullModel(problem, Int32Array.from(fixedU));
+  const nullFit = problem.loss.nullFit(Int32Array.from(fixedU), {});
   const lambdaMax = penaltyLambdaMax(penalty, nullFit.g);
   if (!Number.isFinite(lambdaMax)) throw new EngineInputError('the data are too large in scale to fit; rescale the columns or standardize', 'data');
   const dual = new DualContext(problem, nullFit.theta, nullFit.g, lambdaMax);
