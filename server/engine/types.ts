@@ -165,6 +165,10 @@ export interface CrossProducts {
   rows: number;
   center: Float64Array;
   sums: Float64Array;
+  /** sum_i (x_i - center): the rows' means follow (center + colSums / rows). */
+  colSums?: Float64Array;
+  /** The response's sums about its own centre: sum (y - cy), sum (x - c)(y - cy), sum (y - cy)^2. */
+  response?: { center: number; sum: number; cross: Float64Array; squares: number };
 }
 
 /** How one predictor column becomes design columns (for applying a stored fit to new rows). */
