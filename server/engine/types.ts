@@ -79,7 +79,15 @@ export interface SolveInfo {
   /** FISTA iterations plus the active-set polish's linear solves and Newton steps (both limited). */
   iterations: number;
   timeMs: number;
+  /**
+   * What ended the solve: 'warm-start' (the previous solution already met the tolerance), 'polish'
+   * (the active-set polish's point met it), 'gap' (a FISTA iterate met it), 'factorization' (lambda =
+   * 0: the unpenalized fit), 'iteration-limit' or 'numerical-failure'.
+   */
+  stoppedBy: StopRule;
 }
+
+export type StopRule = 'warm-start' | 'polish' | 'gap' | 'factorization' | 'iteration-limit' | 'numerical-failure';
 
 export interface PathResult {
   family: Family;

@@ -76,7 +76,7 @@ export function solveAtZero(
       ? `lambda = 0: ${fit.aliased.map((t) => `"${t}"`).join(', ')} aliased with the intercept and earlier terms (coefficient 0)`
       : `lambda = 0: ${fit.status === 'converged' ? 'unpenalized fit' : fit.status} (${method})`;
   return {
-    info: { status, message, gap, tolerance, iterations: fit.iterations, timeMs: performance.now() - started },
+    info: { status, message, gap, tolerance, iterations: fit.iterations, timeMs: performance.now() - started, stoppedBy: 'factorization' },
     intercept,
     coefficients,
     note,

@@ -5,7 +5,7 @@ import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
 import type { Problem, WorkingSet } from '../core/problem';
 import { makeWorkingSet } from '../core/problem';
 import { polishOnSupport } from '../core/polish';
-import type { Screening, SolveInfo } from '../types';
+import type { Screening, SolveInfo, StopRule } from '../types';
 import { checkFull, type FullCheck } from './check';
 
 /**
@@ -84,6 +84,7 @@ export function solveAtLambda(
 
   let iterations = 0;
   let status: SolveInfo['status'] = 'converged';
+  let stoppedBy: StopRule = 'warm-start';
   let check: FullCheck | null = null;
   let restrictedTolerance = tolerance;
   for (let round = 0; round < MAX_ROUNDS; round++) {
@@ -94,6 +95,7 @@ export function solveAtLambda(
       maxIterations: Math.max(1, options.maxIterations - iterations),
     });
     iterations += outcome.iterations;
+    stoppedBy = outcome.stoppedBy;
     check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
     state.g = check.g;
     state.loss = check.loss;
@@ -120,9 +122,11 @@ export function solveAtLambda(
   }
   const gap = check ? check.gap : NaN;
   if (status === 'converged' && !(gap <= tolerance)) status = 'iteration-limit';
+  if (status !== 'converged') stoppedBy = status;
   return {
     status,
-    message: describe(status, gap, tolerance, iterations),
+    stoppedBy,
+    message: describe(status, gap, tolerance, iterations, stoppedBy),
     gap,
     tolerance,
     iterations,
@@ -130,8 +134,19 @@ export function solveAtLambda(
   };
 }
 
-function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number): string {
-  if (status === 'converged') return `converged: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+const RULE_WORDS: Record<StopRule, string> = {
+  'warm-start': 'at the warm start',
+  polish: 'at the active-set polish',
+  gap: 'at a FISTA iterate',
+  factorization: 'by factorization',
+  'iteration-limit': 'at the iteration limit',
+  'numerical-failure': 'on a numerical failure',
+};
+
+function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number, stoppedBy: StopRule): string {
+  if (status === 'converged') {
+    return `converged ${RULE_WORDS[stoppedBy]}: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+  }
   if (status === 'iteration-limit') {
     return `stopped at the iteration limit (${iterations}) with relative duality gap ${gap.toExponential(2)} > tolerance ${tolerance}`;
   }
