@@ -30,28 +30,28 @@ const cases: Record<string, Case> = {
     n: 300,
     p: 1500,
     active: 15,
-    options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4 },
+    options: { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 100, pathDecades: 2, tolerance: 1e-4 },
   },
   'wide-enet': {
     name: 'gaussian n=300 p=1500 elastic net 0.5, 100 lambdas to 0.01, tol 1e-4',
     n: 300,
     p: 1500,
     active: 15,
-    options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4 },
+    options: { family: 'gaussian', penalty: 'elastic-net', l1Share: 0.5, standardize: true, pathLength: 100, pathDecades: 2, tolerance: 1e-4 },
   },
   'wide-enet-fista': {
     name: 'the same elastic net with FISTA alone (polish off), for comparison',
     n: 300,
     p: 1500,
     active: 15,
-    options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 100, lambdaRatio: 0.01, tolerance: 1e-4, polish: false },
+    options: { family: 'gaussian', penalty: 'elastic-net', l1Share: 0.5, standardize: true, pathLength: 100, pathDecades: 2, tolerance: 1e-4, polish: false },
   },
   tall: {
     name: 'gaussian n=20000 p=200, 100 lambdas to 1e-4, tol 1e-6',
     n: 20000,
     p: 200,
     active: 20,
-    options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 1e-4, tolerance: 1e-6 },
+    options: { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 100, pathDecades: 4, tolerance: 1e-6 },
   },
 };
 

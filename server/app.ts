@@ -5,12 +5,15 @@ import express from 'express';
 import type { AppContext } from './context';
 import { errorHandler, notFound } from './http/errors';
 import { apiRouter } from './routes/index';
+import { securityHeaders } from './security/headers';
 
 /** The Express app: JSON API under /api, and the built client (dist/client) for everything else. */
 export function createApp(ctx: AppContext): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
+  // Behind a proxy, req.ip (rate limits) and req.protocol come from X-Forwarded-* only for the hops configured.
+  app.set('trust proxy', ctx.config.trustProxy);
+  app.use(securityHeaders(ctx.config));
   app.use(cookieParser());
   app.use('/api', express.json({ limit: '1mb', strict: true }), apiRouter(ctx));
   app.use('/api', (_req, _res, next) => next(notFound('No such API route.')));

@@ -5,10 +5,17 @@ import type { AppContext } from './context';
 import { connectDatabase } from './db/client';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer } from './mail/mailer';
+import { productionDatabaseProblems } from './security/production-checks';
 import { DEMO_ACCOUNT } from './seed/demo-account';
+import { outboxEnabled } from './dev/outbox';
 
 const config = loadConfig();
 const database = connectDatabase(config.DATABASE_URL);
+const problems = await productionDatabaseProblems(config, database.db);
+if (problems.length > 0) {
+  await database.close();
+  throw new Error(`Refusing to start in production: ${problems.join('; ')}`);
+}
 
 let devMailbox: FakeSmtp | undefined;
 let smtpUrl = config.LARIAT_SMTP_URL;
@@ -25,7 +32,10 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
     '',
     `  Lariat is running at ${config.publicUrl}`,
     config.NODE_ENV !== 'production' ? `  Demo sign-in: ${DEMO_ACCOUNT.email} / ${DEMO_ACCOUNT.password}` : '',
-    devMailbox ? `  Outgoing e-mail is captured by a local fake SMTP server on port ${devMailbox.port} (admins see it under Outbox)` : '',
+    devMailbox
+      ? `  Outgoing e-mail is captured by a local fake SMTP server on port ${devMailbox.port}` +
+        (outboxEnabled(config) ? ' (each person sees their own under Outbox)' : ' (LARIAT_DEV_OUTBOX=1 shows it under Outbox)')
+      : '',
     '  Press Ctrl-C to stop.',
     '',
   ];

@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 import type { WorkspaceRole } from './members';
+import { singleLine } from './text';
 import { workspaceNameSchema } from './workspaces';
 
 export const EMAIL_MAX = 254;
@@ -16,18 +17,21 @@ export const PASSWORD_MAX = 200;
 /** Weak-password rule (common practice, our own threshold): at least this many different characters. */
 export const PASSWORD_MIN_DISTINCT = 5;
 
-export const emailSchema = z
-  .string({ error: 'Enter an e-mail address.' })
-  .trim()
-  .toLowerCase()
-  .max(EMAIL_MAX, `An e-mail address has at most ${EMAIL_MAX} characters.`)
-  .pipe(z.email({ error: 'Enter a valid e-mail address, like name@example.com.' }));
+export const emailSchema = singleLine(
+  z
+    .string({ error: 'Enter an e-mail address.' })
+    .trim()
+    .toLowerCase()
+    .max(EMAIL_MAX, `An e-mail address has at most ${EMAIL_MAX} characters.`),
+).pipe(z.email({ error: 'Enter a valid e-mail address, like name@example.com.' }));
 
-export const personNameSchema = z
-  .string({ error: 'Enter your name.' })
-  .trim()
-  .min(1, 'Enter your name.')
-  .max(NAME_MAX, `A name has at most ${NAME_MAX} characters.`);
+export const personNameSchema = singleLine(
+  z
+    .string({ error: 'Enter your name.' })
+    .trim()
+    .min(1, 'Enter your name.')
+    .max(NAME_MAX, `A name has at most ${NAME_MAX} characters.`),
+);
 
 /**
  * Why a password is too weak, or null. Length first, then "not trivially weak": too few different
@@ -99,7 +103,7 @@ export type SignInInput = z.input<typeof signInSchema>;
 export const passwordResetRequestSchema = z.strictObject({ email: emailSchema });
 
 export const TOKEN_MAX = 200;
-export const tokenSchema = z.string({ error: 'The link is missing its token.' }).min(1, 'The link is missing its token.').max(TOKEN_MAX, 'This link is not valid.');
+export const tokenSchema = singleLine(z.string({ error: 'The link is missing its token.' }).min(1, 'The link is missing its token.').max(TOKEN_MAX, 'This link is not valid.'));
 
 /** POST /api/auth/password-reset/complete */
 export const passwordResetCompleteSchema = z.strictObject({ token: tokenSchema, password: passwordSchema });
@@ -130,5 +134,27 @@ export interface MeDto {
   csrfToken: string;
 }
 
+/** GET /api/auth/sessions: one signed-in browser of the person. */
+export interface SessionDto {
+  /** A public name for the session (not its secret id). */
+  id: string;
+  signedInAt: string;
+  /** When it ends if unused (sliding). */
+  expiresAt: string;
+  /** When it ends however active (absolute). */
+  endsAt: string;
+  userAgent: string | null;
+  /** The session this request came from. */
+  current: boolean;
+}
+
+/** POST /api/auth/password: change the password, knowing the current one. */
+export const changePasswordSchema = z.strictObject({
+  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(PASSWORD_MAX, `A password has at most ${PASSWORD_MAX} characters.`),
+  newPassword: passwordSchema,
+});
+export type ChangePasswordInput = z.input<typeof changePasswordSchema>;
+
+/** Over http the cookie is `lariat_csrf`; over https `__Host-lariat_csrf` (server/auth/cookies.ts). */
 export const CSRF_COOKIE = 'lariat_csrf';
 export const CSRF_HEADER = 'X-Lariat-CSRF';

@@ -3,6 +3,7 @@
  * bodies of the datasets API. One source for the client's forms and the Express handlers.
  */
 import { z } from 'zod';
+import { multiLine, singleLine } from './text';
 
 /** Missing-value markers used when an upload names none (compared trimmed, case-insensitively). */
 export const DEFAULT_MISSING_MARKERS = ['', 'NA', 'N/A', 'NaN', 'null', '?'] as const;
@@ -172,8 +173,11 @@ export interface OpenDatasetDto {
   importedAs: string | null;
 }
 
-const name = z.string().trim().min(1, 'Give the dataset a name.').max(200, 'At most 200 characters.');
-const description = z.string().trim().max(2000, 'At most 2000 characters.');
+const name = singleLine(z.string().trim().min(1, 'Give the dataset a name.').max(200, 'At most 200 characters.'));
+const description = multiLine(z.string().trim().max(2000, 'At most 2000 characters.'));
+
+/** An uploaded file's name (from the multipart Content-Disposition), as stored and shown. */
+export const fileNameSchema = singleLine(z.string().min(1, 'The file has no name.').max(200, 'A file name has at most 200 characters.'));
 
 /** Multipart text fields of POST .../datasets/uploads (sent before the file part). */
 export const uploadFieldsSchema = z.strictObject({
@@ -182,7 +186,7 @@ export const uploadFieldsSchema = z.strictObject({
   /** Add a version to this dataset instead of creating one. */
   datasetId: z.uuid('datasetId must be a dataset id').optional(),
   /** Comma-separated markers; absent: DEFAULT_MISSING_MARKERS. */
-  missing: z.string().max(500, 'At most 500 characters of markers.').optional(),
+  missing: singleLine(z.string().max(500, 'At most 500 characters of markers.')).optional(),
 });
 export type UploadFields = z.infer<typeof uploadFieldsSchema>;
 
@@ -196,7 +200,7 @@ export const columnSettingsSchema = z.strictObject({
   columns: z
     .array(
       z.strictObject({
-        name: z.string().min(1),
+        name: singleLine(z.string().min(1)),
         type: z.enum(COLUMN_TYPES, { error: () => `Choose one of: ${COLUMN_TYPES.join(', ')}.` }),
         excluded: z.boolean(),
       }),

@@ -50,7 +50,7 @@ export async function invite(ctx: AppContext, workspaceId: string, inviter: User
     const [ws] = await tx.select({ name: workspaces.name }).from(workspaces).where(eq(workspaces.id, workspaceId));
     return { ...created, workspaceName: ws.name };
   });
-  await ctx.sendMail(invitationMail(ctx, { to: input.email, token, workspaceName: row.workspaceName, role: input.role, invitedBy: inviter.name }));
+  await ctx.sendMail(invitationMail(ctx, { to: input.email, token, workspaceId, workspaceName: row.workspaceName, role: input.role, invitedBy: inviter.name }));
   return toDto({ ...row, invitedByName: inviter.name });
 }
 

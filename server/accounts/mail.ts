@@ -1,11 +1,15 @@
 /** The e-mails accounts send: plain text with one link, built from config.publicUrl. */
 import type { WorkspaceRole } from '../../shared/members';
-import type { AppContext } from '../context';
+import type { AppContext, MailMessage } from '../context';
 
-export function invitationMail(ctx: AppContext, m: { to: string; token: string; workspaceName: string; role: WorkspaceRole; invitedBy: string }) {
+export function invitationMail(
+  ctx: AppContext,
+  m: { to: string; token: string; workspaceId: string; workspaceName: string; role: WorkspaceRole; invitedBy: string },
+): MailMessage {
   const link = `${ctx.config.publicUrl}/invitations/${m.token}`;
   return {
     to: m.to,
+    headers: { 'X-Lariat-Workspace': m.workspaceId },
     subject: `${m.invitedBy} invited you to ${m.workspaceName} on Lariat`,
     text: [
       `${m.invitedBy} invited you to join the workspace "${m.workspaceName}" on Lariat as ${m.role}.`,
@@ -33,6 +37,19 @@ export function passwordResetMail(ctx: AppContext, m: { to: string; token: strin
 }
 
 /** Sends without making the caller wait or fail: a mail relay hiccup must not reveal or break anything. */
-export function sendInBackground(ctx: AppContext, message: { to: string; subject: string; text: string }): void {
+export function sendInBackground(ctx: AppContext, message: MailMessage): void {
   ctx.sendMail(message).catch((err: unknown) => console.error('[lariat] could not send e-mail to', message.to, err));
+}
+
+export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut: number }): MailMessage {
+  return {
+    to: m.to,
+    subject: 'Your Lariat password was changed',
+    text: [
+      'The password of your Lariat account was just changed from a signed-in session.',
+      m.signedOut > 0 ? `Your other sessions (${m.signedOut}) were signed out.` : 'No other session was open.',
+      '',
+      `If this was not you, reset your password now: ${ctx.config.publicUrl}/forgot-password`,
+    ].join('\n'),
+  };
 }

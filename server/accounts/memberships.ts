@@ -1,5 +1,5 @@
 /** Data access and rules for members: role changes and removal, never leaving a workspace without an admin. */
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { MemberDto, WorkspaceRole } from '../../shared/members';
 import type { Database } from '../db/client';
 import { memberships, users } from '../db/schema/auth';
@@ -70,11 +70,11 @@ export async function removeMember(db: Database, workspaceId: string, userId: st
   });
 }
 
-export async function isAdminAnywhere(db: Executor, userId: string): Promise<boolean> {
+/** The workspaces where this person is an admin. */
+export async function adminWorkspaceIds(db: Executor, userId: string): Promise<Set<string>> {
   const rows = await db
-    .select({ n: sql<number>`1` })
+    .select({ workspaceId: memberships.workspaceId })
     .from(memberships)
-    .where(and(eq(memberships.userId, userId), eq(memberships.role, 'admin')))
-    .limit(1);
-  return rows.length > 0;
+    .where(and(eq(memberships.userId, userId), eq(memberships.role, 'admin')));
+  return new Set(rows.map((r) => r.workspaceId));
 }

@@ -12,6 +12,7 @@ import type { AppContext } from '../context';
 import type { Database } from '../db/client';
 import { passwordResets, users } from '../db/schema/auth';
 import { badRequest, HttpError } from '../http/errors';
+import type { Executor } from './executor';
 import { passwordResetMail, sendInBackground } from './mail';
 import { findUserByEmail, setPasswordHash } from './users';
 
@@ -47,11 +48,16 @@ export async function completePasswordReset(db: Database, token: string, passwor
       .returning({ id: passwordResets.id });
     if (claimed.length === 0) throw new HttpError(410, 'This reset link has already been used. Ask for a new one if you need to.', 'token');
     // Other open links for this account die too: the new password is the only way in.
-    await tx
-      .update(passwordResets)
-      .set({ usedAt: now })
-      .where(and(eq(passwordResets.userId, row.userId), isNull(passwordResets.usedAt)));
+    await spendOpenResetLinks(tx, row.userId);
     await setPasswordHash(tx, row.userId, passwordHash);
     await revokeAllSessions(tx, row.userId);
   });
+}
+
+/** Spends every open reset link of an account (after any password change). */
+export async function spendOpenResetLinks(db: Executor, userId: string): Promise<void> {
+  await db
+    .update(passwordResets)
+    .set({ usedAt: new Date() })
+    .where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt)));
 }

@@ -5,8 +5,8 @@
  *   router.post('/workspaces/:workspaceId/datasets', requireWorkspaceRole('admin', 'analyst'), handler)
  *   router.get('/something-personal', requireSession, handler)
  *
- * - `requireSession`: verifies the `lariat_session` cookie (HS256 JWT) and its server-side row (not
- *   revoked, not expired); sets `req.user = { id, email, name }`; otherwise 401.
+ * - `requireSession`: verifies the session cookie (HS256 JWT) and its server-side row (not revoked,
+ *   not expired, not past its absolute lifetime); sets `req.user = { id, email, name }`; otherwise 401.
  * - `requireWorkspaceRole(...roles)`: runs requireSession if needed, then checks the caller's
  *   membership of `:workspaceId` (from req.params, or from the URL when a sub-router lacks
  *   mergeParams); sets `req.membership = { workspaceId, role }`. A workspace you don't belong to (or
@@ -14,7 +14,7 @@
  *   a strict ladder (reviewers review, analysts upload), so each route lists the roles it accepts;
  *   `anyMember` is the list of all four.
  * - CSRF (see csrf.ts, mounted once for all of /api by `authBase`): every non-GET/HEAD/OPTIONS request
- *   must echo the `lariat_csrf` cookie in the `X-Lariat-CSRF` header, and a present Origin header
+ *   must send the session's CSRF token (also in the readable CSRF cookie) in the `X-Lariat-CSRF` header, and a present Origin header
  *   must match the server. Exempt from the header (Origin check still applies): sign-in, sign-up,
  *   password-reset request and complete, and invitation accept; see csrf.ts for why.
  * These read the AppContext that `authBase(ctx)` stores in res.locals, so they need no arguments.
@@ -25,7 +25,7 @@ import { WORKSPACE_ROLES, type WorkspaceRole } from '../../shared/members';
 import { findMembership } from '../accounts/memberships';
 import type { AppContext } from '../context';
 import { forbidden, HttpError, notFound, unauthorized } from '../http/errors';
-import { clearAuthCookies, SESSION_COOKIE } from './cookies';
+import { clearAuthCookies, readCookie, sessionCookieName } from './cookies';
 import { csrfProtection } from './csrf';
 import { findLiveSession, renewIfHalfSpent, type SessionUser } from './sessions';
 import { verifySessionToken } from './session-token';
@@ -69,20 +69,21 @@ export function contextOf(res: Response): AppContext {
 export async function loadSession(req: Request, res: Response): Promise<SessionUser | null> {
   if (req.user) return req.user;
   const ctx = contextOf(res);
-  const token: unknown = req.cookies?.[SESSION_COOKIE];
-  if (typeof token !== 'string' || token === '') return null;
+  const token = readCookie(req, sessionCookieName(ctx.config));
+  if (!token) return null;
   const verified = await verifySessionToken(ctx.config.sessionSecret, token);
   if (!verified.ok) {
     clearAuthCookies(res, ctx.config);
     throw unauthorized(verified.reason === 'expired' ? 'Your session has expired. Sign in again.' : 'Your session is not valid. Sign in again.');
   }
   const { userId, sessionId, expiresAt } = verified.claims;
-  const user = await findLiveSession(ctx.db, sessionId, userId);
-  if (!user) {
+  const live = await findLiveSession(ctx, sessionId, userId);
+  if (!live) {
     clearAuthCookies(res, ctx.config);
     throw unauthorized('Your session has ended (signed out or expired). Sign in again.');
   }
-  await renewIfHalfSpent(ctx, res, userId, sessionId, expiresAt);
+  await renewIfHalfSpent(ctx, res, { userId, sessionId, expiresAt, createdAt: live.createdAt });
+  const user = live.user;
   req.user = user;
   req.sessionId = sessionId;
   return user;

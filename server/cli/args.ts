@@ -1,7 +1,8 @@
 /**
- * Command-line options of `lariat fit` (../shared/DESIGN.md, "Command-line interface"), parsed and
+ * Command-line options of `lariat fit` (docs/cli.md), parsed and
  * checked without touching any file. Every error names the option at fault.
  */
+import { DEFAULT_MAX_ITERATIONS, DEFAULT_PATH_DECADES, DEFAULT_PATH_LENGTH, DEFAULT_TOLERANCE } from '../engine/defaults';
 import type { Family, PenaltyKind } from '../engine/types';
 
 export class UsageError extends Error {
@@ -14,11 +15,14 @@ export interface FitOptions {
   predictors?: string[];
   family: Family;
   penalty: PenaltyKind;
-  alpha?: number;
+  /** Elastic net only, and required there. */
+  l1Share?: number;
   groupsFile?: string;
+  penaltyWeightsFile?: string;
   lambda?: number[];
   pathLength: number;
-  lambdaRatio?: number;
+  pathDecades: number;
+  maxTerms?: number;
   standardize: boolean;
   /** 0 = no cross-validation. Ignored when foldColumn is given. */
   folds: number;
@@ -32,16 +36,17 @@ export interface FitOptions {
 export const DEFAULTS = {
   family: 'gaussian' as Family,
   penalty: 'lasso' as PenaltyKind,
-  pathLength: 100,
+  pathLength: DEFAULT_PATH_LENGTH,
+  pathDecades: DEFAULT_PATH_DECADES,
   folds: 10,
   seed: 1,
-  tolerance: 1e-7,
-  maxIterations: 10_000,
+  tolerance: DEFAULT_TOLERANCE,
+  maxIterations: DEFAULT_MAX_ITERATIONS,
 };
 
 const VALUE_OPTIONS = new Set([
-  'data', 'response', 'predictors', 'family', 'penalty', 'alpha', 'groups', 'lambda', 'path-length',
-  'lambda-ratio', 'folds', 'fold-column', 'seed', 'tolerance', 'max-iterations', 'workers',
+  'data', 'response', 'predictors', 'family', 'penalty', 'l1-share', 'groups', 'penalty-weights', 'lambda',
+  'path-length', 'path-decades', 'max-terms', 'folds', 'fold-column', 'seed', 'tolerance', 'max-iterations', 'workers',
 ]);
 const FLAG_OPTIONS = new Set(['no-standardize', 'help']);
 
@@ -121,19 +126,21 @@ export function parseFitOptions(argv: string[]): FitOptions {
   if (data === undefined) throw new UsageError('option --data FILE.csv is required');
   if (response === undefined) throw new UsageError('option --response COLUMN is required');
   const penalty = oneOf('penalty', get('penalty') ?? DEFAULTS.penalty, ['lasso', 'elastic-net', 'group-lasso'] as const);
-  const alphaRaw = get('alpha');
-  const alpha = alphaRaw === undefined ? undefined : number('alpha', alphaRaw);
-  if (alpha !== undefined && !(alpha > 0 && alpha <= 1)) throw new UsageError(`--alpha must be in (0, 1] (got "${alphaRaw}")`);
-  if (alpha !== undefined && penalty !== 'elastic-net') throw new UsageError('--alpha applies only to --penalty elastic-net');
+  const shareRaw = get('l1-share');
+  const l1Share = shareRaw === undefined ? undefined : number('l1-share', shareRaw);
+  if (l1Share !== undefined && penalty !== 'elastic-net') throw new UsageError('--l1-share applies only to --penalty elastic-net');
+  if (penalty === 'elastic-net' && l1Share === undefined) {
+    throw new UsageError('--penalty elastic-net needs --l1-share A, the share of the L1 part in (0, 1] (1 = lasso, towards 0 = ridge)');
+  }
+  if (l1Share !== undefined && !(l1Share > 0 && l1Share <= 1)) throw new UsageError(`--l1-share must be in (0, 1] (got "${shareRaw}")`);
   const lambdaRaw = get('lambda');
-  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('lambda-ratio'))) {
-    throw new UsageError('--lambda cannot be combined with --path-length or --lambda-ratio');
+  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('path-decades'))) {
+    throw new UsageError('--lambda cannot be combined with --path-length or --path-decades (they shape the automatic path)');
   }
-  const ratioRaw = get('lambda-ratio');
-  const lambdaRatio = ratioRaw === undefined ? undefined : number('lambda-ratio', ratioRaw);
-  if (lambdaRatio !== undefined && !(lambdaRatio > 0 && lambdaRatio < 1)) {
-    throw new UsageError(`--lambda-ratio must be in (0, 1) (got "${ratioRaw}")`);
-  }
+  const decadesRaw = get('path-decades');
+  const pathDecades = decadesRaw === undefined ? DEFAULTS.pathDecades : number('path-decades', decadesRaw);
+  if (!(pathDecades > 0)) throw new UsageError(`--path-decades must be a positive number (got "${decadesRaw}")`);
+  const maxTerms = get('max-terms') === undefined ? undefined : integer('max-terms', get('max-terms') as string, 1);
   const tolerance = get('tolerance') === undefined ? DEFAULTS.tolerance : number('tolerance', get('tolerance') as string);
   if (!(tolerance > 0)) throw new UsageError(`--tolerance must be positive (got "${get('tolerance')}")`);
   if (get('groups') !== undefined && penalty !== 'group-lasso') throw new UsageError('--groups applies only to --penalty group-lasso');
@@ -147,11 +154,13 @@ export function parseFitOptions(argv: string[]): FitOptions {
     predictors: get('predictors') === undefined ? undefined : nameList('predictors', get('predictors') as string),
     family: oneOf('family', get('family') ?? DEFAULTS.family, ['gaussian', 'binomial'] as const),
     penalty,
-    alpha,
+    l1Share,
     groupsFile: get('groups'),
+    penaltyWeightsFile: get('penalty-weights'),
     lambda: lambdaRaw === undefined ? undefined : lambdaList(lambdaRaw),
     pathLength: get('path-length') === undefined ? DEFAULTS.pathLength : integer('path-length', get('path-length') as string, 1),
-    lambdaRatio,
+    pathDecades,
+    maxTerms,
     standardize: !t.has('no-standardize'),
     folds,
     foldColumn: foldColumn?.trim(),

@@ -1,45 +1,75 @@
 import { DEFAULTS } from './args';
 
+/** `lariat fit --help`: every option in plain words, with its default and the reason for it (docs/cli.md). */
 export const HELP = `Usage: npm run -s cli -- fit --data FILE.csv --response COLUMN [options]
 
-Fits a regularization path and prints one JSON object on stdout. Cross-validation runs by default
-(${DEFAULTS.folds} folds); --folds 0 turns it off, and then "cv" is null.
+Fits a sparse regression model at a sequence of penalty strengths (lambdas, strongest first) and
+prints one JSON object on stdout. Cross-validation runs by default to help choose a lambda; --folds 0
+turns it off, and then "cv" is null.
 
 Data
   --data FILE.csv          CSV with a header row. A column is numeric when every present cell is a
                            number, otherwise categorical (one indicator per level). Missing cells:
                            empty, NA, N/A, NaN, null, ?  Rows with a missing value in a used column
-                           are dropped.
+                           are left out (the output's "notes" say how many).
   --response COLUMN        the outcome (binomial: 0/1, or a column with exactly two values)
-  --predictors a,b,c       default: every other column (except the fold column)
+  --predictors a,b,c       the columns to fit on; default every other column (except the fold column)
 
 Model
-  --family gaussian|binomial                  default ${DEFAULTS.family}
-  --penalty lasso|elastic-net|group-lasso     default ${DEFAULTS.penalty}
-  --alpha A                elastic-net mix in (0, 1], default 0.5 (elastic-net only)
-  --groups FILE.json       group lasso groups {"name": ["column", ...]}; other predictors form
-                           groups of their own (a categorical predictor's indicators together)
-  --no-standardize         penalize raw coefficients (default: columns centred and scaled by their
-                           population sd; coefficients are reported on the original scale)
+  --family gaussian|binomial
+                           gaussian: squared-error loss for a numeric outcome; binomial: logistic
+                           loss for a two-class outcome. Default ${DEFAULTS.family}.
+  --penalty lasso|elastic-net|group-lasso
+                           lasso: sum of |coefficients|, sets many to exactly 0; elastic-net: mixes
+                           the lasso with a squared (ridge) part, which keeps correlated columns
+                           together; group-lasso: columns of a group enter or leave together.
+                           Default ${DEFAULTS.penalty}, the simplest penalty that selects variables.
+  --l1-share A             elastic-net only, and required there: the share of the lasso (L1) part,
+                           in (0, 1]. 1 = the lasso; towards 0 the fit approaches ridge regression.
+                           No default: the right mix depends on the data, so it is your choice.
+  --groups FILE.json       group-lasso only: {"group name": ["column", ...]}. Other predictors form
+                           groups of their own; a categorical predictor's indicators stay together.
+  --penalty-weights FILE.json
+                           {"column" or "column=level": weight}: multiplies that column's penalty.
+                           Default 1 for every column; 0 leaves a column unpenalized (always in
+                           the model); a larger weight makes a column harder to select.
+  --no-standardize         penalize the coefficients of the raw columns. Default: each column is
+                           centred and divided by its standard deviation (population, divisor n)
+                           before fitting, so the penalty treats columns on different scales alike;
+                           coefficients are always reported on the original scale too.
 
 Lambda path
-  --lambda v1,v2,...       explicit lambdas, strictly descending
-  --path-length L          automatic grid size, default ${DEFAULTS.pathLength}, log-spaced from lambda_max
-  --lambda-ratio R         lambda_min / lambda_max in (0, 1); default 1e-4 when rows > columns, else 1e-2
-  --tolerance T            duality gap relative to the null-model objective, default ${DEFAULTS.tolerance}
-  --max-iterations N       iteration limit per lambda, default ${DEFAULTS.maxIterations}
+  --lambda v1,v2,...       your own lambdas, strictly descending (replaces the automatic path)
+  --path-length L          number of lambdas on the automatic path. Default ${DEFAULTS.pathLength}: enough for smooth
+                           coefficient and cross-validation curves at a modest cost.
+  --path-decades D         how far the automatic path goes: from lambda_max (the smallest lambda
+                           at which every penalized coefficient is 0) down to lambda_max * 10^-D,
+                           evenly spaced on the log scale. Default ${DEFAULTS.pathDecades}, measured to reach
+                           the cross-validation minimum on the bundled and benchmark data
+                           (docs/decisions).
+  --max-terms N            end the path after the first lambda whose model has more than N nonzero
+                           coefficients (that model is kept). Default: no limit; use it to save
+                           time when only small models are of interest.
+  --tolerance T            each fit stops when its duality gap, divided by the objective of the
+                           intercept-only model, is below T. Default ${DEFAULTS.tolerance}, measured to make the
+                           coefficients stable to the digits the screens show (docs/decisions).
+  --max-iterations N       iteration limit of one fit; a fit that reaches it is reported under
+                           "warnings" with its gap. Default ${DEFAULTS.maxIterations}.
 
 Cross-validation
-  --folds K                K >= 2 folds (default ${DEFAULTS.folds}); 0 = no cross-validation
+  --folds K                split the rows into K >= 2 folds (default ${DEFAULTS.folds}, a common choice that
+                           balances bias and cost); 0 = no cross-validation
   --fold-column COLUMN     integer fold ids from a column (not a predictor); replaces --folds
-  --seed S                 seed of the random (class-stratified for binomial) folds, default ${DEFAULTS.seed}
-  --workers auto|on|off    on: folds in 2 worker threads; auto: when the folds after the first,
-                           timed, would take over 0.3 s in one thread, on this thread and a worker
+  --seed S                 seed of the random folds (class-balanced for binomial), default ${DEFAULTS.seed}, so
+                           that a rerun gives the same folds
+  --workers auto|on|off    on: folds in 2 worker threads; off: all in this thread; auto (default):
+                           workers only when the folds would take over 0.3 s in one thread
 
-Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap,
-iterations, status, cv (null or {folds, metric, mean, standardError, minimum {index, lambda},
-oneStandardError {index, lambda}, curves}), and extras: family, lambdaMax, standardizedIntercept,
-standardizedCoefficients, nonzero, devianceRatio, notes, cautions (how to read the result),
-warnings (solves that did not converge), engineVersion, timing (seconds spent reading, fitting, cross-validating).
+Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap
+(relative, per lambda), iterations, status, cv (null or {folds, metric, mean, standardError,
+minimum {index, lambda}, oneStandardError {index, lambda}, curves}), and also: family, lambdaMax,
+standardizedIntercept, standardizedCoefficients, nonzero, devianceExplained (1 - deviance / null
+deviance), notes, cautions (how to read the result), warnings (fits that did not converge),
+engineVersion, timing (seconds spent reading, fitting, cross-validating).
 Errors: a message on stderr and exit status 2 (bad input) or 1 (internal error).
 `;

@@ -1,5 +1,5 @@
 /**
- * The JSON object `lariat fit` prints (../shared/DESIGN.md, "Command-line interface"): the contract
+ * The JSON object `lariat fit` prints (docs/cli.md): the contract
  * keys first, then extras (standardized coefficients, counts, notes, cautions, version).
  */
 import { CAUTION_LINES } from '../../shared/cautions';
@@ -20,7 +20,7 @@ export interface FitOutput {
   standardizedIntercept: number[];
   standardizedCoefficients: Record<string, number[]>;
   nonzero: number[];
-  devianceRatio: number[];
+  devianceExplained: number[];
   notes: string[];
   /** The usual statistical cautions that go with every exported result. */
   cautions: readonly string[];
@@ -68,7 +68,7 @@ export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: 
     standardizedIntercept: path.standardizedIntercept,
     standardizedCoefficients: byTerm(path.terms, path.standardizedCoefficients),
     nonzero: path.nonzero,
-    devianceRatio: path.devianceRatio,
+    devianceExplained: path.devianceExplained,
     notes: path.notes,
     cautions: CAUTION_LINES,
     warnings: warningsOf(path),

@@ -6,9 +6,6 @@ import { readFileSync } from 'node:fs';
 import type { EngineTable, FitSpec } from '../engine/types';
 import { UsageError, type FitOptions } from './args';
 
-/** Elastic-net mix when --penalty elastic-net is given without --alpha (common practice). */
-export const DEFAULT_ELASTIC_NET_ALPHA = 0.5;
-
 function requireColumn(table: EngineTable, file: string, option: string, name: string): void {
   if (!table.columns.some((c) => c.name === name)) {
     const known = table.columns.map((c) => c.name);
@@ -49,6 +46,30 @@ export function readGroups(file: string, predictors: string[]): Record<string, s
   return groups;
 }
 
+/**
+ * `{"column or column=level": weight, ...}` from a JSON file; weights are finite and >= 0 (the
+ * engine checks each name against the predictors and their levels).
+ */
+export function readPenaltyWeights(file: string): Record<string, number> {
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(readFileSync(file, 'utf8'));
+  } catch (error) {
+    throw new UsageError(`--penalty-weights: cannot read ${file}: ${(error as Error).message}`);
+  }
+  if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) {
+    throw new UsageError(`--penalty-weights: ${file} must hold a JSON object {"column": weight, ...}`);
+  }
+  const weights: Record<string, number> = {};
+  for (const [name, value] of Object.entries(parsed)) {
+    if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {
+      throw new UsageError(`--penalty-weights: the weight of "${name}" in ${file} must be a number >= 0 (got ${JSON.stringify(value)})`);
+    }
+    weights[name] = value;
+  }
+  return weights;
+}
+
 export function buildFitSpec(options: FitOptions, table: EngineTable): FitSpec {
   const file = options.data;
   requireColumn(table, file, '--response', options.response);
@@ -66,12 +87,14 @@ export function buildFitSpec(options: FitOptions, table: EngineTable): FitSpec {
     response: options.response,
     predictors,
     penalty: options.penalty,
-    alpha: options.penalty === 'elastic-net' ? (options.alpha ?? DEFAULT_ELASTIC_NET_ALPHA) : 1,
+    ...(options.l1Share !== undefined ? { l1Share: options.l1Share } : {}),
     groups: options.groupsFile ? readGroups(options.groupsFile, predictors) : undefined,
+    penaltyWeights: options.penaltyWeightsFile ? readPenaltyWeights(options.penaltyWeightsFile) : undefined,
     standardize: options.standardize,
     lambda: options.lambda,
     pathLength: options.lambda ? options.lambda.length : options.pathLength,
-    lambdaRatio: options.lambdaRatio,
+    pathDecades: options.pathDecades,
+    ...(options.maxTerms !== undefined ? { maxTerms: options.maxTerms } : {}),
     tolerance: options.tolerance,
     maxIterations: options.maxIterations,
     screening: 'strong',

@@ -1,10 +1,10 @@
 /**
  * The engine's public types: the contract between the numerical core and everything that calls it
- * (CLI, fit workers, tests, benchmarks). Objectives and scalings follow ../shared/DESIGN.md exactly:
+ * (CLI, fit workers, tests, benchmarks). Objectives and scalings (docs/engine.md):
  *
  *   gaussian: 1/(2n) sum (y_i - b0 - x_i'b)^2 + lambda * P(b)
  *   binomial: -(1/n) sum [y_i eta_i - log(1 + exp(eta_i))] + lambda * P(b),  eta_i = b0 + x_i'b
- *   lasso P(b) = sum_j v_j |b_j|;  elastic net P(b) = sum_j v_j (alpha |b_j| + (1 - alpha)/2 b_j^2)
+ *   lasso P(b) = sum_j v_j |b_j|;  elastic net P(b) = sum_j v_j (a |b_j| + (1 - a)/2 b_j^2), a = l1Share
  *   group lasso P(b) = sum_g w_g ||b_g||_2, w_g = sqrt(|g|) by default.
  */
 
@@ -41,18 +41,20 @@ export interface FitSpec {
   /** Predictor column names (before encoding). */
   predictors: string[];
   penalty: PenaltyKind;
-  /** Elastic-net mix in (0, 1]; 1 for lasso. */
-  alpha: number;
+  /** Elastic-net L1 share a in (0, 1] (1 = lasso, towards 0 = ridge); required for elastic net, absent otherwise. */
+  l1Share?: number;
   /** Group lasso: group name -> column names (categorical predictors form a group on their own). */
   groups?: Record<string, string[]>;
-  /** Per-term (or per-predictor) penalty factors v_j; default 1, 0 = unpenalized. */
-  penaltyFactors?: Record<string, number>;
+  /** Per-term (or per-predictor) penalty weights v_j; default 1, 0 = unpenalized. */
+  penaltyWeights?: Record<string, number>;
   standardize: boolean;
   /** Explicit descending lambdas; otherwise the automatic grid below. */
   lambda?: number[];
   pathLength: number;
-  /** lambda_min / lambda_max; default by n vs p when absent. */
-  lambdaRatio?: number;
+  /** The automatic path ends at lambda_max * 10^-pathDecades (default DEFAULT_PATH_DECADES). */
+  pathDecades?: number;
+  /** End the path after the first lambda whose model has more than maxTerms nonzero terms. */
+  maxTerms?: number;
   tolerance: number;
   maxIterations: number;
   screening: Screening;
@@ -103,8 +105,8 @@ export interface PathResult {
   solves: SolveInfo[];
   /** Number of non-zero coefficients per lambda. */
   nonzero: number[];
-  /** Fraction of null deviance explained per lambda. */
-  devianceRatio: number[];
+  /** Fraction of the null deviance explained, per lambda: 1 - deviance / null deviance. */
+  devianceExplained: number[];
   /** Constant columns left out, rows dropped for missing values, etc. */
   notes: string[];
   /**
@@ -127,32 +129,32 @@ export interface PathResult {
 export interface PathOptions {
   family: Family;
   penalty: PenaltyKind;
-  /** Elastic-net mix in (0, 1]; ignored by the group lasso. */
-  alpha: number;
+  /** Elastic-net L1 share in (0, 1]; required for elastic net, absent for the lasso and group lasso. */
+  l1Share?: number;
   /** Group lasso: group id (0..G-1) of each design column; default every column its own group. */
   groupOfTerm?: ArrayLike<number>;
   /** Group lasso: weight per group; default sqrt(group size). 0 = unpenalized group. */
   groupWeights?: ArrayLike<number>;
   /** Penalty factor v_j per design column; default 1, 0 = unpenalized. */
-  penaltyFactors?: ArrayLike<number>;
+  penaltyWeights?: ArrayLike<number>;
   standardize: boolean;
   /** Explicit descending lambdas (e.g. the full-data grid passed to each fold). */
   lambda?: number[];
-  /** Automatic grid length (default 100). */
+  /** Automatic grid length (default DEFAULT_PATH_LENGTH). */
   pathLength?: number;
-  /** lambda_min / lambda_max (default 1e-4 if n > p else 1e-2). */
-  lambdaRatio?: number;
-  /** Relative duality gap target (gap / null-model objective); default 1e-7. */
+  /** The automatic grid ends at lambda_max * 10^-pathDecades (default DEFAULT_PATH_DECADES). */
+  pathDecades?: number;
+  /** Relative duality gap target (gap / null-model objective); default DEFAULT_TOLERANCE. */
   tolerance?: number;
-  /** FISTA iteration limit per lambda; default 10000. */
+  /** FISTA iteration limit per lambda; default DEFAULT_MAX_ITERATIONS. */
   maxIterations?: number;
   /** Default 'strong'. */
   screening?: Screening;
   /**
-   * Stop the path early when the deviance ratio stops improving: the fractional change of the
-   * deviance ratio between consecutive lambdas is below 1e-5, or it exceeds 0.999. Default false.
+   * End the path after the first lambda whose model has more than maxTerms nonzero terms (that
+   * lambda is kept). Default: no limit.
    */
-  earlyStop?: boolean;
+  maxTerms?: number;
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
   /**

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { reportUnexpected } from './unexpected';
 
 /** An error meant for the client: an HTTP status, a message that names the field, and the field. */
 export class HttpError extends Error {
@@ -36,11 +37,17 @@ export function fromZod(error: ZodError, where = 'body'): HttpError {
 interface BodyParserError extends Error {
   type?: string;
   status?: number;
+  expose?: boolean;
   limit?: number;
 }
 
-/** The last middleware: every error becomes `{ error: { message, field? } }` with a 4xx or 500. */
-export const errorHandler: ErrorRequestHandler = (err: unknown, _req, res, next) => {
+/**
+ * The last middleware: every error becomes `{ error: { message, field? } }` with a 4xx or 500. Only
+ * Lariat's own errors (HttpError, zod failures) and the body parser's client errors pass their
+ * message on; anything else is a 500 with a generic message and an id that matches the log line
+ * (server/http/unexpected.ts), never a stack trace, SQL or the values in it.
+ */
+export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
   if (res.headersSent) return next(err);
   if (err instanceof ZodError) err = fromZod(err);
   if (err instanceof HttpError) {
@@ -56,10 +63,10 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, _req, res, next)
     res.status(413).json({ error: { message: `The request body is larger than the limit (${e.limit} bytes).`, field: 'body' } });
     return;
   }
-  if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500) {
+  if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500 && e.expose === true && typeof e.type === 'string') {
     res.status(e.status).json({ error: { message: e.message } });
     return;
   }
-  console.error('[lariat] unexpected error', err);
-  res.status(500).json({ error: { message: 'Something went wrong on the server. The error was logged.' } });
+  const reported = reportUnexpected(err, `${req.method} ${req.baseUrl}${req.route ? String((req.route as { path: unknown }).path) : ''}`);
+  res.status(500).json({ error: { message: reported.message, id: reported.id } });
 };

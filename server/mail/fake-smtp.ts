@@ -13,6 +13,8 @@ export interface CapturedMessage {
   subject: string;
   text: string;
   html: string | null;
+  /** The workspace an invitation e-mail is about (the X-Lariat-Workspace header), else null. */
+  workspaceId: string | null;
   receivedAt: string;
 }
 
@@ -25,6 +27,12 @@ export interface FakeSmtp {
 }
 
 const MAX_KEPT = 500;
+/** Set by invitation e-mails (server/accounts/mail.ts) so the outbox can show them to the workspace's admins. */
+export const WORKSPACE_HEADER = 'x-lariat-workspace';
+
+function headerText(value: unknown): string | null {
+  return typeof value === 'string' && value !== '' ? value : null;
+}
 
 export async function startFakeSmtp(port = 0, host = '127.0.0.1'): Promise<FakeSmtp> {
   const messages: CapturedMessage[] = [];
@@ -43,6 +51,7 @@ export async function startFakeSmtp(port = 0, host = '127.0.0.1'): Promise<FakeS
             subject: mail.subject ?? '',
             text: mail.text ?? '',
             html: typeof mail.html === 'string' ? mail.html : null,
+            workspaceId: headerText(mail.headers.get(WORKSPACE_HEADER)),
             receivedAt: new Date().toISOString(),
           });
           if (messages.length > MAX_KEPT) messages.shift();

@@ -1,7 +1,10 @@
-/** /api/auth: sign-up, sign-in, sign-out, me, password reset. Thin: validate, call a service, shape the answer. */
+/**
+ * /api/auth: sign-up, sign-in, sign-out, me, password reset, and the signed-in person's sessions and
+ * password. Thin: validate, call a service, shape the answer.
+ */
 import { Router, type Response } from 'express';
 import {
-  CSRF_COOKIE,
+  changePasswordSchema,
   passwordResetCompleteSchema,
   passwordResetRequestSchema,
   signInSchema,
@@ -12,16 +15,18 @@ import {
 import { authenticate, membershipSummaries, signUp } from '../accounts/accounts';
 import { completePasswordReset, requestPasswordReset } from '../accounts/password-resets';
 import { toUserDto } from '../accounts/users';
-import { clearAuthCookies, setCsrfCookie } from '../auth/cookies';
+import { changePassword } from '../accounts/change-password';
+import { clearAuthCookies, csrfCookieName, readCookie, setCsrfCookie } from '../auth/cookies';
+import { csrfTokenFor } from '../auth/csrf';
 import { loadSession, requireSession, sessionUser } from '../auth/middleware';
-import { createAuthRateLimits } from '../auth/rate-limits';
-import { revokeSession, startSession } from '../auth/sessions';
+import { createRateLimits } from '../auth/rate-limits';
+import { listLiveSessions, revokeOtherSessions, revokeSession, startSession } from '../auth/sessions';
 import type { AppContext } from '../context';
 import { parseBody } from './parse-body';
 
 export function authRouter(ctx: AppContext): Router {
   const router = Router();
-  const limits = createAuthRateLimits();
+  const limits = createRateLimits(ctx.config);
 
   async function me(user: UserDto, csrfToken: string): Promise<MeDto> {
     return { user: toUserDto(user), memberships: await membershipSummaries(ctx.db, user.id), csrfToken };
@@ -30,14 +35,14 @@ export function authRouter(ctx: AppContext): Router {
   router.post('/auth/sign-up', limits.signUp, async (req, res) => {
     const input = parseBody(signUpSchema, req.body);
     const { user } = await signUp(ctx.db, input);
-    const csrf = await startSession(ctx, res, user.id);
+    const csrf = await startSession(ctx, res, user.id, req.get('user-agent'));
     res.status(201).json(await me(user, csrf));
   });
 
-  router.post('/auth/sign-in', limits.signIn, async (req, res) => {
+  router.post('/auth/sign-in', ...limits.signIn, async (req, res) => {
     const input = parseBody(signInSchema, req.body);
     const user = await authenticate(ctx.db, input.email, input.password);
-    const csrf = await startSession(ctx, res, user.id);
+    const csrf = await startSession(ctx, res, user.id, req.get('user-agent'));
     res.json(await me(user, csrf));
   });
 
@@ -49,19 +54,38 @@ export function authRouter(ctx: AppContext): Router {
     res.status(204).end();
   });
 
+  /** The session's id, set by requireSession. */
+  const sessionIdOf = (req: { sessionId?: string }) => req.sessionId as string;
+
   router.get('/auth/me', requireSession, async (req, res) => {
-    const existing: unknown = req.cookies?.[CSRF_COOKIE];
-    const csrf = typeof existing === 'string' && existing !== '' ? existing : setCsrfCookie(res, ctx.config);
+    // The session's own CSRF token; the cookie is (re)set if the browser lost it or holds another.
+    const csrf = csrfTokenFor(ctx.config.sessionSecret, sessionIdOf(req));
+    if (readCookie(req, csrfCookieName(ctx.config)) !== csrf) setCsrfCookie(res, ctx.config, csrf);
     res.json(await me(sessionUser(req), csrf));
   });
 
-  router.post('/auth/password-reset/request', limits.resetRequest, async (req, res) => {
+  router.get('/auth/sessions', requireSession, async (req, res) => {
+    res.json({ sessions: await listLiveSessions(ctx, sessionUser(req).id, sessionIdOf(req)) });
+  });
+
+  router.post('/auth/sessions/sign-out-others', requireSession, async (req, res) => {
+    const signedOut = await revokeOtherSessions(ctx.db, sessionUser(req).id, sessionIdOf(req));
+    res.json({ signedOut });
+  });
+
+  router.post('/auth/password', requireSession, limits.changePassword, async (req, res) => {
+    const input = parseBody(changePasswordSchema, req.body);
+    const { signedOut } = await changePassword(ctx, sessionUser(req).id, sessionIdOf(req), input);
+    res.json({ signedOut, message: `Your password is changed${signedOut > 0 ? `, and your ${signedOut} other session${signedOut === 1 ? ' was' : 's were'} signed out` : ''}. We sent you an e-mail about it.` });
+  });
+
+  router.post('/auth/password-reset/request', ...limits.resetRequest, async (req, res) => {
     const { email } = parseBody(passwordResetRequestSchema, req.body);
     await requestPasswordReset(ctx, email);
     res.status(202).json({ message: 'If an account uses this e-mail address, a reset link is on its way. It works for 1 hour.' });
   });
 
-  router.post('/auth/password-reset/complete', async (req, res) => {
+  router.post('/auth/password-reset/complete', limits.resetComplete, async (req, res) => {
     const { token, password } = parseBody(passwordResetCompleteSchema, req.body);
     await completePasswordReset(ctx.db, token, password);
     res.json({ message: 'Your password is changed, and every session of your account was signed out. Sign in with the new password.' });

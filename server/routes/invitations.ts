@@ -28,7 +28,7 @@ export function invitationsRouter(ctx: AppContext): Router {
     const signedIn = await loadSession(req, res).catch(() => null);
     const result = await acceptInvitation(ctx.db, token, signedIn, body);
     // A brand-new account is signed in straight away; an existing one already is.
-    const csrfToken = result.created ? await startSession(ctx, res, result.user.id) : undefined;
+    const csrfToken = result.created ? await startSession(ctx, res, result.user.id, req.get('user-agent')) : undefined;
     res.status(201).json({ user: result.user, workspaceId: result.workspaceId, role: result.role, ...(csrfToken ? { csrfToken } : {}) });
   });
 

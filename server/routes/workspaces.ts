@@ -7,6 +7,7 @@ import { changeRole, listMembers, removeMember } from '../accounts/memberships';
 import { createWorkspace } from '../accounts/accounts';
 import { findWorkspaceOf, listWorkspacesOf } from '../accounts/workspaces';
 import { anyMember, requireSession, requireWorkspaceRole, sessionUser, workspaceMembership } from '../auth/middleware';
+import { createRateLimits } from '../auth/rate-limits';
 import type { AppContext } from '../context';
 import { notFound } from '../http/errors';
 import { parseBody } from './parse-body';
@@ -22,12 +23,13 @@ function idParam(value: string | string[] | undefined, what: string): string {
 export function workspacesRouter(ctx: AppContext): Router {
   const router = Router();
   const admin = requireWorkspaceRole('admin');
+  const limits = createRateLimits(ctx.config);
 
   router.get('/workspaces', requireSession, async (req, res) => {
     res.json({ workspaces: await listWorkspacesOf(ctx.db, sessionUser(req).id) });
   });
 
-  router.post('/workspaces', requireSession, async (req, res) => {
+  router.post('/workspaces', requireSession, limits.createWorkspace, async (req, res) => {
     const { name } = parseBody(createWorkspaceSchema, req.body);
     res.status(201).json(await createWorkspace(ctx.db, name, sessionUser(req).id));
   });
@@ -58,7 +60,7 @@ export function workspacesRouter(ctx: AppContext): Router {
     res.json({ invitations: await listPendingInvitations(ctx.db, workspaceMembership(req).workspaceId) });
   });
 
-  router.post('/workspaces/:workspaceId/invitations', admin, async (req, res) => {
+  router.post('/workspaces/:workspaceId/invitations', admin, limits.invite, async (req, res) => {
     const input = parseBody(createInvitationSchema, req.body);
     res.status(201).json(await invite(ctx, workspaceMembership(req).workspaceId, sessionUser(req), input));
   });

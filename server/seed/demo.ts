@@ -1,12 +1,14 @@
 /**
  * Seeds the demo workspace (idempotent): the demo account, its workspace, and the invented
- * Harbour Creamery dataset (datasets/demo). Run by `npm start` and `npm run dev` after migrations.
+ * Harbour Creamery dataset (datasets/demo). Run by `npm start` and `npm run dev` after migrations;
+ * skipped when NODE_ENV is production (the server refuses to start with the demo account there).
  */
 import { fileURLToPath } from 'node:url';
 import { DEMO_CSV_PATH } from '../../datasets/demo/generate';
 import { ensureUserWithWorkspace } from '../accounts/accounts';
 import { connectDatabase, type Database } from '../db/client';
 import { importDatasetFromFile } from '../datasets/index';
+import { mayHaveDemo } from '../security/production-checks';
 import { DEMO_ACCOUNT } from './demo-account';
 
 export async function seedDemo(db: Database): Promise<{ workspaceId: string; datasetId: string }> {
@@ -29,7 +31,9 @@ export async function seedDemo(db: Database): Promise<{ workspaceId: string; dat
   return { workspaceId, datasetId };
 }
 
-if (process.argv[1] === fileURLToPath(import.meta.url)) {
+if (process.argv[1] === fileURLToPath(import.meta.url) && !mayHaveDemo(process.env.NODE_ENV)) {
+  console.error(`[lariat] no demo workspace in ${process.env.NODE_ENV} (development and test only)`);
+} else if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const url = process.env.DATABASE_URL;
   if (!url) throw new Error('DATABASE_URL is not set');
   const handle = connectDatabase(url, 2);

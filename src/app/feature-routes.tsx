@@ -1,4 +1,5 @@
 import type { RouteObject } from 'react-router';
+import { accountRoutes } from '@/features/account/routes';
 import { datasetsRoutes } from '@/features/datasets/routes';
 
 /**
@@ -9,4 +10,5 @@ import { datasetsRoutes } from '@/features/datasets/routes';
  */
 export const workspaceFeatureRoutes: RouteObject[] = [
   ...datasetsRoutes,
+  ...accountRoutes,
 ];

@@ -24,6 +24,7 @@ export const paths = {
     releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },
     members: { path: '/w/:workspaceId/members', getHref: (workspaceId: string) => `/w/${workspaceId}/members` },
     outbox: { path: '/w/:workspaceId/outbox', getHref: (workspaceId: string) => `/w/${workspaceId}/outbox` },
+    account: { path: '/w/:workspaceId/account', getHref: (workspaceId: string) => `/w/${workspaceId}/account` },
   },
   newWorkspace: { path: '/new-workspace', getHref: () => '/new-workspace' },
 } as const;

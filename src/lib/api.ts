@@ -30,13 +30,18 @@ function readCookie(name: string): string | undefined {
   return undefined;
 }
 
+/** The session's CSRF token: from `__Host-lariat_csrf` when served over https, else `lariat_csrf`. */
+export function csrfToken(): string | undefined {
+  return readCookie(`__Host-${CSRF_COOKIE}`) ?? readCookie(CSRF_COOKIE);
+}
+
 type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
 
 export async function apiRequest<T>(method: Method, path: string, body?: unknown): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
   if (method !== 'GET') {
-    const token = readCookie(CSRF_COOKIE);
+    const token = csrfToken();
     if (token) headers[CSRF_HEADER] = token;
   }
   let response: Response;

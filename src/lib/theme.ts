@@ -25,17 +25,16 @@ export function initialTheme(): Theme {
 /**
  * Switches the class with transitions paused, so buttons don't fade through unreadable in-between
  * colours (the same trick as next-themes' disableTransitionOnChange): pause, switch, force a style
- * recalculation, resume.
+ * recalculation, resume. The pause is a class with its rule in styles.css, not an injected <style>
+ * element, which the content security policy (style-src 'self') would block.
  */
 export function applyTheme(theme: Theme): void {
   const root = document.documentElement;
-  const pause = document.createElement('style');
-  pause.textContent = '*,*::before,*::after{transition:none!important}';
-  document.head.appendChild(pause);
+  root.classList.add('theme-switching');
   root.classList.toggle('dark', theme === 'dark');
   root.style.colorScheme = theme;
   void window.getComputedStyle(document.body).color;
-  setTimeout(() => pause.remove(), 1);
+  setTimeout(() => root.classList.remove('theme-switching'), 1);
 }
 
 export function saveTheme(theme: Theme): void {

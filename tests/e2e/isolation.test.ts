@@ -45,9 +45,16 @@ describe('workspace isolation', () => {
   });
 
   it("refuses B's direct API requests for A's members", async () => {
-    const response = await contextB.request.get(`/api/workspaces/${workspaceA}/members`);
-    expect([403, 404]).toContain(response.status());
-    expect(await response.text()).not.toContain(alice.email);
+    // 404, not 403: a workspace you are not in looks exactly like one that does not exist.
+    for (const path of ['', '/members', '/datasets', '/invitations']) {
+      const response = await contextB.request.get(`/api/workspaces/${workspaceA}${path}`);
+      expect(response.status(), path).toBe(404);
+      const text = await response.text();
+      expect(JSON.parse(text)).toEqual({ error: { message: 'No such workspace, or you are not a member of it.' } });
+      expect(text).not.toContain(alice.email);
+    }
+    const unknown = await contextB.request.get(`/api/workspaces/00000000-0000-4000-8000-000000000000/members`);
+    expect(unknown.status()).toBe(404);
   });
 
   it('shows a not-found message inside the shell for an unknown area of a workspace', async () => {
@@ -66,16 +73,21 @@ describe('workspace isolation', () => {
   });
 
   it('starts a second workspace from the switcher and switches between the two', async () => {
-    await pageB.locator('#workspace-switcher').selectOption({ label: 'New workspace…' });
-    await pageB.waitForURL(/\/new-workspace$/);
-    await checkA11y(pageB, 'new workspace page');
-    await pageB.getByLabel('Workspace name').fill('Bruno side project');
-    await pageB.getByRole('button', { name: 'Create workspace' }).click();
-    await pageB.waitForURL((url) => /\/w\/[^/]+\/datasets$/.test(url.pathname) && !url.pathname.includes(workspaceB));
-    expect(await pageB.locator('#workspace-switcher option:checked').textContent()).toBe('Bruno side project (Admin)');
+    // Its own person, so the other tests' expectations (one workspace for Bruno) hold in any order.
+    const contextC = await newContext(browser);
+    const pageC = await contextC.newPage();
+    const carla = newAccount('carla');
+    const workspaceC = await signUp(pageC, carla);
+    await pageC.locator('#workspace-switcher').selectOption({ label: 'New workspace…' });
+    await pageC.waitForURL(/\/new-workspace$/);
+    await checkA11y(pageC, 'new workspace page');
+    await pageC.getByLabel('Workspace name').fill('Carla side project');
+    await pageC.getByRole('button', { name: 'Create workspace' }).click();
+    await pageC.waitForURL((url) => /\/w\/[^/]+\/datasets$/.test(url.pathname) && !url.pathname.includes(workspaceC));
+    expect(await pageC.locator('#workspace-switcher option:checked').textContent()).toBe('Carla side project (Admin)');
 
-    await pageB.locator('#workspace-switcher').selectOption(workspaceB);
-    await pageB.waitForURL(new RegExp(`/w/${workspaceB}/datasets$`));
-    expect(await pageB.locator('#workspace-switcher option').count()).toBe(3);
+    await pageC.locator('#workspace-switcher').selectOption(workspaceC);
+    await pageC.waitForURL(new RegExp(`/w/${workspaceC}/datasets$`));
+    expect(await pageC.locator('#workspace-switcher option').count()).toBe(3);
   });
 });

@@ -59,14 +59,15 @@ interface OutboxMessage {
 }
 
 /**
- * Waits for an e-mail to `to` in the dev outbox, read with the cookies of `adminContext` (the outbox
- * is for admins), and returns it with the first link in it whose path starts with `linkPath`.
+ * Waits for an e-mail to `to` in the dev outbox, read with the cookies of `reader` (the addressee
+ * signed in, or an admin of the workspace an invitation is from: nobody else sees it), and returns
+ * it with the first link in it whose path starts with `linkPath`.
  */
-export async function waitForEmail(adminContext: BrowserContext, to: string, linkPath: string): Promise<{ message: OutboxMessage; link: string }> {
+export async function waitForEmail(reader: BrowserContext, to: string, linkPath: string): Promise<{ message: OutboxMessage; link: string }> {
   const deadline = Date.now() + 15_000;
   let last = '';
   while (Date.now() < deadline) {
-    const response = await adminContext.request.get('/api/dev/outbox');
+    const response = await reader.request.get('/api/dev/outbox');
     last = `${response.status()} ${await response.text()}`;
     if (response.ok()) {
       const { messages } = (await response.json()) as { messages: OutboxMessage[] };

@@ -102,6 +102,10 @@ export default async function setup(project: TestProject): Promise<() => Promise
       LARIAT_PUBLIC_URL: baseUrl,
       LARIAT_FAKE_SMTP_PORT: String(smtpPort),
       LARIAT_SERVE_CLIENT: '1',
+      // The browser tests follow e-mailed links through the outbox (each person sees their own mail).
+      LARIAT_DEV_OUTBOX: '1',
+      // Every test file signs up from 127.0.0.1: real limits are tested in tests/api/security.
+      LARIAT_RATE_LIMIT_FACTOR: '100',
       LARIAT_STATE_DIR: `.lariat/test-state/${database.name}`,
     },
   });

@@ -34,6 +34,25 @@ export async function countFileChunks(db: Executor, uploadId: string): Promise<n
   return rows.length;
 }
 
+/** A column's storage facts without its data: the cleaned CSV reads the data a slice at a time. */
+export async function listColumnStorage(db: Executor, uploadId: string): Promise<{ position: number; storage: StoredColumn['storage']; levels: string[] | null; bytes: number }[]> {
+  return db
+    .select({ position: datasetColumns.position, storage: datasetColumns.storage, levels: datasetColumns.levels, bytes: sql<number>`octet_length(${datasetColumns.data})::int` })
+    .from(datasetColumns)
+    .where(eq(datasetColumns.uploadId, uploadId))
+    .orderBy(asc(datasetColumns.position));
+}
+
+/** Bytes [from, from + length) of one stored column (PostgreSQL slices the bytea). */
+export async function readColumnBytes(db: Executor, uploadId: string, position: number, from: number, length: number): Promise<Buffer> {
+  const rows = await db
+    .select({ data: sql<Buffer>`substring(${datasetColumns.data} FROM ${from + 1} FOR ${length})` })
+    .from(datasetColumns)
+    .where(and(eq(datasetColumns.uploadId, uploadId), eq(datasetColumns.position, position)));
+  const data = rows[0]?.data;
+  return data === undefined ? Buffer.alloc(0) : Buffer.isBuffer(data) ? data : Buffer.from(data);
+}
+
 /** One chunk at a time, so a download never holds the whole file in memory. */
 export async function readFileChunk(db: Executor, uploadId: string, seq: number): Promise<Buffer | null> {
   const rows = await db

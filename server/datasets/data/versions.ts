@@ -1,5 +1,5 @@
 /** Data access: dataset versions with their upload's file facts and the creator's name. */
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import type { ColumnSchema, ParseReport } from '../../../shared/datasets';
 import { datasets, datasetUploads, datasetVersions, users } from '../../db/schema/index';
 import type { Executor } from './executor';
@@ -77,6 +77,14 @@ export async function findVersionByChecksum(db: Executor, workspaceId: string, s
     .orderBy(asc(datasetVersions.number))
     .limit(1);
   return rows[0] ?? null;
+}
+
+/**
+ * Serialises ingests of one file (by checksum) within a workspace until this transaction ends, so two
+ * identical uploads at once cannot both pass the "already stored?" check.
+ */
+export async function lockChecksum(tx: Executor, workspaceId: string, sha256: string): Promise<void> {
+  await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtextextended(${`lariat-checksum:${workspaceId}:${sha256}`}, 0))`);
 }
 
 export async function insertVersion(

@@ -4,13 +4,14 @@ import { columnSettingsSchema } from '../../../shared/datasets';
 import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
 import type { AppContext } from '../../context';
 import { fromZod } from '../../http/errors';
-import { countFileChunks, readFileChunk } from '../data/uploads';
 import { changeColumnSettings } from '../service/column-settings';
 import { deleteDataset, getDataset, getVersion, listDatasets, requireVersion } from '../service/datasets';
 import { prepareCleanedCsv } from '../service/export';
+import { originalChunks } from '../service/original';
 import { importOpenDataset, listOpenDatasets } from '../service/open-datasets';
 import { previewRows } from '../service/preview';
 import { contentDisposition, datasetIdParam, intQuery, versionParam } from './params';
+import { sendStream } from './send-stream';
 
 export function datasetsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -55,20 +56,14 @@ export function datasetsRouter(ctx: AppContext): Router {
   router.get(`${version}/original`, anyMember, async (req, res) => {
     const s = scope(req);
     const { version: v } = await requireVersion(ctx.db, s.workspaceId, s.datasetId, s.number);
-    const chunks = await countFileChunks(ctx.db, v.uploadId);
     res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Length': String(v.sizeBytes), 'Content-Disposition': contentDisposition(v.fileName) });
-    for (let seq = 0; seq < chunks; seq++) {
-      const chunk = await readFileChunk(ctx.db, v.uploadId, seq);
-      if (chunk && !res.write(chunk)) await new Promise((resolve) => res.once('drain', resolve));
-    }
-    res.end();
+    await sendStream(res, originalChunks(ctx.db, v.uploadId));
   });
 
   router.get(`${version}/cleaned.csv`, anyMember, async (req, res) => {
     const csv = await prepareCleanedCsv(ctx.db, scope(req));
     res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': contentDisposition(csv.fileName) });
-    await csv.writeTo(res);
-    res.end();
+    await sendStream(res, csv.chunks());
   });
 
   router.get('/workspaces/:workspaceId/open-datasets', anyMember, async (req, res) => {

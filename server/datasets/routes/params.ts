@@ -24,7 +24,20 @@ export function intQuery(req: Request, name: string, fallback: number): number {
   return Number.isInteger(n) && n >= 0 ? n : fallback;
 }
 
+/** RFC 8187 attr-char: everything else in the UTF-8 bytes is percent-encoded. */
+const ATTR_CHAR = /^[A-Za-z0-9!#$&+\-.^_`|~]$/;
+
+/**
+ * `attachment` with a quoted ASCII fallback (quotes, backslashes, controls and non-ASCII become _)
+ * and the exact name in `filename*` (RFC 6266 section 4.3, RFC 8187). encodeURIComponent would leave
+ * ' ( ) * unencoded, which the filename* syntax does not allow, and throws on a lone surrogate.
+ */
 export function contentDisposition(fileName: string): string {
   const ascii = fileName.replace(/[^\x20-\x7e]|["\\]/g, '_');
-  return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(fileName)}`;
+  let encoded = '';
+  for (const byte of Buffer.from(fileName, 'utf8')) {
+    const ch = String.fromCharCode(byte);
+    encoded += byte < 0x80 && ATTR_CHAR.test(ch) ? ch : `%${byte.toString(16).toUpperCase().padStart(2, '0')}`;
+  }
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encoded}`;
 }

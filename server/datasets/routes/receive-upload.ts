@@ -2,7 +2,8 @@
  * Streams a multipart upload to a temporary file with busboy, hashing as it goes (SHA-256). The size
  * limit is enforced while streaming: busboy's `limits.fileSize` truncates and emits 'limit', and we
  * stop reading and answer 413 at once, without buffering the rest. A request cut off mid-way
- * rejects with ClientGone, and the temporary file is removed in every failure.
+ * rejects with ClientGone. In every failure each stream is destroyed (busboy, its file stream and the
+ * write stream, so no descriptor stays open) and the temporary file is removed once it is closed.
  */
 import { createHash, randomUUID } from 'node:crypto';
 import fs from 'node:fs';
@@ -26,6 +27,18 @@ export class ClientGone extends Error {
   }
 }
 
+/**
+ * The name the uploader's system gave the file, as shown and offered back on download: its last
+ * path segment (either separator: browsers on Windows may send C:\\...), control characters
+ * (newlines, NUL) replaced, at most 200 characters.
+ */
+export function safeFileName(raw: string | undefined): string {
+  const last = (raw ?? '').split(/[/\\]/).pop() ?? '';
+  // eslint-disable-next-line no-control-regex -- control characters are what this removes
+  const clean = last.replace(/[\u0000-\u001f\u007f]/g, '_').trim().slice(0, 200);
+  return clean === '' || clean === '.' || clean === '..' ? 'upload.csv' : clean;
+}
+
 function formatMb(bytes: number): string {
   return `${Number((bytes / (1024 * 1024)).toPrecision(3))} MB`;
 }
@@ -46,13 +59,23 @@ export function receiveUpload(req: Request, opts: { limitBytes: number; tempDir:
     let fileName = '';
     let sizeBytes = 0;
     let written: Promise<void> | null = null;
+    let fileStream: NodeJS.ReadableStream & { destroy(): void } | null = null;
+    let out: fs.WriteStream | null = null;
     let done = false;
 
     const fail = (error: Error) => {
       if (done) return;
       done = true;
       req.unpipe(bb);
-      fs.rm(filePath, { force: true }, () => undefined);
+      fileStream?.destroy();
+      bb.destroy();
+      // Remove the file only once its descriptor is closed: an unlinked file that is still open
+      // keeps its disk space until the process ends.
+      const remove = () => fs.rm(filePath, { force: true }, () => undefined);
+      if (out && !out.closed) {
+        out.once('close', remove);
+        out.destroy();
+      } else remove();
       reject(error);
     };
 
@@ -64,23 +87,27 @@ export function receiveUpload(req: Request, opts: { limitBytes: number; tempDir:
         stream.resume();
         return;
       }
-      fileName = path.basename(info.filename || 'upload.csv').slice(0, 200);
-      const out = fs.createWriteStream(filePath);
+      fileName = safeFileName(info.filename);
+      fileStream = stream;
+      const file = (out = fs.createWriteStream(filePath));
       stream.on('data', (chunk: Buffer) => {
         hash.update(chunk);
         sizeBytes += chunk.length;
         opts.onBytes?.(sizeBytes);
       });
       stream.on('limit', () => {
-        fail(new FileProblem(`${fileName} is larger than the upload limit of ${formatMb(opts.limitBytes)}; the upload was stopped at that point and nothing was stored.`, 413));
-        stream.destroy();
-        out.destroy();
+        // busboy emits 'limit' in the middle of its own write and touches the file stream afterwards:
+        // destroy the streams once that write has returned.
+        process.nextTick(() =>
+          fail(new FileProblem(`${fileName} is larger than the upload limit of ${formatMb(opts.limitBytes)}; the upload was stopped at that point and nothing was stored.`, 413)),
+        );
       });
       written = new Promise((ok, ko) => {
-        out.on('finish', ok);
-        out.on('error', ko);
+        file.on('finish', ok);
+        file.on('error', ko);
       });
-      stream.pipe(out);
+      written.catch(() => undefined); // a write error after a failure is expected; fail() already answered
+      stream.pipe(file);
     });
     bb.on('error', () => fail(new FileProblem('The upload is not well-formed multipart/form-data.')));
     bb.on('close', () => {

@@ -12,8 +12,9 @@ import { ingestIdSchema, parseMissingMarkers, uploadFieldsSchema } from '../../.
 import { anyMember, requireWorkspaceRole, sessionUser, workspaceMembership } from '../../auth/middleware';
 import type { AppContext } from '../../context';
 import { fromZod, HttpError, notFound } from '../../http/errors';
-import { FileProblem } from '../parse/errors';
 import { ingestFile } from '../service/ingest';
+import { publicIngestFailure } from '../service/ingest-errors';
+import { sweepIngestLeftovers } from '../service/leftovers';
 import { readProgress, startProgress } from '../service/progress';
 import { ClientGone, receiveUpload } from './receive-upload';
 
@@ -21,6 +22,7 @@ export function uploadsRouter(ctx: AppContext): Router {
   const router = Router();
   const tempDir = path.resolve(ctx.config.LARIAT_STATE_DIR, 'ingest');
   const limitBytes = Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024);
+  sweepIngestLeftovers(tempDir); // the router is built once, at start-up
 
   router.post('/workspaces/:workspaceId/datasets/uploads', requireWorkspaceRole('admin', 'analyst'), async (req, res) => {
     const { workspaceId } = workspaceMembership(req);
@@ -51,13 +53,15 @@ export function uploadsRouter(ctx: AppContext): Router {
       progress.finish(result.message);
       res.status(result.duplicate ? 200 : 201).json(result);
     } catch (error) {
-      progress.fail(error instanceof Error ? error.message : 'The upload failed.');
-      if (error instanceof ClientGone) return;
-      if (error instanceof FileProblem) {
-        if (error.status === 413) res.set('Connection', 'close'); // stop receiving the rest
-        throw new HttpError(error.status, error.message, error.field);
+      if (error instanceof ClientGone) {
+        progress.fail(error.message);
+        return;
       }
-      throw error;
+      // Only Lariat's own messages reach the uploader and the progress entry (ingest-errors.ts).
+      const failure = publicIngestFailure(error);
+      progress.fail(failure.message);
+      if (failure.status === 413) res.set('Connection', 'close'); // stop receiving the rest
+      throw new HttpError(failure.status, failure.message, failure.field);
     } finally {
       if (filePath) fs.rm(filePath, { force: true }, () => undefined);
     }

@@ -4,11 +4,11 @@
  */
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { DEFAULT_MISSING_MARKERS } from '../../../shared/datasets';
 import type { Database } from '../../db/client';
 import { ingestFile } from './ingest';
+import { importTempDir } from './leftovers';
 
 async function sha256Of(filePath: string): Promise<string> {
   const hash = createHash('sha256');
@@ -40,7 +40,7 @@ export async function importDatasetFromFile(db: Database, input: ImportFileInput
     sizeBytes: fs.statSync(input.filePath).size,
     missingMarkers: [...DEFAULT_MISSING_MARKERS],
     columnLimit: input.columnLimit ?? 5000,
-    tempDir: path.join(os.tmpdir(), 'lariat-ingest'),
+    tempDir: importTempDir(),
   });
   return { datasetId: result.datasetId, versionId: result.version.id, duplicate: result.duplicate };
 }

@@ -10,11 +10,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { UploadResultDto } from '../../../shared/datasets';
 import type { Database } from '../../db/client';
-import { notFound } from '../../http/errors';
+import { conflict, notFound } from '../../http/errors';
 import { findDataset, insertDataset, nextVersionNumber } from '../data/datasets';
 import type { Executor } from '../data/executor';
 import { insertColumn, insertFileChunk, insertUpload } from '../data/uploads';
-import { findVersionByChecksum, findVersionRowById, insertVersion } from '../data/versions';
+import { findVersionByChecksum, findVersionRowById, insertVersion, lockChecksum } from '../data/versions';
 import { versionSummary } from './dto';
 import type { ParseOutcome } from './parse-protocol';
 import { startParse, type ColumnSource } from './parse-thread';
@@ -143,6 +143,14 @@ async function storeOriginal(tx: Executor, uploadId: string, filePath: string, s
  */
 async function storeParsed(tx: Executor, req: IngestRequest, existingDatasetId: string | null, uploadId: string, parsed: ParseOutcome, thread: ColumnSource, timer: Timer): Promise<string> {
   const columnCount = parsed.header.length;
+  // Another upload of the same file may have been stored while this one was parsed: checked again
+  // under a lock, it is a conflict (409) rather than a unique-constraint failure.
+  await lockChecksum(tx, req.workspaceId, req.sha256);
+  const same = await findVersionByChecksum(tx, req.workspaceId, req.sha256, req.datasetId);
+  if (same) {
+    const where = req.datasetId ? 'this dataset' : 'a dataset in this workspace';
+    throw conflict(`${req.fileName} is identical to version ${same.number} of ${where}, which another upload stored a moment ago; nothing new was stored.`, 'file');
+  }
   let next = thread.column(0);
   const datasetId =
     existingDatasetId ??

@@ -52,6 +52,8 @@ export const sessions = pgTable(
     createdAt: createdAt(),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    /** The browser's User-Agent at sign-in (cut to 200 characters), shown on the sessions page. */
+    userAgent: text('user_agent'),
   },
   (t) => [index('sessions_user_idx').on(t.userId)],
 );

@@ -5,7 +5,7 @@ import { proxBlock } from './prox';
  *
  *   P(b) = sum_u w_u (alpha ||b_u||_2 + (1 - alpha)/2 ||b_u||_2^2)
  *
- * lasso and elastic net: one block per column, w_u = penalty factor v_j; group lasso: one block per
+ * lasso and elastic net: one block per column, w_u = penalty weight v_j; group lasso: one block per
  * group, w_u = group weight (default sqrt(|g|)), alpha = 1. Blocks with w_u = 0 are unpenalized.
  * Constant columns belong to no block (their coefficient stays 0).
  */

@@ -50,7 +50,10 @@ function checkOptions(spec: FitSpec): void {
   if (!['lasso', 'elastic-net', 'group-lasso'].includes(spec.penalty)) {
     fail(`penalty must be lasso, elastic-net or group-lasso; got "${spec.penalty}"`, 'penalty');
   }
-  if (!(spec.alpha > 0 && spec.alpha <= 1)) fail(`alpha must be in (0, 1]; got ${spec.alpha}`, 'alpha');
+  if (spec.penalty === 'elastic-net') {
+    if (spec.l1Share === undefined) fail('the elastic-net penalty needs an L1 share in (0, 1] (1 = lasso, towards 0 = ridge)', 'l1Share');
+    else if (!(spec.l1Share > 0 && spec.l1Share <= 1)) fail(`L1 share must be in (0, 1]; got ${spec.l1Share}`, 'l1Share');
+  } else if (spec.l1Share !== undefined) fail(`L1 share applies only to the elastic-net penalty (this fit is ${spec.penalty})`, 'l1Share');
   if (spec.lambda) {
     if (spec.lambda.length === 0) fail('lambda: give at least one value', 'lambda');
     spec.lambda.forEach((l, k) => {
@@ -59,8 +62,11 @@ function checkOptions(spec: FitSpec): void {
     });
   }
   if (!(Number.isInteger(spec.pathLength) && spec.pathLength >= 1)) fail(`path length must be a whole number >= 1; got ${spec.pathLength}`, 'pathLength');
-  if (spec.lambdaRatio !== undefined && !(spec.lambdaRatio > 0 && spec.lambdaRatio < 1)) {
-    fail(`lambda ratio must be in (0, 1); got ${spec.lambdaRatio}`, 'lambdaRatio');
+  if (spec.pathDecades !== undefined && !(spec.pathDecades > 0 && Number.isFinite(spec.pathDecades))) {
+    fail(`path decades must be a positive number; got ${spec.pathDecades}`, 'pathDecades');
+  }
+  if (spec.maxTerms !== undefined && !(Number.isInteger(spec.maxTerms) && spec.maxTerms >= 1)) {
+    fail(`max terms must be a whole number >= 1; got ${spec.maxTerms}`, 'maxTerms');
   }
   if (!(spec.tolerance > 0 && Number.isFinite(spec.tolerance))) fail(`tolerance must be a positive number; got ${spec.tolerance}`, 'tolerance');
   if (!(Number.isInteger(spec.maxIterations) && spec.maxIterations >= 1)) {
@@ -122,21 +128,21 @@ function checkGroups(spec: FitSpec, byName: Map<string, EngineColumn>): void {
       owner.set(name, group);
     }
   }
-  // The group lasso penalizes a group as a whole: its members must share one penalty factor.
-  const factors = spec.penaltyFactors ?? {};
+  // The group lasso penalizes a group as a whole: its members must share one penalty weight.
+  const weights = spec.penaltyWeights ?? {};
   for (const [group, columns] of Object.entries(spec.groups)) {
-    const values = new Set(columns.map((c) => factors[c] ?? 1));
-    if (values.size > 1) fail(`group "${group}" has different penalty factors; give its columns one factor`, 'penaltyFactors');
+    const values = new Set(columns.map((c) => weights[c] ?? 1));
+    if (values.size > 1) fail(`group "${group}" has different penalty weights; give its columns one weight`, 'penaltyWeights');
   }
 }
 
 function checkPenaltyFactors(spec: FitSpec, byName: Map<string, EngineColumn>): void {
-  for (const [key, value] of Object.entries(spec.penaltyFactors ?? {})) {
-    if (!(Number.isFinite(value) && value >= 0)) fail(`penalty factor of "${key}" must be finite and >= 0; got ${value}`, 'penaltyFactors');
+  for (const [key, value] of Object.entries(spec.penaltyWeights ?? {})) {
+    if (!(Number.isFinite(value) && value >= 0)) fail(`penalty weight of "${key}" must be finite and >= 0; got ${value}`, 'penaltyWeights');
     if (spec.predictors.includes(key)) continue;
     const cut = key.indexOf('=');
     const base = cut > 0 ? byName.get(key.slice(0, cut)) : undefined;
     const isLevel = base?.kind === 'categorical' && spec.predictors.includes(base.name) && base.levels.includes(key.slice(cut + 1));
-    if (!isLevel) fail(`penalty factor for "${key}", which is not a predictor or a predictor's level`, 'penaltyFactors');
+    if (!isLevel) fail(`penalty weight for "${key}", which is not a predictor or a predictor's level`, 'penaltyWeights');
   }
 }

@@ -1,7 +1,8 @@
 import { buildDesign, type BuiltDesign } from '../design/build';
 import { validateSpec } from '../design/validate';
 import { EngineInputError, type CrossProducts, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
-import { defaultLambdaRatio, lambdaGrid } from './grid';
+import { lambdaGrid } from './grid';
+import { DEFAULT_MAX_ITERATIONS, DEFAULT_PATH_DECADES, DEFAULT_PATH_LENGTH, DEFAULT_TOLERANCE } from '../defaults';
 import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareGramProblem, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
@@ -9,16 +10,12 @@ import { constantColumns } from '../core/standardize';
 import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
 
-const DEFAULT_TOLERANCE = 1e-7;
-const DEFAULT_MAX_ITERATIONS = 10000;
-
 /**
  * Fits the regularization path on an encoded design (objectives in types.ts). Standardization is
  * learnt from these rows. The path (scikit-learn's path functions are the model, STYLE.md 11): exact
  * lambda_max from the null model, the log-spaced grid or the explicit lambdas, warm starts, screening
- * and one typed SolveInfo per lambda. Early stop (options.earlyStop, off by default): after the
- * third lambda, stop once the deviance ratio changes by less than 1e-5 (relative) between lambdas or
- * exceeds 0.999.
+ * and one typed SolveInfo per lambda. With options.maxTerms the path ends after the first lambda
+ * whose model has more than maxTerms nonzero terms (that lambda is kept, so the crossing is shown).
  */
 export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
   checkPathOptions(design, y, options);
@@ -38,17 +35,17 @@ export function fitPathOnCrossProducts(terms: string[], cp: CrossProducts, const
 
 function runPath(prepared: PreparedProblem, terms: string[], options: PathOptions, rows: { design: DesignMatrix; y: Float64Array } | null): PathResult {
   const { problem, std, nullFit, dual, lambdaMax } = prepared;
-  const { n, p } = std;
+  const { p } = std;
   const notes: string[] = [];
   for (let j = 0; j < p; j++) {
     if (std.constant[j]) notes.push(`column "${terms[j]}" is constant over the rows fitted; its coefficient is 0`);
   }
-  if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && options.alpha < 1) {
-    notes.push('Gap Safe screening is used for alpha = 1 only; this elastic-net fit uses the strong rule with KKT checks');
+  if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && (options.l1Share ?? 1) < 1) {
+    notes.push('Gap Safe screening is used for an L1 share of 1 only; this elastic-net fit uses the strong rule with KKT checks');
   }
   let grid = options.lambda ? [...options.lambda] : null;
   if (!grid) {
-    if (lambdaMax > 0) grid = lambdaGrid(lambdaMax, options.pathLength ?? 100, options.lambdaRatio ?? defaultLambdaRatio(n, p));
+    if (lambdaMax > 0) grid = lambdaGrid(lambdaMax, options.pathLength ?? DEFAULT_PATH_LENGTH, options.pathDecades ?? DEFAULT_PATH_DECADES);
     else {
       notes.push('no penalized column has a non-zero gradient at the null model: the path is the single lambda 0');
       grid = [0];
@@ -74,7 +71,7 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
     standardizedCoefficients: [],
     solves: [],
     nonzero: [],
-    devianceRatio: [],
+    devianceExplained: [],
     notes,
     centers: std.centers,
     scales: std.scales,
@@ -104,19 +101,13 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
     });
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
-    if (options.earlyStop && shouldStop(result.devianceRatio)) {
-      notes.push(`path stopped early after ${result.lambda.length} lambdas: the deviance ratio stopped improving`);
+    const terms = result.nonzero[result.nonzero.length - 1];
+    if (options.maxTerms !== undefined && terms > options.maxTerms && result.lambda.length < grid.length) {
+      notes.push(`path ended after ${result.lambda.length} of ${grid.length} lambdas: the model at lambda ${lambda} has ${terms} nonzero terms, more than the limit of ${options.maxTerms}`);
       break;
     }
   }
   return result;
-}
-
-function shouldStop(ratios: number[]): boolean {
-  const k = ratios.length;
-  if (k < 3) return false;
-  const last = ratios[k - 1];
-  return last > 0.999 || Math.abs(last - ratios[k - 2]) < 1e-5 * Math.max(Math.abs(last), 1e-12);
 }
 
 function record(
@@ -149,7 +140,7 @@ function record(
   result.standardizedIntercept.push(standardize ? internalIntercept : intercept);
   result.solves.push(info);
   result.nonzero.push(nonzero);
-  result.devianceRatio.push(1 - state.loss / problem.nullObjective);
+  result.devianceExplained.push(1 - state.loss / problem.nullObjective);
 }
 
 /** A spec checked against its table, encoded, and mapped to the options of the design-level fit. */

@@ -4,7 +4,7 @@ import { EngineInputError, type FitSpec, type PathOptions } from '../types';
 /**
  * Table-level spec -> PathOptions for the encoded design. Groups: each named group of columns is one
  * group; a categorical predictor's indicators always share a group; remaining columns are groups of
- * their own. Penalty factors may be given per predictor (applied to all its indicators) or per term.
+ * their own. Penalty weights may be given per predictor (applied to all its indicators) or per term.
  */
 export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOptions {
   const terms = built.design.terms;
@@ -14,24 +14,23 @@ export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOpti
     if (enc.kind === 'numeric') columnOf[enc.term] = enc.column;
     else for (const term of enc.terms) columnOf[term] = enc.column;
   }
-  const factors = new Float64Array(p).fill(1);
-  for (const [key, value] of Object.entries(spec.penaltyFactors ?? {})) {
+  const weights = new Float64Array(p).fill(1);
+  for (const [key, value] of Object.entries(spec.penaltyWeights ?? {})) {
     let matched = false;
     for (let j = 0; j < p; j++) {
       if (terms[j] === key || columnOf[j] === key) {
-        factors[j] = value;
+        weights[j] = value;
         matched = true;
       }
     }
     if (!matched && !spec.predictors.includes(key)) {
-      throw new EngineInputError(`penalty factor for unknown column "${key}"`, 'penaltyFactors');
+      throw new EngineInputError(`penalty weight for unknown column "${key}"`, 'penaltyWeights');
     }
   }
   const options: PathOptions = {
     family: spec.family,
     penalty: spec.penalty,
-    alpha: spec.alpha,
-    penaltyFactors: factors,
+    penaltyWeights: weights,
     standardize: spec.standardize,
     pathLength: spec.pathLength,
     tolerance: spec.tolerance,
@@ -39,7 +38,9 @@ export function pathOptionsFromSpec(spec: FitSpec, built: BuiltDesign): PathOpti
     screening: spec.screening,
   };
   if (spec.lambda) options.lambda = spec.lambda;
-  if (spec.lambdaRatio !== undefined) options.lambdaRatio = spec.lambdaRatio;
+  if (spec.l1Share !== undefined) options.l1Share = spec.l1Share;
+  if (spec.pathDecades !== undefined) options.pathDecades = spec.pathDecades;
+  if (spec.maxTerms !== undefined) options.maxTerms = spec.maxTerms;
   if (spec.penalty === 'group-lasso') {
     const groupOf = new Int32Array(p).fill(-1);
     let next = 0;

@@ -1,17 +1,15 @@
 import type { DesignMatrix, PathOptions } from '../types';
 import { checkPathOptions, prepareProblem } from './setup';
 
-/** Common practice: lambda_min / lambda_max = 1e-4 when n > p, 1e-2 otherwise. */
-export function defaultLambdaRatio(n: number, p: number): number {
-  return n > p ? 1e-4 : 1e-2;
-}
-
-/** `length` values log-spaced from lambdaMax down to ratio * lambdaMax (descending). */
-export function lambdaGrid(lambdaMax: number, length: number, ratio: number): number[] {
+/**
+ * `length` values evenly spaced on the log scale from lambdaMax down to lambdaMax * 10^-decades
+ * (descending). One rule for every shape of data (docs/engine.md, "The automatic path").
+ */
+export function lambdaGrid(lambdaMax: number, length: number, decades: number): number[] {
   if (length === 1) return [lambdaMax];
   const grid: number[] = [];
   const logMax = Math.log(lambdaMax);
-  const step = Math.log(ratio) / (length - 1);
+  const step = (-decades * Math.LN10) / (length - 1);
   for (let k = 0; k < length; k++) grid.push(k === 0 ? lambdaMax : Math.exp(logMax + k * step));
   return grid;
 }

@@ -21,8 +21,11 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
   const { n, p } = design;
   if (n < 2) throw new EngineInputError(`at least two rows are needed to fit; got ${n}`, 'data');
   if (y.length !== n) throw new EngineInputError(`response has ${y.length} values for ${n} rows`, 'response');
-  if (options.penalty !== 'group-lasso' && !(options.alpha > 0 && options.alpha <= 1)) {
-    throw new EngineInputError(`alpha must be in (0, 1]; got ${options.alpha}`, 'alpha');
+  if (options.penalty === 'elastic-net') {
+    if (options.l1Share === undefined) throw new EngineInputError('the elastic-net penalty needs an L1 share in (0, 1] (1 = lasso, towards 0 = ridge)', 'l1Share');
+    if (!(options.l1Share > 0 && options.l1Share <= 1)) throw new EngineInputError(`L1 share must be in (0, 1]; got ${options.l1Share}`, 'l1Share');
+  } else if (options.l1Share !== undefined) {
+    throw new EngineInputError(`L1 share applies only to the elastic-net penalty (this fit is ${options.penalty})`, 'l1Share');
   }
   if (options.lambda) {
     if (options.lambda.length === 0) throw new EngineInputError('lambda: give at least one value', 'lambda');
@@ -36,8 +39,11 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
   if (options.pathLength !== undefined && !(Number.isInteger(options.pathLength) && options.pathLength >= 1)) {
     throw new EngineInputError(`path length must be a whole number >= 1; got ${options.pathLength}`, 'pathLength');
   }
-  if (options.lambdaRatio !== undefined && !(options.lambdaRatio > 0 && options.lambdaRatio < 1)) {
-    throw new EngineInputError(`lambda ratio must be in (0, 1); got ${options.lambdaRatio}`, 'lambdaRatio');
+  if (options.pathDecades !== undefined && !(options.pathDecades > 0 && Number.isFinite(options.pathDecades))) {
+    throw new EngineInputError(`path decades must be a positive number; got ${options.pathDecades}`, 'pathDecades');
+  }
+  if (options.maxTerms !== undefined && !(Number.isInteger(options.maxTerms) && options.maxTerms >= 1)) {
+    throw new EngineInputError(`max terms must be a whole number >= 1; got ${options.maxTerms}`, 'maxTerms');
   }
   if (options.tolerance !== undefined && !(options.tolerance > 0 && Number.isFinite(options.tolerance))) {
     throw new EngineInputError(`tolerance must be a positive number; got ${options.tolerance}`, 'tolerance');
@@ -45,12 +51,12 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
   if (options.maxIterations !== undefined && !(Number.isInteger(options.maxIterations) && options.maxIterations >= 1)) {
     throw new EngineInputError(`iteration limit must be a whole number >= 1; got ${options.maxIterations}`, 'maxIterations');
   }
-  const factors = options.penaltyFactors;
-  if (factors) {
-    if (factors.length !== p) throw new EngineInputError(`penalty factors: ${factors.length} values for ${p} columns`, 'penaltyFactors');
+  const weights = options.penaltyWeights;
+  if (weights) {
+    if (weights.length !== p) throw new EngineInputError(`penalty weights: ${weights.length} values for ${p} columns`, 'penaltyWeights');
     for (let j = 0; j < p; j++) {
-      if (!(factors[j] >= 0 && Number.isFinite(factors[j]))) {
-        throw new EngineInputError(`penalty factor of "${design.terms[j]}" must be finite and >= 0; got ${factors[j]}`, 'penaltyFactors');
+      if (!(weights[j] >= 0 && Number.isFinite(weights[j]))) {
+        throw new EngineInputError(`penalty weight of "${design.terms[j]}" must be finite and >= 0; got ${weights[j]}`, 'penaltyWeights');
       }
     }
   }
@@ -202,10 +208,10 @@ interface ProblemParts {
 function finishProblem(options: PathOptions, std: StandardizedDesign, parts: ProblemParts): PreparedProblem {
   const { n, p } = std;
   const isGroup = options.penalty === 'group-lasso';
-  const alpha = options.penalty === 'elastic-net' ? options.alpha : 1;
-  const factor = (j: number): number => (options.penaltyFactors ? options.penaltyFactors[j] : 1);
+  const alpha = options.penalty === 'elastic-net' ? (options.l1Share as number) : 1;
+  const weightOf = (j: number): number => (options.penaltyWeights ? options.penaltyWeights[j] : 1);
   const penalty = buildBlockPenalty(p, std.constant, alpha, isGroup ? (options.groupOfTerm ?? null) : null, (id, size, members) =>
-    isGroup ? (options.groupWeights && id < options.groupWeights.length ? options.groupWeights[id] : Math.sqrt(size)) * factor(members[0]) : factor(members[0]),
+    isGroup ? (options.groupWeights && id < options.groupWeights.length ? options.groupWeights[id] : Math.sqrt(size)) * weightOf(members[0]) : weightOf(members[0]),
   );
   const problem: Problem = {
     family: options.family,

@@ -21,13 +21,16 @@ export function AppShell({ me, current, children }: { me: MeDto; current: Member
           <Wordmark className="[&>span:last-child]:text-white" />
         </Link>
         <WorkspaceSwitcher current={current.workspaceId} entries={me.memberships} />
-        <SideNav workspaceId={current.workspaceId} role={current.role} />
+        <SideNav workspaceId={current.workspaceId} />
         <div className="mt-auto space-y-3 border-t border-lariat-700 pt-4 text-sm">
           <p>
             <span className="block font-bold text-white">{me.user.name}</span>
             <span className="block break-all text-lariat-100">{me.user.email}</span>
             <span className="mt-1 inline-block rounded bg-saffron-400 px-2 py-0.5 text-xs font-bold text-lariat-950">{ROLE_LABELS[current.role]}</span>
           </p>
+          <Link to={paths.workspace.account.getHref(current.workspaceId)} className="block rounded-md font-bold text-lariat-50 underline hover:text-white">
+            Your account
+          </Link>
           <div className="flex items-center justify-between [&_button]:text-lariat-50 [&_button:hover]:bg-lariat-800">
             <SignOutButton />
             <ThemeToggle />

@@ -1,5 +1,4 @@
 import { NavLink } from 'react-router';
-import type { WorkspaceRole } from '@shared/members';
 import { useOutbox } from '@/features/dev/api/outbox';
 import { paths } from '../paths';
 
@@ -14,10 +13,11 @@ const AREAS = [
 const LINK =
   'block rounded-md px-3 py-2 text-sm font-bold text-lariat-50 hover:bg-lariat-800 aria-[current=page]:bg-lariat-50 aria-[current=page]:text-lariat-900';
 
-export function SideNav({ workspaceId, role }: { workspaceId: string; role: WorkspaceRole }) {
-  // The outbox exists only where the server captures e-mail (development, tests); in production
-  // the endpoint answers 404 and the link stays hidden. Only admins may read it.
-  const outbox = useOutbox(role === 'admin');
+export function SideNav({ workspaceId }: { workspaceId: string }) {
+  // The outbox exists only when the server is asked to show captured e-mail (LARIAT_DEV_OUTBOX=1,
+  // never in production); otherwise the endpoint answers 404 and the link stays hidden. Each
+  // person sees their own mail there.
+  const outbox = useOutbox();
   return (
     <nav aria-label="Workspace">
       <ul className="space-y-1">

@@ -9,7 +9,7 @@ import { lastMailId, newMail, signIn, signUp, tokenFromMail, uniqueEmail, type S
 
 let t: TestApp;
 beforeAll(async () => {
-  t = await startTestApp();
+  t = await startTestApp({ LARIAT_RATE_LIMIT_FACTOR: '1' });
 });
 afterAll(async () => {
   await t?.close();

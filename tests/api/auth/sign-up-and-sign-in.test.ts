@@ -7,7 +7,7 @@ import { signIn, signUp, TEST_PASSWORD, uniqueEmail, withCsrf } from '../../supp
 
 let t: TestApp;
 beforeAll(async () => {
-  t = await startTestApp();
+  t = await startTestApp({ LARIAT_RATE_LIMIT_FACTOR: '1' });
 });
 afterAll(async () => {
   await t?.close();

@@ -10,7 +10,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../../support/app';
 import { uniqueEmail } from '../../support/session';
-import { listen, multipartHead, rawSignUp, startUpload, type RawSession } from './raw-http';
+import { BOUNDARY, listen, multipartHead, rawSignUp, startUpload, type RawSession } from './raw-http';
 import { closeApp, tableCounts } from './support';
 
 let t: TestApp;
@@ -36,7 +36,8 @@ const leftovers = () => (fs.existsSync(tempDir()) ? fs.readdirSync(tempDir()) : 
 describe('upload limits', () => {
   it('refuses a file over the limit while it streams: 413 after ~limit bytes, not the whole body', async () => {
     const before = await tableCounts(t);
-    const req = startUpload(port, s, randomUUID());
+    const ingest = randomUUID();
+    const req = startUpload(port, s, ingest);
     const response = new Promise<{ status: number; body: string }>((resolve, reject) => {
       req.on('response', (res) => {
         let body = '';
@@ -45,21 +46,33 @@ describe('upload limits', () => {
       });
       req.on('error', reject);
     });
+    let answered = false;
+    void response.then(() => (answered = true), () => (answered = true));
     req.write(multipartHead('big.csv') + 'a,b,c,d\n');
-    // 64 KB, about six times the limit; the planned file is 5 MB, and the rest is never sent.
+    // The planned file is 64 MB, far more than the socket buffers hold. Keep sending (respecting
+    // back-pressure) until the server answers; a server that read the whole body before answering
+    // would let all of it through.
+    const PLANNED = 64 * 1024 * 1024;
+    const chunk = ROW.repeat(256);
     let sent = 0;
-    while (sent < 64 * 1024) {
-      const chunk = ROW.repeat(256);
-      req.write(chunk);
+    while (!answered && sent + chunk.length <= PLANNED) {
       sent += chunk.length;
+      if (!req.write(chunk)) await Promise.race([new Promise((r) => req.once('drain', r)), response.catch(() => undefined)]);
     }
-    const res = await response; // arrives although the body is unfinished: the server stopped early
+    const finishedSending = !answered;
+    if (finishedSending) req.end(`\r\n--${BOUNDARY}--\r\n`);
+    const res = await response;
     req.destroy();
     expect(res.status).toBe(413);
     const message = (JSON.parse(res.body) as { error: { message: string } }).error.message;
     expect(message).toMatch(/big\.csv is larger than the upload limit of 0\.01 MB/);
-    expect(sent).toBeLessThan(5 * 1024 * 1024);
-    expect(LIMIT_BYTES).toBeLessThan(sent);
+    // The answer came while the client still had most of the planned file to send, and the server
+    // took exactly the limit's worth of file bytes (busboy truncates there).
+    expect(finishedSending).toBe(false);
+    expect(sent).toBeLessThan(PLANNED / 2);
+    expect(sent).toBeGreaterThan(LIMIT_BYTES);
+    const progress = await fetch(`http://127.0.0.1:${port}/api/workspaces/${s.workspaceId}/ingests/${ingest}`, { headers: { Cookie: s.cookie } });
+    expect(await progress.json()).toMatchObject({ phase: 'failed', bytesReceived: LIMIT_BYTES });
     expect(await tableCounts(t)).toEqual(before);
     await new Promise((r) => setTimeout(r, 100));
     expect(leftovers()).toEqual([]);

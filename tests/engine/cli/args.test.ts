@@ -4,22 +4,31 @@ import { DEFAULTS, parseFitOptions, UsageError } from '../../../server/cli/args'
 const base = ['--data', 'd.csv', '--response', 'y'];
 
 describe('parseFitOptions', () => {
-  it('applies the documented defaults: gaussian lasso, 100 lambdas, 10 folds', () => {
+  it('applies the documented defaults: gaussian lasso, 100 lambdas, 10 folds, no term limit', () => {
     const o = parseFitOptions(base);
     expect(o).toMatchObject({ data: 'd.csv', response: 'y', family: 'gaussian', penalty: 'lasso', pathLength: 100, folds: 10, standardize: true });
     expect(o.seed).toBe(DEFAULTS.seed);
     expect(o.predictors).toBeUndefined();
+    expect(o.maxTerms).toBeUndefined();
+    expect(o.l1Share).toBeUndefined();
   });
 
   it('reads every option, in both --name value and --name=value forms', () => {
     const o = parseFitOptions([
-      ...base, '--predictors', 'a, b,c', '--family=binomial', '--penalty', 'elastic-net', '--alpha', '0.3',
+      ...base, '--predictors', 'a, b,c', '--family=binomial', '--penalty', 'elastic-net', '--l1-share', '0.3',
       '--lambda', '1,0.5,0.1', '--no-standardize', '--fold-column', 'fold', '--seed', '7', '--tolerance', '1e-8',
+      '--max-terms', '12', '--penalty-weights', 'w.json',
     ]);
     expect(o).toMatchObject({
-      predictors: ['a', 'b', 'c'], family: 'binomial', penalty: 'elastic-net', alpha: 0.3,
+      predictors: ['a', 'b', 'c'], family: 'binomial', penalty: 'elastic-net', l1Share: 0.3,
       lambda: [1, 0.5, 0.1], standardize: false, foldColumn: 'fold', seed: 7, tolerance: 1e-8,
+      maxTerms: 12, penaltyWeightsFile: 'w.json',
     });
+  });
+
+  it('reads --path-decades, with its default when absent', () => {
+    expect(parseFitOptions([...base, '--path-decades', '2.5']).pathDecades).toBe(2.5);
+    expect(parseFitOptions(base).pathDecades).toBe(DEFAULTS.pathDecades);
   });
 
   it('takes --folds 0 as no cross-validation', () => {
@@ -36,10 +45,15 @@ describe('parseFitOptions', () => {
     [[...base, '--lambda', '1', '--path-length', '5'], /--lambda cannot be combined/],
     [[...base, '--folds', '1'], /--folds must be 0 \(no cross-validation\) or at least 2/],
     [[...base, '--folds', '2.5'], /--folds must be an integer/],
-    [[...base, '--penalty', 'elastic-net', '--alpha', '0'], /--alpha must be in \(0, 1\]/],
-    [[...base, '--alpha', '0.5'], /--alpha applies only to --penalty elastic-net/],
+    [[...base, '--penalty', 'elastic-net', '--l1-share', '0'], /--l1-share must be in \(0, 1\]/],
+    [[...base, '--penalty', 'elastic-net'], /--penalty elastic-net needs --l1-share A/],
+    [[...base, '--l1-share', '0.5'], /--l1-share applies only to --penalty elastic-net/],
+    [[...base, '--alpha', '0.5'], /unknown option --alpha/],
     [[...base, '--groups', 'g.json'], /--groups applies only to --penalty group-lasso/],
-    [[...base, '--lambda-ratio', '2'], /--lambda-ratio must be in \(0, 1\)/],
+    [[...base, '--path-decades', '0'], /--path-decades must be a positive number/],
+    [[...base, '--lambda', '1', '--path-decades', '2'], /--lambda cannot be combined/],
+    [[...base, '--max-terms', '0'], /--max-terms must be an integer of at least 1/],
+    [[...base, '--lambda-ratio', '0.01'], /unknown option --lambda-ratio/],
     [[...base, '--tolerance', '-1'], /--tolerance must be positive/],
     [[...base, '--seed'], /--seed needs a value/],
     [[...base, '--data', 'e.csv'], /--data is given twice/],

@@ -43,11 +43,13 @@ beforeAll(() => {
   writeFileSync(join(dir, 'data.csv'), gaussianCsv);
   writeFileSync(join(dir, 'groups.json'), JSON.stringify({ ab: ['a', 'b'] }));
   writeFileSync(join(dir, 'bad-groups.json'), JSON.stringify({ ab: ['a', 'nope'] }));
+  writeFileSync(join(dir, 'weights.json'), JSON.stringify({ b: 0 }));
+  writeFileSync(join(dir, 'bad-weights.json'), JSON.stringify({ b: -1 }));
   writeFileSync(join(dir, 'ragged.csv'), 'y,a\n1,2\n3\n');
 });
 
 const baseSpec: FitSpec = {
-  family: 'gaussian', response: 'y', predictors: ['a', 'b', 'colour'], penalty: 'lasso', alpha: 1,
+  family: 'gaussian', response: 'y', predictors: ['a', 'b', 'colour'], penalty: 'lasso',
   standardize: true, pathLength: 8, tolerance: 1e-7, maxIterations: 10000, screening: 'strong',
   missing: 'drop', cv: { folds: 5, seed: 3 },
 };
@@ -57,8 +59,9 @@ describe('lariat fit (spawned CLI)', () => {
     const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '8', '--folds', '5', '--seed', '3');
     const L = out.lambda.length;
     expect(L).toBe(8);
-    // The contract's keys, written out from ../shared/DESIGN.md (not taken from the code under test).
-    for (const key of ['lambda', 'intercept', 'coefficients', 'dualityGap', 'iterations', 'status', 'cv']) expect(out).toHaveProperty(key);
+    // The contract's keys, written out from docs/cli.md (not taken from the code under test).
+    for (const key of ['lambda', 'intercept', 'coefficients', 'dualityGap', 'iterations', 'status', 'cv', 'devianceExplained', 'nonzero', 'lambdaMax']) expect(out).toHaveProperty(key);
+    for (const old of ['devianceRatio', 'alpha', 'lambdaRatio']) expect(out).not.toHaveProperty(old);
     for (const key of ['folds', 'metric', 'mean', 'standardError', 'minimum', 'oneStandardError']) expect(out.cv).toHaveProperty(key);
     for (const key of ['intercept', 'dualityGap', 'iterations', 'status'] as const) expect(out[key]).toHaveLength(L);
     expect(Object.keys(out.coefficients)).toEqual(['a', 'b', 'colour=blue', 'colour=green', 'colour=red']);
@@ -98,6 +101,26 @@ describe('lariat fit (spawned CLI)', () => {
     out.lambda.forEach((_, l) => expect(out.coefficients.a[l] === 0).toBe(out.coefficients.b[l] === 0));
   });
 
+  it('fits an elastic net with --l1-share and keeps a weight-0 column in at every lambda', () => {
+    const out = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b', '--penalty', 'elastic-net', '--l1-share', '0.5', '--penalty-weights', 'weights.json', '--path-length', '5', '--folds', '0');
+    expect(out.coefficients.b.every((v) => v !== 0)).toBe(true);
+    expect(out.coefficients.a[0]).toBe(0);
+    const table = parseCsvText(gaussianCsv, 'data.csv');
+    const path = fitPath(table, { ...baseSpec, predictors: ['a', 'b'], penalty: 'elastic-net', l1Share: 0.5, penaltyWeights: { b: 0 }, pathLength: 5, cv: null });
+    expect(out.coefficients.b).toEqual(path.coefficients.map((c) => c[1]));
+  });
+
+  it('goes --path-decades deep and ends after the first model over --max-terms terms', () => {
+    const shallow = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--folds', '0');
+    const last = shallow.lambda[shallow.lambda.length - 1];
+    expect(Math.abs(last / shallow.lambdaMax - 1e-2)).toBeLessThan(1e-12);
+    const limited = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--max-terms', '1', '--folds', '0');
+    const k = limited.lambda.length - 1;
+    expect(limited.nonzero[k]).toBeGreaterThan(1);
+    expect(limited.nonzero.slice(0, k).every((count) => count <= 1)).toBe(true);
+    expect(limited.lambda).toEqual(shallow.lambda.slice(0, k + 1));
+  });
+
   it('carries the statistical cautions, and names every solve that stopped at the iteration limit', () => {
     const ok = JSON.parse(cli('fit', '--data', 'data.csv', '--response', 'y', '--path-length', '4', '--folds', '0').stdout) as {
       cautions: string[];
@@ -128,6 +151,8 @@ describe('lariat fit (spawned CLI)', () => {
     ['an ascending lambda list', ['--data', 'data.csv', '--response', 'y', '--lambda', '0.1,0.2'], /--lambda values must be strictly descending/],
     ['a groups file naming a non-predictor', ['--data', 'data.csv', '--response', 'y', '--predictors', 'a,b', '--penalty', 'group-lasso', '--groups', 'bad-groups.json'], /group "ab" in bad-groups\.json names "nope"/],
     ['a gaussian text response', ['--data', 'data.csv', '--response', 'flag', '--predictors', 'a'], /gaussian response "flag" must be numeric/],
+    ['an elastic net without --l1-share', ['--data', 'data.csv', '--response', 'y', '--penalty', 'elastic-net'], /needs --l1-share/],
+    ['a negative penalty weight, naming the file', ['--data', 'data.csv', '--response', 'y', '--penalty-weights', 'bad-weights.json'], /weight of "b" in bad-weights\.json must be a number >= 0/],
     ['too many folds', ['--data', 'data.csv', '--response', 'y', '--predictors', 'a', '--folds', '61'], /folds.*\b60\b.*61/],
   ];
   for (const [what, args, message] of errors) {

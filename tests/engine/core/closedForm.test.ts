@@ -27,7 +27,7 @@ const tol = 1e-6;
 describe('orthonormal design closed forms', () => {
   for (const standardize of [true, false]) {
     it(`lasso: b_j = sign(z_j)(|z_j| - lambda)_+ (standardize ${standardize})`, () => {
-      const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize, pathLength: 15, tolerance: 1e-12 });
+      const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', standardize, pathLength: 15, tolerance: 1e-12 });
       result.lambda.forEach((lambda, k) => {
         for (let j = 0; j < p; j++) {
           expectClose(`lasso b_${j} at lambda ${lambda}`, result.coefficients[k][j], soft(z[j], lambda), tol);
@@ -39,7 +39,7 @@ describe('orthonormal design closed forms', () => {
 
   it('elastic net: b_j = S(z_j, lambda alpha) / (1 + lambda (1 - alpha))', () => {
     const alpha = 0.4;
-    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'elastic-net', alpha, standardize: true, pathLength: 12, tolerance: 1e-12 });
+    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'elastic-net', l1Share: alpha, standardize: true, pathLength: 12, tolerance: 1e-12 });
     result.lambda.forEach((lambda, k) => {
       for (let j = 0; j < p; j++) {
         const expected = soft(z[j], lambda * alpha) / (1 + lambda * (1 - alpha));
@@ -53,7 +53,6 @@ describe('orthonormal design closed forms', () => {
     const result = fitPathOnDesign(design, y, {
       family: 'gaussian',
       penalty: 'group-lasso',
-      alpha: 1,
       groupOfTerm,
       standardize: true,
       pathLength: 12,

@@ -36,7 +36,7 @@ describe('cross products', () => {
       const all = crossProducts(design);
       const fold = subtractCrossProducts(all, crossProducts(design, heldOut, all.center));
       const rows = selectRows(design, y, training);
-      const options: PathOptions = { family: 'gaussian', penalty: 'elastic-net', alpha: 0.7, standardize, pathLength: 15, tolerance: 1e-10, gram: 'always' };
+      const options: PathOptions = { family: 'gaussian', penalty: 'elastic-net', l1Share: 0.7, standardize, pathLength: 15, tolerance: 1e-10, gram: 'always' };
       const direct = fitPathOnDesign(rows.design, rows.y, options);
       const viaSums = fitPathOnDesign(rows.design, rows.y, { ...options, crossProducts: fold });
       direct.lambda.forEach((lambda, k) => {
@@ -53,7 +53,7 @@ describe('cross products', () => {
   it('cross products of other rows are an input error naming crossProducts', () => {
     const rows = selectRows(design, y, training);
     const wrong = crossProducts(design);
-    const options: PathOptions = { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 5, gram: 'always', crossProducts: wrong };
+    const options: PathOptions = { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 5, gram: 'always', crossProducts: wrong };
     expect(() => fitPathOnDesign(rows.design, rows.y, options)).toThrow(EngineInputError);
     expect(() => fitPathOnDesign(rows.design, rows.y, options)).toThrow(/cross products: expected 108 rows/);
   });

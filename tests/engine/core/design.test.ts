@@ -94,7 +94,7 @@ describe('fitPath on a table', () => {
       columns: [num('y', [3, 1, 4, 1, 5, 9, 2, 6]), num('u', [2, 7, 1, 8, 2, 8, 1, 8]), cat('k', [0, 1, 0, 1, 1, 0, 0, 1], ['p', 'q'])],
     };
     const fitSpec: FitSpec = {
-      family: 'gaussian', response: 'y', predictors: ['u', 'k'], penalty: 'lasso', alpha: 1, standardize: true, pathLength: 6,
+      family: 'gaussian', response: 'y', predictors: ['u', 'k'], penalty: 'lasso', standardize: true, pathLength: 6,
       tolerance: 1e-10, maxIterations: 10000, screening: 'strong', missing: 'drop', cv: null,
     };
     const result = fitPath(table, fitSpec);
@@ -130,7 +130,7 @@ describe('fitPath with the group lasso', () => {
       columns: [num('y', y), num('a', a), num('b', b), num('c', c), cat('k', k, ['l0', 'l1', 'l2'])],
     };
     const result = fitPath(table, {
-      family: 'gaussian', response: 'y', predictors: ['a', 'b', 'c', 'k'], penalty: 'group-lasso', alpha: 1,
+      family: 'gaussian', response: 'y', predictors: ['a', 'b', 'c', 'k'], penalty: 'group-lasso',
       groups: { ab: ['a', 'b'] }, standardize: true, pathLength: 15, tolerance: 1e-10, maxIterations: 10000,
       screening: 'strong', missing: 'drop', cv: null,
     });

@@ -1,6 +1,6 @@
 /**
  * Facts of the method (REFERENCES.md section 4, common practice): groups of size one make the group
- * lasso the lasso; alpha = 1 makes the elastic net the lasso; a penalty factor of 0 leaves a column
+ * lasso the lasso; l1Share = 1 makes the elastic net the lasso; a penalty weight of 0 leaves a column
  * unpenalized (in the model at every lambda, and its coefficient is the least-squares one given the
  * others); lambda = 0 is the unpenalized least-squares fit.
  */
@@ -28,11 +28,10 @@ function expectSamePath(a: PathResult, b: PathResult, tol: number, label: string
 describe('equivalences', () => {
   for (const [family, response] of [['gaussian', y], ['binomial', yBin]] as const) {
     it(`${family}: group lasso with groups of size one = lasso`, () => {
-      const lasso = fitPathOnDesign(design, response, { family, penalty: 'lasso', alpha: 1, standardize: true, pathLength: 20, tolerance: 1e-12 });
+      const lasso = fitPathOnDesign(design, response, { family, penalty: 'lasso', standardize: true, pathLength: 20, tolerance: 1e-12 });
       const groups = fitPathOnDesign(design, response, {
         family,
         penalty: 'group-lasso',
-        alpha: 1,
         groupOfTerm: Array.from({ length: design.p }, (_, j) => j),
         standardize: true,
         lambda: lasso.lambda,
@@ -41,16 +40,16 @@ describe('equivalences', () => {
       expectSamePath(groups, lasso, 1e-5, 'groups of one vs lasso');
     });
 
-    it(`${family}: elastic net with alpha = 1 = lasso`, () => {
-      const lasso = fitPathOnDesign(design, response, { family, penalty: 'lasso', alpha: 1, standardize: true, pathLength: 20, tolerance: 1e-12 });
-      const net = fitPathOnDesign(design, response, { family, penalty: 'elastic-net', alpha: 1, standardize: true, pathLength: 20, tolerance: 1e-12 });
-      expectSamePath(net, lasso, 1e-5, 'elastic net alpha 1 vs lasso');
+    it(`${family}: elastic net with l1Share = 1 = lasso`, () => {
+      const lasso = fitPathOnDesign(design, response, { family, penalty: 'lasso', standardize: true, pathLength: 20, tolerance: 1e-12 });
+      const net = fitPathOnDesign(design, response, { family, penalty: 'elastic-net', l1Share: 1, standardize: true, pathLength: 20, tolerance: 1e-12 });
+      expectSamePath(net, lasso, 1e-5, 'elastic net l1Share 1 vs lasso');
     });
   }
 
-  it('penalty factor 0 keeps a column in the model at every lambda', () => {
+  it('penalty weight 0 keeps a column in the model at every lambda', () => {
     const factors = Array.from({ length: design.p }, (_, j) => (j === 4 ? 0 : 1));
-    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, penaltyFactors: factors, pathLength: 20, tolerance: 1e-12 });
+    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', standardize: true, penaltyWeights: factors, pathLength: 20, tolerance: 1e-12 });
     result.coefficients.forEach((coef, k) => expect(coef[4], `x5 at lambda ${result.lambda[k]}`).not.toBe(0));
     // At lambda_max only x5 is in: its coefficient is the simple regression slope cov(x5, y)/var(x5).
     const { n, x } = design;
@@ -70,7 +69,7 @@ describe('equivalences', () => {
   it('lambda = 0 gives the least-squares fit (normal equations solved in the test)', () => {
     const small = randomDesign(40, 4, 44);
     const ys = linearResponse(small, [1, -2, 0.5, 0], 0.3, 45);
-    const result = fitPathOnDesign(small, ys, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, lambda: [0.1, 0], tolerance: 1e-13, maxIterations: 100000 });
+    const result = fitPathOnDesign(small, ys, { family: 'gaussian', penalty: 'lasso', standardize: true, lambda: [0.1, 0], tolerance: 1e-13, maxIterations: 100000 });
     expect(result.solves[1].status).toBe('converged');
     // Least squares with an intercept: Gaussian elimination on [1 X]'[1 X] b = [1 X]'y.
     const { n, p, x } = small;

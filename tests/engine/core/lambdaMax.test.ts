@@ -1,7 +1,7 @@
 /**
  * lambda_max (DESIGN.md: "the smallest lambda with all penalized coefficients zero", common
  * practice): at lambda_max every penalized coefficient is 0; just below it at least one is not.
- * Also the closed form for the gaussian lasso without penalty factors: max_j |x~_j'(y - mean y)|/n
+ * Also the closed form for the gaussian lasso without penalty weights: max_j |x~_j'(y - mean y)|/n
  * on standardized columns (Friedman, Hastie & Tibshirani 2010, "Regularization paths for generalized
  * linear models via coordinate descent", J. Stat. Softw. 33, section 2.5).
  */
@@ -17,24 +17,24 @@ const binomialY = logisticResponse(design, [1, 0.5, -0.5, 0, 0.2], 33);
 const factors = [0, 1, 1, 2, 1, 1, 0.5, 1, 1, 1, 1, 1];
 
 const variants: { name: string; options: PathOptions; y: Float64Array; penalized: (j: number) => boolean }[] = [
-  { name: 'gaussian lasso', options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true }, y: gaussianY, penalized: () => true },
-  { name: 'gaussian elastic net 0.3', options: { family: 'gaussian', penalty: 'elastic-net', alpha: 0.3, standardize: false }, y: gaussianY, penalized: () => true },
+  { name: 'gaussian lasso', options: { family: 'gaussian', penalty: 'lasso', standardize: true }, y: gaussianY, penalized: () => true },
+  { name: 'gaussian elastic net 0.3', options: { family: 'gaussian', penalty: 'elastic-net', l1Share: 0.3, standardize: false }, y: gaussianY, penalized: () => true },
   {
-    name: 'gaussian lasso with penalty factors (x1 unpenalized)',
-    options: { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, penaltyFactors: factors },
+    name: 'gaussian lasso with penalty weights (x1 unpenalized)',
+    options: { family: 'gaussian', penalty: 'lasso', standardize: true, penaltyWeights: factors },
     y: gaussianY,
     penalized: (j) => factors[j] > 0,
   },
-  { name: 'binomial lasso', options: { family: 'binomial', penalty: 'lasso', alpha: 1, standardize: true }, y: binomialY, penalized: () => true },
+  { name: 'binomial lasso', options: { family: 'binomial', penalty: 'lasso', standardize: true }, y: binomialY, penalized: () => true },
   {
-    name: 'binomial lasso with penalty factors (x1 unpenalized)',
-    options: { family: 'binomial', penalty: 'lasso', alpha: 1, standardize: true, penaltyFactors: factors },
+    name: 'binomial lasso with penalty weights (x1 unpenalized)',
+    options: { family: 'binomial', penalty: 'lasso', standardize: true, penaltyWeights: factors },
     y: binomialY,
     penalized: (j) => factors[j] > 0,
   },
   {
     name: 'binomial group lasso',
-    options: { family: 'binomial', penalty: 'group-lasso', alpha: 1, standardize: true, groupOfTerm: [0, 0, 0, 1, 1, 1, 2, 2, 2, 3, 3, 3] },
+    options: { family: 'binomial', penalty: 'group-lasso', standardize: true, groupOfTerm: [0, 0, 0, 1, 1, 1, 2, 2, 2, 3, 3, 3] },
     y: binomialY,
     penalized: () => true,
   },
@@ -68,7 +68,7 @@ describe('lambda_max', () => {
       }
       expected = Math.max(expected, Math.abs(dot / n / Math.sqrt(v)));
     }
-    const got = computeLambdaMax(design, gaussianY, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true });
+    const got = computeLambdaMax(design, gaussianY, { family: 'gaussian', penalty: 'lasso', standardize: true });
     expectClose('lambda_max', got, expected, 1e-12);
   });
 });

@@ -60,7 +60,7 @@ describe('KKT and duality gap at every solution', () => {
       for (const penalty of ['lasso', 'elastic-net'] as const) {
         it(`${c.name}, ${penalty}, standardize ${standardize}`, () => {
           const alpha = penalty === 'lasso' ? 1 : 0.6;
-          const options: PathOptions = { family: c.family, penalty, alpha, standardize, pathLength: 25, tolerance };
+          const options: PathOptions = { family: c.family, penalty, ...(penalty === 'elastic-net' ? { l1Share: alpha } : {}), standardize, pathLength: 25, tolerance };
           const result = fitPathOnDesign(c.design, c.y, options);
           checkPath(result, c.design, c.y, { family: c.family, alpha, standardize, blocks: singletons(c.design.p) }, c.name);
           if (c.family === 'gaussian' && penalty === 'lasso') {
@@ -75,7 +75,7 @@ describe('KKT and duality gap at every solution', () => {
     it(`${c.name}, group lasso`, () => {
       const p = c.design.p;
       const groupOfTerm = Array.from({ length: p }, (_, j) => Math.floor(j / 3));
-      const result = fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'group-lasso', alpha: 1, groupOfTerm, standardize: true, pathLength: 20, tolerance });
+      const result = fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'group-lasso', groupOfTerm, standardize: true, pathLength: 20, tolerance });
       const groups = new Map<number, number[]>();
       groupOfTerm.forEach((g, j) => groups.set(g, [...(groups.get(g) ?? []), j]));
       const blocks = [...groups.values()].map((columns) => ({ columns, weight: Math.sqrt(columns.length) }));
@@ -85,10 +85,10 @@ describe('KKT and duality gap at every solution', () => {
 });
 
 describe('screening does not change the solutions', () => {
-  const penalties: [string, Pick<PathOptions, 'penalty' | 'alpha'>][] = [
-    ['lasso', { penalty: 'lasso', alpha: 1 }],
-    ['group lasso', { penalty: 'group-lasso', alpha: 1 }],
-    ['elastic net', { penalty: 'elastic-net', alpha: 0.5 }],
+  const penalties: [string, Pick<PathOptions, 'penalty' | 'l1Share'>][] = [
+    ['lasso', { penalty: 'lasso' }],
+    ['group lasso', { penalty: 'group-lasso' }],
+    ['elastic net', { penalty: 'elastic-net', l1Share: 0.5 }],
   ];
   for (const c of cases) for (const [penaltyName, penalty] of penalties) {
     it(`${c.name}, ${penaltyName}`, () => {
@@ -108,13 +108,13 @@ describe('screening does not change the solutions', () => {
   }
 });
 
-describe('KKT and duality gap with penalty factors (0 = unpenalized)', () => {
+describe('KKT and duality gap with penalty weights (0 = unpenalized)', () => {
   for (const c of cases) {
     for (const screening of ['strong', 'gap-safe'] as Screening[]) {
       it(`${c.name}, ${screening}`, () => {
         const p = c.design.p;
         const factors = Array.from({ length: p }, (_, j) => (j === 1 ? 0 : j % 4 === 0 ? 2 : j % 5 === 0 ? 0.5 : 1));
-        const result = fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'lasso', alpha: 1, standardize: true, penaltyFactors: factors, pathLength: 20, tolerance, screening });
+        const result = fitPathOnDesign(c.design, c.y, { family: c.family, penalty: 'lasso', standardize: true, penaltyWeights: factors, pathLength: 20, tolerance, screening });
         const blocks = factors.map((weight, j) => ({ columns: [j], weight }));
         checkPath(result, c.design, c.y, { family: c.family, alpha: 1, standardize: true, blocks }, `${c.name} factors`);
         result.coefficients.forEach((coef) => expect(coef[1]).not.toBe(0));

@@ -64,15 +64,15 @@ function radiusOf(result: PathResult, k: number, alpha: number, tolerance: numbe
 describe('paths with and without the polish on nearly collinear columns', () => {
   const design = collinearDesign(80, 10, 21);
   const cases: [string, PathOptions, Float64Array][] = [
-    ['gaussian elastic net', { family: 'gaussian', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 20, lambdaRatio: 1e-3, tolerance: 1e-10, maxIterations: 100_000 }, linearResponse(design, [1, 1, -0.5, 0.25], 0.5, 22)],
-    ['gaussian lasso, raw scale', { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: false, pathLength: 20, lambdaRatio: 1e-3, tolerance: 1e-10, maxIterations: 100_000 }, linearResponse(design, [1, 1, -0.5, 0.25], 0.5, 23)],
-    ['binomial elastic net', { family: 'binomial', penalty: 'elastic-net', alpha: 0.5, standardize: true, pathLength: 20, lambdaRatio: 1e-2, tolerance: 1e-10, maxIterations: 100_000 }, logisticResponse(design, [1, 1, -0.5, 0.25], 24)],
+    ['gaussian elastic net', { family: 'gaussian', penalty: 'elastic-net', l1Share: 0.5, standardize: true, pathLength: 20, pathDecades: 3, tolerance: 1e-10, maxIterations: 100_000 }, linearResponse(design, [1, 1, -0.5, 0.25], 0.5, 22)],
+    ['gaussian lasso, raw scale', { family: 'gaussian', penalty: 'lasso', standardize: false, pathLength: 20, pathDecades: 3, tolerance: 1e-10, maxIterations: 100_000 }, linearResponse(design, [1, 1, -0.5, 0.25], 0.5, 23)],
+    ['binomial elastic net', { family: 'binomial', penalty: 'elastic-net', l1Share: 0.5, standardize: true, pathLength: 20, pathDecades: 2, tolerance: 1e-10, maxIterations: 100_000 }, logisticResponse(design, [1, 1, -0.5, 0.25], 24)],
   ];
   for (const [name, options, y] of cases) {
     it(`${name}: polished solutions satisfy KKT to 1e-9; FISTA alone agrees within the gap's radius`, () => {
       const polished = fitPathOnDesign(design, y, options);
       const plain = fitPathOnDesign(design, y, { ...options, polish: false });
-      const setup = { family: options.family, alpha: options.alpha, standardize: options.standardize, blocks: Array.from({ length: design.p }, (_, j) => ({ columns: [j], weight: 1 })) };
+      const setup = { family: options.family, alpha: options.l1Share ?? 1, standardize: options.standardize, blocks: Array.from({ length: design.p }, (_, j) => ({ columns: [j], weight: 1 })) };
       polished.lambda.forEach((lambda, k) => {
         for (const r of [polished, plain]) {
           expect(r.solves[k].status, `${name} lambda ${lambda}: ${r.solves[k].message}`).toBe('converged');
@@ -80,17 +80,17 @@ describe('paths with and without the polish on nearly collinear columns', () => 
         }
         const kkt = kktResidual(design, y, polished, k, setup);
         expect(kkt, `${name}: KKT residual of the polished solution at lambda ${lambda} (tolerance 1e-9)`).toBeLessThanOrEqual(1e-9);
-        // The lasso objective is not strongly convex (no radius): compare the fits' deviance ratios.
-        if (options.alpha < 1) {
-          const radius = 2 * radiusOf(polished, k, options.alpha, options.tolerance as number);
+        // The lasso objective is not strongly convex (no radius): compare the fits' deviance explained.
+        if ((options.l1Share ?? 1) < 1) {
+          const radius = 2 * radiusOf(polished, k, options.l1Share ?? 1, options.tolerance as number);
           polished.standardizedCoefficients[k].forEach((b, j) => {
             const other = plain.standardizedCoefficients[k][j];
             expect(Math.abs(b - other), `${name} lambda ${lambda} column ${j}: polished ${b}, FISTA ${other}, radius ${radius}`).toBeLessThanOrEqual(radius);
           });
         } else {
           const gapBound = 2 * (options.tolerance as number) + 1e-12;
-          const excess = Math.abs(polished.devianceRatio[k] - plain.devianceRatio[k]);
-          expect(excess, `${name} lambda ${lambda}: deviance ratios ${polished.devianceRatio[k]} vs ${plain.devianceRatio[k]}`).toBeLessThanOrEqual(1e-4 + gapBound);
+          const excess = Math.abs(polished.devianceExplained[k] - plain.devianceExplained[k]);
+          expect(excess, `${name} lambda ${lambda}: deviance explained ${polished.devianceExplained[k]} vs ${plain.devianceExplained[k]}`).toBeLessThanOrEqual(1e-4 + gapBound);
         }
       });
     });
@@ -98,7 +98,7 @@ describe('paths with and without the polish on nearly collinear columns', () => 
 
   it('the group lasso (blocks of two columns) is left to FISTA: same bits with polish on or off', () => {
     const y = linearResponse(design, [1, 1, -0.5, 0.25], 0.5, 25);
-    const options: PathOptions = { family: 'gaussian', penalty: 'group-lasso', alpha: 1, standardize: true, pathLength: 10, groupOfTerm: Array.from({ length: design.p }, (_, j) => j >> 1) };
+    const options: PathOptions = { family: 'gaussian', penalty: 'group-lasso', standardize: true, pathLength: 10, groupOfTerm: Array.from({ length: design.p }, (_, j) => j >> 1) };
     const a = fitPathOnDesign(design, y, options);
     const b = fitPathOnDesign(design, y, { ...options, polish: false });
     expect(a.coefficients.map((c) => Array.from(c))).toEqual(b.coefficients.map((c) => Array.from(c)));

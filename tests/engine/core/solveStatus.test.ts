@@ -15,7 +15,7 @@ const yBin = logisticResponse(design, [1, -1, 0.5, 0.5], 53);
 describe('iteration limit', () => {
   for (const [family, response] of [['gaussian', y], ['binomial', yBin]] as const) {
     it(`${family}: reports 'iteration-limit' with gap > tolerance`, () => {
-      const result = fitPathOnDesign(design, response, { family, penalty: 'lasso', alpha: 1, standardize: true, pathLength: 10, tolerance: 1e-12, maxIterations: 3 });
+      const result = fitPathOnDesign(design, response, { family, penalty: 'lasso', standardize: true, pathLength: 10, tolerance: 1e-12, maxIterations: 3 });
       const limited = result.solves.filter((s) => s.status === 'iteration-limit');
       expect(limited.length).toBeGreaterThan(0);
       for (const s of limited) {
@@ -37,9 +37,9 @@ function bytes(result: PathResult): string {
 
 describe('determinism', () => {
   const runs: [string, PathOptions, Float64Array][] = [
-    ['gaussian strong', { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 30 }, y],
-    ['binomial gap-safe', { family: 'binomial', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 30, screening: 'gap-safe' }, yBin],
-    ['gaussian group', { family: 'gaussian', penalty: 'group-lasso', alpha: 1, standardize: false, pathLength: 30, groupOfTerm: Array.from({ length: 120 }, (_, j) => j >> 2) }, y],
+    ['gaussian strong', { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 30 }, y],
+    ['binomial gap-safe', { family: 'binomial', penalty: 'lasso', standardize: true, pathLength: 30, screening: 'gap-safe' }, yBin],
+    ['gaussian group', { family: 'gaussian', penalty: 'group-lasso', standardize: false, pathLength: 30, groupOfTerm: Array.from({ length: 120 }, (_, j) => j >> 2) }, y],
   ];
   for (const [name, options, response] of runs) {
     it(`${name}: two runs are bitwise identical`, () => {
@@ -48,9 +48,9 @@ describe('determinism', () => {
   }
 });
 
-describe('deviance ratio and the optional early stop', () => {
-  it('deviance ratio = 1 - RSS/TSS (gaussian, common practice), recomputed from the coefficients', () => {
-    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 8, tolerance: 1e-10 });
+describe('deviance explained and the optional early stop', () => {
+  it('deviance explained = 1 - RSS/TSS (gaussian, common practice), recomputed from the coefficients', () => {
+    const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 8, tolerance: 1e-10 });
     const { n, p, x } = design;
     const mean = y.reduce((a, b) => a + b, 0) / n;
     const tss = y.reduce((a, b) => a + (b - mean) ** 2, 0);
@@ -61,19 +61,22 @@ describe('deviance ratio and the optional early stop', () => {
         for (let j = 0; j < p; j++) e += result.coefficients[k][j] * x[j * n + i];
         rss += (y[i] - e) ** 2;
       }
-      expect(Math.abs(result.devianceRatio[k] - (1 - rss / tss)), `deviance ratio at lambda ${lambda}`).toBeLessThan(1e-9);
+      expect(Math.abs(result.devianceExplained[k] - (1 - rss / tss)), `deviance explained at lambda ${lambda}`).toBeLessThan(1e-9);
     });
   });
 
-  it('stops once the deviance ratio exceeds 0.999 or changes by < 1e-5 (relative), and says so', () => {
-    const options: PathOptions = { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, pathLength: 100, lambdaRatio: 1e-4 };
+  it('ends the path after the first lambda whose model has more than maxTerms nonzero terms, and says so', () => {
+    const options: PathOptions = { family: 'gaussian', penalty: 'lasso', standardize: true, pathLength: 60, pathDecades: 3 };
     const full = fitPathOnDesign(design, y, options);
-    const early = fitPathOnDesign(design, y, { ...options, earlyStop: true });
-    expect(full.lambda.length).toBe(100);
-    expect(early.lambda.length).toBeLessThan(100);
-    const k = early.lambda.length - 1;
-    const last = early.devianceRatio[k];
-    expect(last > 0.999 || Math.abs(last - early.devianceRatio[k - 1]) < 1e-5 * Math.abs(last)).toBe(true);
-    expect(early.notes.join('\n')).toContain('stopped early');
+    const limit = 5;
+    const crossing = full.nonzero.findIndex((count) => count > limit);
+    expect(crossing, 'the full path must pass the limit for this check to mean anything').toBeGreaterThan(0);
+    const ended = fitPathOnDesign(design, y, { ...options, maxTerms: limit });
+    expect(ended.lambda).toEqual(full.lambda.slice(0, crossing + 1));
+    expect(ended.nonzero.slice(0, -1).every((count) => count <= limit)).toBe(true);
+    expect(ended.nonzero[crossing]).toBeGreaterThan(limit);
+    expect(ended.notes.join('\n')).toContain(`more than the limit of ${limit}`);
+    const roomy = fitPathOnDesign(design, y, { ...options, maxTerms: design.p });
+    expect(roomy.lambda.length).toBe(60);
   });
 });

@@ -17,7 +17,6 @@ const base: FitSpec = {
   response: 'y',
   predictors: ['a', 'b'],
   penalty: 'lasso',
-  alpha: 1,
   standardize: true,
   pathLength: 5,
   tolerance: 1e-7,
@@ -59,14 +58,14 @@ describe('validateSpec', () => {
     ['non-finite response', table(num('y', [1, -Infinity, 3, 4]), num('a', [1, 2, 3, 4]), num('b', [1, 0, 1, 0])), {}, 'response', 'row 2'],
     ['negative lambda', good, { lambda: [1, -0.5] }, 'lambda', 'value 2 is -0.5'],
     ['lambda not descending', good, { lambda: [0.1, 0.5] }, 'lambda', 'descending'],
-    ['alpha 0', good, { penalty: 'elastic-net', alpha: 0 }, 'alpha', '(0, 1]'],
-    ['alpha above 1', good, { penalty: 'elastic-net', alpha: 1.5 }, 'alpha', '(0, 1]'],
+    ['l1Share 0', good, { penalty: 'elastic-net', l1Share: 0 }, 'l1Share', '(0, 1]'],
+    ['l1Share above 1', good, { penalty: 'elastic-net', l1Share: 1.5 }, 'l1Share', '(0, 1]'],
     ['unknown response', good, { response: 'zz' }, 'response', '"zz"'],
     ['unknown predictor', good, { predictors: ['a', 'nope'] }, 'predictors', '"nope"'],
     ['overlapping groups', good, { penalty: 'group-lasso', groups: { one: ['a', 'b'], two: ['b'] } }, 'groups', 'two groups'],
     ['group with unknown column', good, { penalty: 'group-lasso', groups: { one: ['a', 'zz'] } }, 'groups', '"zz"'],
-    ['negative penalty factor', good, { penaltyFactors: { a: -1 } }, 'penaltyFactors', '"a"'],
-    ['penalty factor for unknown column', good, { penaltyFactors: { q: 1 } }, 'penaltyFactors', '"q"'],
+    ['negative penalty weight', good, { penaltyWeights: { a: -1 } }, 'penaltyWeights', '"a"'],
+    ['penalty weight for unknown column', good, { penaltyWeights: { q: 1 } }, 'penaltyWeights', '"q"'],
     ['zero tolerance', good, { tolerance: 0 }, 'tolerance', 'positive'],
     ['too few folds', good, { cv: { folds: 1, seed: 1 } }, 'folds', 'folds'],
   ];
@@ -82,13 +81,13 @@ describe('validateSpec', () => {
     expectInputError(() => fitPath(data, base), 'predictors', 'constant');
   });
 
-  it('fitPathOnDesign rejects bad lambdas, alpha and penalty factors too', () => {
+  it('fitPathOnDesign rejects bad lambdas, l1Share and penalty weights too', () => {
     const design = { n: 4, p: 1, x: Float64Array.from([1, 2, 3, 5]), terms: ['a'] };
     const y = Float64Array.from([1, 0, 2, 3]);
-    const options = { family: 'gaussian' as const, penalty: 'lasso' as const, alpha: 1, standardize: true };
+    const options = { family: 'gaussian' as const, penalty: 'lasso' as const, standardize: true };
     expectInputError(() => fitPathOnDesign(design, y, { ...options, lambda: [1, 2] }), 'lambda', 'descending');
-    expectInputError(() => fitPathOnDesign(design, y, { ...options, penalty: 'elastic-net', alpha: -0.1 }), 'alpha', '(0, 1]');
-    expectInputError(() => fitPathOnDesign(design, y, { ...options, penaltyFactors: [-2] }), 'penaltyFactors', '"a"');
+    expectInputError(() => fitPathOnDesign(design, y, { ...options, penalty: 'elastic-net', l1Share: -0.1 }), 'l1Share', '(0, 1]');
+    expectInputError(() => fitPathOnDesign(design, y, { ...options, penaltyWeights: [-2] }), 'penaltyWeights', '"a"');
     expectInputError(() => fitPathOnDesign(design, Float64Array.from([1, 1, 1, 1]), options), 'response', 'constant');
     expectInputError(() => fitPathOnDesign(design, y, { ...options, family: 'binomial' }), 'response', '0 or 1');
     const huge = { ...design, x: Float64Array.from([1e160, -1e160, 3e160, 0]) };

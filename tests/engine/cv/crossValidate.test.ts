@@ -16,7 +16,7 @@ import { expectClose } from '../../support/numbers';
 
 function spec(overrides: Partial<FitSpec>): FitSpec {
   return {
-    family: 'gaussian', response: 'y', predictors: ['x'], penalty: 'lasso', alpha: 1, standardize: true,
+    family: 'gaussian', response: 'y', predictors: ['x'], penalty: 'lasso', standardize: true,
     pathLength: 5, tolerance: 1e-10, maxIterations: 100000, screening: 'strong', missing: 'drop',
     cv: { folds: 3, seed: 1 }, ...overrides,
   };

@@ -22,7 +22,7 @@ describe('gaussian folds through the cross products of all rows', () => {
   }
   const table = parseCsvText(`${lines.join('\n')}\n`, 'gram.csv');
   const spec: FitSpec = {
-    family: 'gaussian', response: 'y', predictors: ['a', 'b', 'c', 'd', 'e', 'f'], penalty: 'elastic-net', alpha: 0.8,
+    family: 'gaussian', response: 'y', predictors: ['a', 'b', 'c', 'd', 'e', 'f'], penalty: 'elastic-net', l1Share: 0.8,
     standardize: true, pathLength: 12, tolerance: 1e-10, maxIterations: 100000, screening: 'strong', missing: 'drop',
     cv: { folds: 0, seed: 0, foldColumn: 'fold' },
   };
@@ -50,7 +50,7 @@ describe('missing: impute learns the fill-in values on each fold\'s training row
   const table = parseCsvText(`y,x,fold\n${X.map((x, i) => `${Y[i]},${Number.isNaN(x) ? '' : x},${FOLD[i]}`).join('\n')}\n`, 'impute.csv');
   const LAMBDA = [1, 0.3, 0.05];
   const spec: FitSpec = {
-    family: 'gaussian', response: 'y', predictors: ['x'], penalty: 'lasso', alpha: 1, standardize: true,
+    family: 'gaussian', response: 'y', predictors: ['x'], penalty: 'lasso', standardize: true,
     lambda: LAMBDA, pathLength: LAMBDA.length, tolerance: 1e-12, maxIterations: 100000, screening: 'strong',
     missing: 'impute', cv: { folds: 0, seed: 0, foldColumn: 'fold' },
   };

@@ -84,7 +84,7 @@ describe('predictPath on the rows fitted', () => {
     return `${y},${x},${c},${y > 4 ? 1 : 0}`;
   });
   const table = parseCsvText(`y,x,c,flag\n${rows.join('\n')}\n`, 'fit.csv');
-  const base = { predictors: ['x', 'c'], penalty: 'lasso' as const, alpha: 1, standardize: true, pathLength: 6, tolerance: 1e-12, maxIterations: 100000, screening: 'strong' as const, missing: 'drop' as const, cv: null };
+  const base = { predictors: ['x', 'c'], penalty: 'lasso' as const, standardize: true, pathLength: 6, tolerance: 1e-12, maxIterations: 100000, screening: 'strong' as const, missing: 'drop' as const, cv: null };
 
   for (const [family, response] of [['gaussian', 'y'], ['binomial', 'flag']] as const) {
     it(`${family}: fitted values sum to sum(y) at every lambda`, () => {

@@ -24,7 +24,7 @@ describe('lambda = 0 on a path', () => {
   it('gaussian: NIST Norris certified coefficients to 9 digits, with standardization on', () => {
     const nist = readJson<NistFixture>('datasets/reference/nist/norris.json');
     const design = designFrom(nist.predictors);
-    const path = fitPathOnDesign(design, Float64Array.from(nist.y), { family: 'gaussian', penalty: 'lasso', alpha: 1, standardize: true, lambda: [1, 0.1, 0], tolerance: 1e-8 });
+    const path = fitPathOnDesign(design, Float64Array.from(nist.y), { family: 'gaussian', penalty: 'lasso', standardize: true, lambda: [1, 0.1, 0], tolerance: 1e-8 });
     const [b0, b1] = nist.certified.estimates.map(Number);
     expectDigits('Norris b0 (NIST StRD certified)', path.intercept[2], b0, 9);
     expectDigits('Norris b1 (NIST StRD certified)', path.coefficients[2][0], b1, 9);
@@ -45,7 +45,7 @@ describe('lambda = 0 on a path', () => {
     const fixture = readJson<UnpenalizedFixture>('datasets/reference/sklearn/logistic-unpenalized.json');
     const csv = readNumericCsv(fixture.dataset.file);
     const y = Float64Array.from(csv.columns[fixture.dataset.response]);
-    const path = fitPathOnDesign(designFrom(csv.columns, fixture.dataset.terms), y, { family: 'binomial', penalty: 'lasso', alpha: 1, standardize: true, lambda: [0.01, 0], tolerance: 1e-8 });
+    const path = fitPathOnDesign(designFrom(csv.columns, fixture.dataset.terms), y, { family: 'binomial', penalty: 'lasso', standardize: true, lambda: [0.01, 0], tolerance: 1e-8 });
     const source = `scikit-learn ${fixture.versions.sklearn}: ${fixture.call}`;
     expectClose(`intercept (${source})`, path.intercept[1], fixture.intercept, 1e-8);
     fixture.dataset.terms.forEach((term, j) => expectClose(`${term} (${source})`, path.coefficients[1][j], fixture.coef[j], 1e-8));
@@ -58,7 +58,7 @@ describe('lambda = 0 on a path', () => {
     const separable = separation.cases.find((c) => c.separable) as { terms: string[] };
     const csv = readNumericCsv(separation.dataset.file);
     const y = Float64Array.from(csv.columns[separation.dataset.response]);
-    const path = fitPathOnDesign(designFrom(csv.columns, separable.terms), y, { family: 'binomial', penalty: 'lasso', alpha: 1, standardize: true, lambda: [0.01, 0], tolerance: 1e-8 });
+    const path = fitPathOnDesign(designFrom(csv.columns, separable.terms), y, { family: 'binomial', penalty: 'lasso', standardize: true, lambda: [0.01, 0], tolerance: 1e-8 });
     const solve = path.solves[1];
     expect(solve.message).toMatch(/separation/i);
     expect(Number.isFinite(solve.gap)).toBe(true);
@@ -72,7 +72,7 @@ describe('lambda = 0 on a path', () => {
     const ys = [[1.0, 1.4, 0.9, 1.3], [3.1, 2.7, 3.3], [-0.5, 0.2, -0.1, 0.0, 0.4]];
     const rows = ys.flatMap((values, k) => values.map((v) => `${v},${levels[k]}`));
     const table = parseCsvText(`y,group\n${rows.join('\n')}\n`, 'groups.csv');
-    const spec: FitSpec = { family: 'gaussian', response: 'y', predictors: ['group'], penalty: 'lasso', alpha: 1, standardize: true, lambda: [0.1, 0], pathLength: 2, tolerance: 1e-8, maxIterations: 10000, screening: 'strong', missing: 'drop', cv: null };
+    const spec: FitSpec = { family: 'gaussian', response: 'y', predictors: ['group'], penalty: 'lasso', standardize: true, lambda: [0.1, 0], pathLength: 2, tolerance: 1e-8, maxIterations: 10000, screening: 'strong', missing: 'drop', cv: null };
     const path = fitPath(table, spec);
     expect(path.terms).toEqual(['group=a', 'group=b', 'group=c']);
     expect(path.coefficients[1][2]).toBe(0);

@@ -97,7 +97,7 @@ describe(`gaussian paths match ${fixture.source}`, () => {
     const options: PathOptions = {
       family: 'gaussian',
       penalty: c.penalty,
-      alpha: c.alpha,
+      ...(c.penalty === 'elastic-net' ? { l1Share: c.alpha } : {}),
       standardize: c.standardize,
       lambda: c.lambda,
       tolerance: TOLERANCE,

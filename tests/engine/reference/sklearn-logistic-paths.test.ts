@@ -76,7 +76,7 @@ describe(`logistic paths match ${fixture.source}`, () => {
     const options: PathOptions = {
       family: 'binomial',
       penalty: c.penalty,
-      alpha: c.alpha,
+      ...(c.penalty === 'elastic-net' ? { l1Share: c.alpha } : {}),
       standardize: true,
       lambda: c.lambda,
       tolerance: TOLERANCE,

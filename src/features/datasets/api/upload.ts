@@ -5,7 +5,7 @@
  */
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { IngestProgressDto, UploadResultDto } from '@shared/datasets';
-import { api, ApiError, CSRF_COOKIE, CSRF_HEADER } from '@/lib/api';
+import { api, ApiError, CSRF_HEADER, csrfToken } from '@/lib/api';
 
 export interface UploadFields {
   name?: string;
@@ -20,10 +20,6 @@ export interface UploadHandle {
   abort(): void;
 }
 
-function csrfToken(): string {
-  const match = document.cookie.split(';').map((p) => p.trim().split('=')).find(([k]) => k === CSRF_COOKIE);
-  return match ? decodeURIComponent(match.slice(1).join('=')) : '';
-}
 
 export function uploadDataset(workspaceId: string, file: File, fields: UploadFields, onTransfer: (loaded: number, total: number) => void): UploadHandle {
   const ingestId = crypto.randomUUID();
@@ -42,7 +38,7 @@ export function uploadDataset(workspaceId: string, file: File, fields: UploadFie
     xhr.onabort = () => reject(new ApiError(0, `The upload of ${file.name} was cancelled.`));
   });
   xhr.open('POST', `/api/workspaces/${workspaceId}/datasets/uploads?ingest=${ingestId}`);
-  xhr.setRequestHeader(CSRF_HEADER, csrfToken());
+  xhr.setRequestHeader(CSRF_HEADER, csrfToken() ?? '');
   xhr.send(form);
   return { ingestId, result, abort: () => xhr.abort() };
 }

@@ -10,7 +10,7 @@ export interface OutboxMessage {
   receivedAt: string;
 }
 
-/** GET /api/dev/outbox: admins only; absent (404) in production. */
+/** GET /api/dev/outbox: your own captured mail; absent (404) unless the server turned it on. */
 export async function getOutbox(): Promise<OutboxMessage[]> {
   return listFrom<OutboxMessage>(await api.get('/api/dev/outbox'), 'messages');
 }

@@ -13,7 +13,7 @@ export function OutboxPage() {
     <>
       <PageHeader
         title="Outbox"
-        description="In development and tests Lariat does not send real e-mail. Every message is caught by a local mail server and shown here, newest first."
+        description="In development and tests Lariat does not send real e-mail. Messages to you, and invitations sent from workspaces you administer, are caught by a local mail server and shown here, newest first."
         actions={
           <Button variant="secondary" onClick={() => outbox.refetch()} busy={outbox.isFetching} busyLabel="Refreshing…">
             Refresh

@@ -1,0 +1,189 @@
+/**
+ * Issue 8, "tests that can fail": every API route, read from the Express router, against every kind
+ * of caller: the four roles of a workspace, someone from another workspace, and a stranger. The
+ * table below holds the expected status of each (method, route) for each caller; a route the router
+ * has and the table lacks fails the test, so a new route cannot ship without its row.
+ *
+ * Probes never destroy the fixtures: state-changing requests use an invalid body (400 once past
+ * authorization) or a made-up target id (404 from the handler, a different message from the
+ * workspace's "not a member" 404). The second part checks the CSRF header on every state-changing
+ * route, also from the router.
+ */
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { WorkspaceRole } from '../../../shared/members';
+import { startTestApp, type TestApp } from '../../support/app';
+import { apiRoutes, isStateChanging, routeKey, type ApiRoute } from '../../support/routes';
+import { inviteAndJoin, signIn, signUp, uniqueEmail, type Session } from '../../support/session';
+import { closeApp, upload } from '../datasets/support';
+
+type Caller = WorkspaceRole | 'other' | 'stranger';
+const CALLERS: Caller[] = ['admin', 'analyst', 'reviewer', 'viewer', 'other', 'stranger'];
+const NOT_MEMBER = 'No such workspace, or you are not a member of it.';
+const MADE_UP = '00000000-0000-4000-8000-000000000000';
+
+interface Row {
+  status: Record<Caller, number>;
+  /** Sign the caller in afresh for this probe (the request ends its session). */
+  fresh?: boolean;
+  body?: unknown;
+}
+
+/** A workspace route: the listed roles get `ok`, other members 403, another workspace 404, a stranger 401. */
+function ws(allowed: WorkspaceRole[], ok: number): Row {
+  const status = { other: 404, stranger: 401 } as Record<Caller, number>;
+  for (const role of ['admin', 'analyst', 'reviewer', 'viewer'] as const) status[role] = allowed.includes(role) ? ok : 403;
+  return { status };
+}
+const all: WorkspaceRole[] = ['admin', 'analyst', 'reviewer', 'viewer'];
+const editors: WorkspaceRole[] = ['admin', 'analyst'];
+/** Needs a session, no workspace. */
+const personal = (ok: number): Row => ({ status: { admin: ok, analyst: ok, reviewer: ok, viewer: ok, other: ok, stranger: 401 } });
+/** Anyone, signed in or not. */
+const open = (ok: number): Row => ({ status: { admin: ok, analyst: ok, reviewer: ok, viewer: ok, other: ok, stranger: ok } });
+
+const W = '/api/workspaces/:workspaceId';
+const V = `${W}/datasets/:datasetId/versions/:number`;
+
+/** Expected status per route and caller. Add a row with every new route. */
+const TABLE: Record<string, Row> = {
+  'GET /api/health': open(200),
+  'POST /api/auth/sign-up': open(400),
+  'POST /api/auth/sign-in': open(400),
+  'POST /api/auth/sign-out': { ...open(204), fresh: true },
+  'GET /api/auth/me': personal(200),
+  'POST /api/auth/password-reset/request': open(400),
+  'POST /api/auth/password-reset/complete': open(400),
+  'GET /api/auth/sessions': personal(200),
+  'POST /api/auth/sessions/sign-out-others': personal(200),
+  'POST /api/auth/password': personal(400),
+  'GET /api/workspaces': personal(200),
+  'POST /api/workspaces': personal(400),
+  [`GET ${W}`]: ws(all, 200),
+  [`GET ${W}/members`]: ws(all, 200),
+  [`PATCH ${W}/members/:userId`]: ws(['admin'], 400),
+  [`DELETE ${W}/members/:userId`]: ws(['admin'], 404),
+  [`GET ${W}/invitations`]: ws(['admin'], 200),
+  [`POST ${W}/invitations`]: ws(['admin'], 400),
+  [`DELETE ${W}/invitations/:invitationId`]: ws(['admin'], 404),
+  'GET /api/invitations/:token': open(404),
+  'POST /api/invitations/:token/accept': open(404),
+  'GET /api/dev/outbox': personal(200),
+  [`POST ${W}/datasets/uploads`]: ws(editors, 400),
+  [`GET ${W}/ingests/:ingestId`]: ws(all, 404),
+  [`GET ${W}/datasets`]: ws(all, 200),
+  [`GET ${W}/datasets/:datasetId`]: ws(all, 200),
+  [`DELETE ${W}/datasets/:datasetId`]: { ...ws(editors, 404), body: undefined },
+  [`GET ${V}`]: ws(all, 200),
+  [`GET ${V}/rows`]: ws(all, 200),
+  [`POST ${V}/column-settings`]: ws(editors, 400),
+  [`GET ${V}/original`]: ws(all, 200),
+  [`GET ${V}/cleaned.csv`]: ws(all, 200),
+  [`GET ${W}/open-datasets`]: ws(all, 200),
+  [`POST ${W}/open-datasets/:key/import`]: ws(editors, 404),
+};
+
+let t: TestApp;
+let routes: ApiRoute[];
+const sessions = {} as Record<Exclude<Caller, 'stranger'>, Session>;
+let workspaceId = '';
+let datasetId = '';
+
+beforeAll(async () => {
+  t = await startTestApp({ LARIAT_DEV_OUTBOX: '1' });
+  routes = apiRoutes(t.app);
+  sessions.admin = await signUp(t.app);
+  workspaceId = sessions.admin.workspaceId;
+  for (const role of ['analyst', 'reviewer', 'viewer'] as const) sessions[role] = await inviteAndJoin(t, sessions.admin, uniqueEmail(role), role);
+  sessions.other = await signUp(t.app);
+  const uploaded = await upload(sessions.admin, 'id,score\n1,2.5\n2,3.5\n3,1.0\n', 'matrix.csv', { name: 'Matrix' });
+  if (uploaded.status !== 201) throw new Error(`fixture upload: ${uploaded.status} ${uploaded.text}`);
+  datasetId = (uploaded.body as { datasetId: string }).datasetId;
+});
+afterAll(async () => {
+  await closeApp(t);
+});
+
+/** The concrete URL of a route: this workspace and dataset, made-up ids for everything a probe might destroy. */
+function urlOf(route: ApiRoute): string {
+  const destructive = isStateChanging(route);
+  return route.path
+    .replace(':workspaceId', workspaceId)
+    .replace(':datasetId', destructive && route.method === 'DELETE' ? MADE_UP : datasetId)
+    .replace(':number', '1')
+    .replace(':token', 'x'.repeat(43))
+    .replace(':key', 'no-such-open-dataset')
+    .replace(/:[A-Za-z]+/g, MADE_UP);
+}
+
+async function probe(route: ApiRoute, caller: Caller, row: Row): Promise<request.Response> {
+  const url = urlOf(route);
+  const method = route.method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete';
+  if (caller === 'stranger') {
+    // A CSRF pair of its own, so the stranger reaches authentication (and gets its 401).
+    let req = request(t.app)[method](url);
+    if (isStateChanging(route)) req = req.set('Cookie', 'lariat_csrf=stranger').set('X-Lariat-CSRF', 'stranger');
+    return isStateChanging(route) ? req.send((row.body ?? {}) as object) : req;
+  }
+  const session = row.fresh ? await signIn(t.app, sessions[caller].email) : sessions[caller];
+  const req = session.agent[method](url);
+  return isStateChanging(route) ? req.set('X-Lariat-CSRF', session.csrf).send((row.body ?? {}) as object) : req;
+}
+
+describe('route-by-role matrix (from the router)', () => {
+  it('has a row for every route and no row for a route that is gone', () => {
+    const keys = routes.map(routeKey);
+    expect(keys.filter((k) => !(k in TABLE)), 'routes without a row in TABLE').toEqual([]);
+    expect(Object.keys(TABLE).filter((k) => !keys.includes(k)), 'rows for routes the router lacks').toEqual([]);
+  });
+
+  it('answers every route with the expected status for each caller', async () => {
+    const wrong: string[] = [];
+    for (const route of routes) {
+      const row = TABLE[routeKey(route)];
+      if (!row) continue;
+      for (const caller of CALLERS) {
+        const res = await probe(route, caller, row);
+        const expected = row.status[caller];
+        if (res.status !== expected) wrong.push(`${routeKey(route)} as ${caller}: expected ${expected}, got ${res.status} ${res.text.slice(0, 160)}`);
+        // Another workspace gets exactly the "no such workspace" answer: nothing about what is inside.
+        if (caller === 'other' && route.path.startsWith(W) && res.status === 404 && res.body?.error?.message !== NOT_MEMBER) {
+          wrong.push(`${routeKey(route)} as other: 404 with another message: ${res.text.slice(0, 160)}`);
+        }
+      }
+    }
+    expect(wrong).toEqual([]);
+  });
+});
+
+/** Routes that carry their own proof (no session yet, or an e-mailed token): see server/auth/csrf.ts. */
+const CSRF_EXEMPT = new Set([
+  'POST /api/auth/sign-up',
+  'POST /api/auth/sign-in',
+  'POST /api/auth/password-reset/request',
+  'POST /api/auth/password-reset/complete',
+  'POST /api/invitations/:token/accept',
+]);
+
+describe('CSRF on every state-changing route (from the router)', () => {
+  it('refuses a missing header, another session\'s token and a foreign Origin', async () => {
+    const wrong: string[] = [];
+    const changing = routes.filter(isStateChanging);
+    expect(changing.length).toBeGreaterThan(10);
+    for (const route of changing) {
+      const url = urlOf(route);
+      const method = route.method.toLowerCase() as 'post' | 'patch' | 'delete';
+      const admin = sessions.admin;
+      const foreign = await admin.agent[method](url).set('X-Lariat-CSRF', admin.csrf).set('Origin', 'https://evil.example').send({});
+      if (foreign.status !== 403) wrong.push(`${routeKey(route)} with a foreign Origin: ${foreign.status}`);
+      if (CSRF_EXEMPT.has(routeKey(route))) continue;
+      const missing = await admin.agent[method](url).send({});
+      if (missing.status !== 403 || missing.body?.error?.field !== 'X-Lariat-CSRF') wrong.push(`${routeKey(route)} without the header: ${missing.status}`);
+      const borrowed = await admin.agent[method](url).set('X-Lariat-CSRF', sessions.viewer.csrf).send({});
+      if (borrowed.status !== 403 || borrowed.body?.error?.field !== 'X-Lariat-CSRF') wrong.push(`${routeKey(route)} with another session's token: ${borrowed.status}`);
+    }
+    expect(wrong).toEqual([]);
+    // The admin's session survived all of that (no refused request did anything).
+    expect((await sessions.admin.agent.get('/api/auth/me')).status).toBe(200);
+  });
+});
