@@ -20,7 +20,7 @@ export interface ZeroFit {
  * the rows fitted. These reach the digits a first-order method cannot (NIST StRD Longley: >= 9
  * significant digits). Terms QR finds aliased (exact linear combinations of the intercept and
  * earlier terms, e.g. the last indicator of a fully encoded categorical predictor) get coefficient 0;
- * the note names them (docs/decisions: aliasing at lambda = 0). The duality gap is then computed
+ * the note names them (docs/decisions/0005-lambda-zero-and-aliased-indicators.md). The duality gap is then computed
  * at the result as for any solve (the dual point projected on X'theta = 0), and the status follows
  * it: 'converged' when gap / null objective <= tolerance, else 'iteration-limit' (e.g. binomial
  * separation, where no finite minimizer exists), with the unpenalized fit's message.
