@@ -9,21 +9,10 @@ import http from 'node:http';
 import path from 'node:path';
 import { generateCsv } from './ingest/generate';
 import { startServer } from './ingest/server';
+import { signUp } from './ingest/session';
 
 const TARGET_MB_S = 20;
 const TARGET_PEAK_MIB = 1024;
-
-async function signUp(url: string): Promise<{ cookie: string; csrf: string; workspaceId: string }> {
-  const res = await fetch(`${url}/api/auth/sign-up`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: `bench-${Date.now()}@example.test`, password: 'correct horse battery staple', name: 'Bench' }),
-  });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
-  const body = (await res.json()) as { csrfToken: string; memberships: { workspaceId: string }[] };
-  const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  return { cookie, csrf: body.csrfToken, workspaceId: body.memberships[0].workspaceId };
-}
 
 function uploadFile(url: string, s: { cookie: string; csrf: string; workspaceId: string }, filePath: string): Promise<{ status: number; body: string }> {
   const boundary = 'lariat-bench-boundary';
@@ -68,7 +57,7 @@ export async function run(): Promise<void> {
   console.log(`input: ${rows} rows x 20 columns, ${mb.toFixed(1)} MB (${filePath}; ready in ${((Date.now() - t0) / 1000).toFixed(1)} s)`);
   const server = await startServer({ LARIAT_UPLOAD_LIMIT_MB: String(Math.ceil(mb) + 10) });
   try {
-    const session = await signUp(server.url);
+    const session = await signUp(server.url, server.mailbox);
     const idleMiB = server.peakMiB();
     const started = process.hrtime.bigint();
     const res = await uploadFile(server.url, session, filePath);

@@ -10,4 +10,6 @@ if [ "${LARIAT_SKIP_BUILD:-0}" != 1 ]; then
   npx vite build --logLevel warn
 fi
 npx tsx server/main.ts &
+# One fit worker beside the API (more: `npm run worker` anywhere that reaches the same PostgreSQL).
+npx tsx server/worker/main.ts &
 wait

@@ -20,11 +20,27 @@ const schema = z.object({
   /** smtp://host:port of a real relay; absent in development/test: a local fake SMTP server is started. */
   LARIAT_SMTP_URL: z.string().optional(),
   LARIAT_FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  /** Browser tests only (NODE_ENV=test): a file where the fake SMTP server also writes what it captures. */
+  LARIAT_FAKE_SMTP_LOG: z.string().optional(),
   LARIAT_MAIL_FROM: z.string().default('Lariat <no-reply@lariat.localhost>'),
   LARIAT_UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
   LARIAT_COLUMN_LIMIT: z.coerce.number().int().positive().default(5000),
+  /** Ingests run at once per process, and how many more may wait (docs/decisions/0010-ingest-cap-and-upload-hardening.md). */
+  LARIAT_INGEST_SLOTS: z.coerce.number().int().positive().default(1),
+  LARIAT_INGEST_QUEUE: z.coerce.number().int().min(0).default(4),
+  /** How long a request waits for a free database connection before it fails. */
+  LARIAT_DB_CONNECT_TIMEOUT_MS: z.coerce.number().int().positive().default(5000),
   LARIAT_SERVE_CLIENT: z.enum(['0', '1']).default('1'),
   LARIAT_STATE_DIR: z.string().default('.lariat'),
+  /** Fits queue (server/queue/boss.ts): a job whose worker stops its heartbeat is retried after this long. */
+  LARIAT_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(60),
+  LARIAT_QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(10),
+  LARIAT_QUEUE_POLL_MS: z.coerce.number().int().min(50).default(1000),
+  LARIAT_JOB_RETRIES: z.coerce.number().int().min(0).default(3),
+  /** Engine threads per worker process (each runs one job at a time). */
+  LARIAT_WORKER_THREADS: z.coerce.number().int().min(1).max(64).default(1),
+  /** CPU priority of fit workers (0 = as the API, 19 = lowest): the API stays responsive beside them. */
+  LARIAT_WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
 });
 
 export type Config = z.infer<typeof schema> & { publicUrl: string; sessionSecret: string; trustProxy: boolean | number | string };

@@ -92,6 +92,9 @@ export const signUpSchema = z
   .superRefine(passwordNotEmail);
 export type SignUpInput = z.input<typeof signUpSchema>;
 
+/** The answer to every valid sign-up: the e-mailed link creates the account (or tells its owner it exists). */
+export const SIGN_UP_ACCEPTED = 'Check your inbox: we sent you a link to finish creating your account. It works for 1 hour.';
+
 /** POST /api/auth/sign-in: no strength rules here, only bounds. */
 export const signInSchema = z.strictObject({
   email: emailSchema,
@@ -104,6 +107,9 @@ export const passwordResetRequestSchema = z.strictObject({ email: emailSchema })
 
 export const TOKEN_MAX = 200;
 export const tokenSchema = singleLine(z.string({ error: 'The link is missing its token.' }).min(1, 'The link is missing its token.').max(TOKEN_MAX, 'This link is not valid.'));
+
+/** POST /api/auth/sign-up/complete: the token from the e-mailed link. */
+export const completeSignUpSchema = z.strictObject({ token: tokenSchema });
 
 /** POST /api/auth/password-reset/complete */
 export const passwordResetCompleteSchema = z.strictObject({ token: tokenSchema, password: passwordSchema });

@@ -77,7 +77,13 @@ export interface ColumnSchema {
 
 export interface ParseReport {
   fileName: string;
+  /** The delimiter character, or "whitespace" when columns are separated by runs of spaces or tabs. */
   delimiter: string;
+  /**
+   * Whether the first row held the column names (false: the uploader said it is data, and columns
+   * are named column_1, column_2, ...). Absent in reports stored before the choice existed: true.
+   */
+  headerRow?: boolean;
   encoding: 'utf-8';
   byteOrderMark: boolean;
   lineEndings: 'LF' | 'CRLF' | 'CR' | 'none';
@@ -141,7 +147,8 @@ export interface UploadResultDto {
   message: string;
 }
 
-export type IngestPhase = 'receiving' | 'parsing' | 'storing' | 'done' | 'failed';
+/** queued: received, waiting for one of the server's ingest slots. */
+export type IngestPhase = 'receiving' | 'queued' | 'parsing' | 'storing' | 'done' | 'failed';
 
 /** GET /api/workspaces/:workspaceId/ingests/:ingestId */
 export interface IngestProgressDto {
@@ -187,6 +194,8 @@ export const uploadFieldsSchema = z.strictObject({
   datasetId: z.uuid('datasetId must be a dataset id').optional(),
   /** Comma-separated markers; absent: DEFAULT_MISSING_MARKERS. */
   missing: singleLine(z.string().max(500, 'At most 500 characters of markers.')).optional(),
+  /** "no": the file's first row is data, not column names (columns become column_1, column_2, ...). */
+  headerRow: z.enum(['yes', 'no'], { error: () => 'headerRow must be "yes" or "no".' }).optional(),
 });
 export type UploadFields = z.infer<typeof uploadFieldsSchema>;
 

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { emailSchema } from './auth';
 
 /**
- * The four roles a person can hold in a workspace (DESIGN.md "Who uses it"). Not a strict hierarchy:
+ * The four roles a person can hold in a workspace (docs/roles.md). Not a strict hierarchy:
  * reviewers review and analysts upload, so routes name the roles they accept explicitly.
  */
 export const WORKSPACE_ROLES = ['admin', 'analyst', 'reviewer', 'viewer'] as const;

@@ -3,11 +3,14 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import { applyMigrations } from '../../server/db/migrate';
+import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { adminQuery, urlFor } from '../../tests/support/databases';
 
 export interface BenchServer {
   url: string;
   pid: number;
+  /** The mail the server sends (sign-up links). */
+  mailbox: FakeSmtp;
   peakMiB(): number;
   stop(): Promise<void>;
 }
@@ -17,6 +20,7 @@ export async function startServer(env: Record<string, string>): Promise<BenchSer
   await adminQuery(`CREATE DATABASE ${db}`);
   await applyMigrations(urlFor(db));
   const port = 20000 + Math.floor(Math.random() * 20000);
+  const mailbox = await startFakeSmtp(0);
   // node itself (not npx) so the pid we watch is the server's own.
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
     env: {
@@ -24,7 +28,8 @@ export async function startServer(env: Record<string, string>): Promise<BenchSer
       NODE_ENV: 'development',
       DATABASE_URL: urlFor(db),
       LARIAT_PORT: String(port),
-      LARIAT_FAKE_SMTP_PORT: '0',
+      LARIAT_SMTP_URL: `smtp://127.0.0.1:${mailbox.port}`,
+      LARIAT_RATE_LIMIT_FACTOR: '100',
       LARIAT_SERVE_CLIENT: '0',
       LARIAT_INGEST_TIMING: '1',
       LARIAT_STATE_DIR: `.lariat/bench-state/${db}`,
@@ -41,6 +46,7 @@ export async function startServer(env: Record<string, string>): Promise<BenchSer
   return {
     url: `http://127.0.0.1:${port}`,
     pid: child.pid!,
+    mailbox,
     peakMiB() {
       const m = /VmHWM:\s+(\d+)/.exec(fs.readFileSync(`/proc/${child.pid}/status`, 'utf8'));
       return m ? Number(m[1]) / 1024 : Number.NaN;
@@ -49,6 +55,7 @@ export async function startServer(env: Record<string, string>): Promise<BenchSer
       const exited = new Promise((r) => child.once('exit', r));
       child.kill('SIGTERM');
       await exited;
+      await mailbox.close();
       await adminQuery(`DROP DATABASE IF EXISTS ${db} WITH (FORCE)`);
       fs.rmSync(`.lariat/bench-state/${db}`, { recursive: true, force: true });
     },

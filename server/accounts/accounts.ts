@@ -1,34 +1,15 @@
 /**
- * Sign-up, sign-in and the "me" view. Decision (docs/decisions/0002-accounts-sessions-csrf.md): every
- * sign-up, the first one of a fresh install included, creates its own new workspace with the new
- * person as its admin; joining someone else's workspace goes through an invitation.
+ * Sign-in, the "me" view, the demo seed's account and new workspaces. Sign-up lives in sign-up.ts
+ * (two steps: an e-mailed link creates the account).
  */
 import type { MembershipSummaryDto, UserDto } from '../../shared/auth';
 import type { WorkspaceRole } from '../../shared/members';
 import type { WorkspaceDto } from '../../shared/workspaces';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { Database } from '../db/client';
-import { conflict, HttpError } from '../http/errors';
-import { isUniqueViolation } from './executor';
+import { HttpError } from '../http/errors';
 import { findUserByEmail, insertUser, toUserDto } from './users';
 import { insertWorkspaceWithAdmin, listWorkspacesOf } from './workspaces';
-
-export async function signUp(
-  db: Database,
-  input: { email: string; password: string; name: string; workspaceName?: string },
-): Promise<{ user: UserDto; workspaceId: string }> {
-  const passwordHash = await hashPassword(input.password);
-  try {
-    return await db.transaction(async (tx) => {
-      const user = await insertUser(tx, { email: input.email, name: input.name, passwordHash });
-      const workspace = await insertWorkspaceWithAdmin(tx, input.workspaceName ?? `${input.name}'s workspace`, user.id);
-      return { user, workspaceId: workspace.id };
-    });
-  } catch (err) {
-    if (isUniqueViolation(err)) throw conflict('An account with this e-mail address already exists. Sign in, or reset your password.', 'email');
-    throw err;
-  }
-}
 
 /** The user for a right e-mail and password; one message for both wrong cases (no enumeration). */
 export async function authenticate(db: Database, email: string, password: string): Promise<UserDto> {

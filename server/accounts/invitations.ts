@@ -3,7 +3,7 @@
  * for INVITATION_DAYS, and used once: acceptance claims it with a conditional UPDATE inside the same
  * transaction that creates the membership (and the account, for a new person).
  */
-import { and, asc, eq, gt, isNull } from 'drizzle-orm';
+import { and, asc, eq, gt, isNull, lt, ne } from 'drizzle-orm';
 import { passwordProblem, type UserDto } from '../../shared/auth';
 import { INVITATION_DAYS, type InvitationDto, type InvitationPreviewDto, type WorkspaceRole } from '../../shared/members';
 import { hashPassword } from '../auth/passwords';
@@ -33,25 +33,51 @@ function toDto(r: { id: string; email: string; role: WorkspaceRole; invitedByNam
   return { ...r, createdAt: r.createdAt.toISOString(), expiresAt: r.expiresAt.toISOString() };
 }
 
-/** Creates (or renews: an older pending invitation for the same e-mail is revoked) and e-mails an invitation. */
+/**
+ * Creates an invitation and queues its e-mail (invitation-mail.ts). An older pending invitation for
+ * the same address stays valid until the new one's e-mail has gone out, so a mail relay failure
+ * never leaves the person with no working link; the job retries the e-mail until the relay takes it.
+ */
 export async function invite(ctx: AppContext, workspaceId: string, inviter: UserDto, input: { email: string; role: WorkspaceRole }): Promise<InvitationDto> {
   const members = await listMembers(ctx.db, workspaceId);
   if (members.some((m) => m.email === input.email)) throw conflict(`${input.email} is already a member of this workspace.`, 'email');
+  // The token is made when the e-mail is sent (no usable token ever sits in the job table); until
+  // then the row holds the hash of a token nobody has.
+  const [created] = await ctx.db
+    .insert(invitations)
+    .values({ workspaceId, email: input.email, role: input.role, tokenHash: hashToken(randomToken()), invitedBy: inviter.id, expiresAt: new Date(Date.now() + INVITATION_DAYS * DAY_MS) })
+    .returning();
+  await ctx.queue.send(INVITATION_MAIL_JOB, { invitationId: created.id });
+  return toDto({ ...created, invitedByName: inviter.name });
+}
+
+export const INVITATION_MAIL_JOB = 'invitation-mail';
+
+/**
+ * The queued job: a fresh token for a still-pending invitation, its e-mail, and then (only once the
+ * relay took the e-mail) the end of older pending invitations to the same address in that workspace.
+ * Throws when the relay refuses, so the queue retries.
+ */
+export async function sendInvitationMail(ctx: AppContext, invitationId: string): Promise<void> {
   const token = randomToken();
-  const row = await ctx.db.transaction(async (tx) => {
+  const [row] = await ctx.db
+    .update(invitations)
+    .set({ tokenHash: hashToken(token) })
+    .where(and(eq(invitations.id, invitationId), live()))
+    .returning();
+  if (!row) return; // withdrawn, accepted or expired since: nothing to send
+  const [ws] = await ctx.db.select({ name: workspaces.name }).from(workspaces).where(eq(workspaces.id, row.workspaceId));
+  const inviter = row.invitedBy ? await ctx.db.select({ name: users.name }).from(users).where(eq(users.id, row.invitedBy)) : [];
+  await ctx.sendMail(
+    invitationMail(ctx, { to: row.email, token, workspaceId: row.workspaceId, workspaceName: ws.name, role: row.role, invitedBy: inviter[0]?.name ?? 'An admin' }),
+  );
+  await ctx.db.transaction(async (tx) => {
+    await tx.update(invitations).set({ mailedAt: new Date() }).where(eq(invitations.id, row.id));
     await tx
       .update(invitations)
       .set({ revokedAt: new Date() })
-      .where(and(eq(invitations.workspaceId, workspaceId), eq(invitations.email, input.email), live()));
-    const [created] = await tx
-      .insert(invitations)
-      .values({ workspaceId, email: input.email, role: input.role, tokenHash: hashToken(token), invitedBy: inviter.id, expiresAt: new Date(Date.now() + INVITATION_DAYS * DAY_MS) })
-      .returning();
-    const [ws] = await tx.select({ name: workspaces.name }).from(workspaces).where(eq(workspaces.id, workspaceId));
-    return { ...created, workspaceName: ws.name };
+      .where(and(eq(invitations.workspaceId, row.workspaceId), eq(invitations.email, row.email), ne(invitations.id, row.id), lt(invitations.createdAt, row.createdAt), live()));
   });
-  await ctx.sendMail(invitationMail(ctx, { to: input.email, token, workspaceId, workspaceName: row.workspaceName, role: input.role, invitedBy: inviter.name }));
-  return toDto({ ...row, invitedByName: inviter.name });
 }
 
 export async function listPendingInvitations(db: Database, workspaceId: string): Promise<InvitationDto[]> {

@@ -1,6 +1,7 @@
 /** The e-mails accounts send: plain text with one link, built from config.publicUrl. */
 import type { WorkspaceRole } from '../../shared/members';
 import type { AppContext, MailMessage } from '../context';
+import { reportUnexpected } from '../http/unexpected';
 
 export function invitationMail(
   ctx: AppContext,
@@ -38,7 +39,8 @@ export function passwordResetMail(ctx: AppContext, m: { to: string; token: strin
 
 /** Sends without making the caller wait or fail: a mail relay hiccup must not reveal or break anything. */
 export function sendInBackground(ctx: AppContext, message: MailMessage): void {
-  ctx.sendMail(message).catch((err: unknown) => console.error('[lariat] could not send e-mail to', message.to, err));
+  // Logged without the message (its links are credentials) or the relay's full error text.
+  ctx.sendMail(message).catch((err: unknown) => reportUnexpected(err, `e-mail "${message.subject}"`));
 }
 
 export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut: number }): MailMessage {
@@ -50,6 +52,36 @@ export function passwordChangedMail(ctx: AppContext, m: { to: string; signedOut:
       m.signedOut > 0 ? `Your other sessions (${m.signedOut}) were signed out.` : 'No other session was open.',
       '',
       `If this was not you, reset your password now: ${ctx.config.publicUrl}/forgot-password`,
+    ].join('\n'),
+  };
+}
+
+export function finishSignUpMail(ctx: AppContext, m: { to: string; token: string }): MailMessage {
+  const link = `${ctx.config.publicUrl}/sign-up/finish/${m.token}`;
+  return {
+    to: m.to,
+    subject: 'Finish creating your Lariat account',
+    text: [
+      'Someone (hopefully you) started creating a Lariat account with this e-mail address.',
+      '',
+      `Finish creating it: ${link}`,
+      '',
+      'The link works once and expires in 1 hour. If you did not ask for this, ignore this e-mail; no account is created.',
+    ].join('\n'),
+  };
+}
+
+export function accountExistsMail(ctx: AppContext, m: { to: string }): MailMessage {
+  return {
+    to: m.to,
+    subject: 'Someone tried to create a Lariat account with your address',
+    text: [
+      'Someone (hopefully you) tried to create a Lariat account with this e-mail address, but it already has one.',
+      '',
+      `Sign in: ${ctx.config.publicUrl}/sign-in`,
+      `Forgot your password? Choose a new one: ${ctx.config.publicUrl}/forgot-password`,
+      '',
+      'If this was not you, you can ignore this e-mail: nothing changed on your account.',
     ].join('\n'),
   };
 }

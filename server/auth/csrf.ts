@@ -12,7 +12,7 @@
  *    the CSRF cookie, as before.
  * Exempt from (2), not from (1): sign-in, sign-up and password-reset request (no session exists to
  * abuse yet; they are rate limited), and the endpoints that carry an e-mailed secret token
- * (password-reset complete, invitation accept): an attacker cannot forge a request without that token.
+ * (sign-up complete, password-reset complete, invitation accept): an attacker cannot forge a request without that token.
  */
 import { createHmac } from 'node:crypto';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
@@ -26,7 +26,7 @@ import { sameSecret } from './tokens';
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 const EXEMPT = [
   /^\/auth\/sign-in\/?$/,
-  /^\/auth\/sign-up\/?$/,
+  /^\/auth\/sign-up(\/complete)?\/?$/,
   /^\/auth\/password-reset\/(request|complete)\/?$/,
   /^\/invitations\/[^/]+\/accept\/?$/,
 ];

@@ -44,11 +44,11 @@ export const DEFAULTS = {
   maxIterations: DEFAULT_MAX_ITERATIONS,
 };
 
-const VALUE_OPTIONS = new Set([
+export const VALUE_OPTIONS = new Set([
   'data', 'response', 'predictors', 'family', 'penalty', 'l1-share', 'groups', 'penalty-weights', 'lambda',
   'path-length', 'path-decades', 'max-terms', 'folds', 'fold-column', 'seed', 'tolerance', 'max-iterations', 'workers',
 ]);
-const FLAG_OPTIONS = new Set(['no-standardize', 'help']);
+export const FLAG_OPTIONS = new Set(['no-standardize', 'help']);
 
 /** Splits argv into option -> raw value; accepts `--name value` and `--name=value`. */
 export function tokenize(argv: string[]): Map<string, string | true> {
@@ -134,8 +134,8 @@ export function parseFitOptions(argv: string[]): FitOptions {
   }
   if (l1Share !== undefined && !(l1Share > 0 && l1Share <= 1)) throw new UsageError(`--l1-share must be in (0, 1] (got "${shareRaw}")`);
   const lambdaRaw = get('lambda');
-  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('path-decades'))) {
-    throw new UsageError('--lambda cannot be combined with --path-length or --path-decades (they shape the automatic path)');
+  if (lambdaRaw !== undefined && (t.has('path-length') || t.has('path-decades') || t.has('max-terms'))) {
+    throw new UsageError('--lambda cannot be combined with --path-length, --path-decades or --max-terms (they shape the automatic path)');
   }
   const decadesRaw = get('path-decades');
   const pathDecades = decadesRaw === undefined ? DEFAULTS.pathDecades : number('path-decades', decadesRaw);

@@ -46,6 +46,17 @@ function warningsOf(path: PathResult): string[] {
   );
 }
 
+/**
+ * The CV minimum at the smallest lambda means the best model may lie beyond the path's end (likely
+ * with --no-standardize on columns of very different scales; docs/decisions/0006-path-depth.md).
+ */
+function cvNotes(path: PathResult, cv: CvResult | null): string[] {
+  if (!cv || path.lambda.length < 2 || cv.minimum.index !== path.lambda.length - 1) return [];
+  return [
+    `the cross-validation minimum is at the smallest lambda of the path (${path.lambda[path.lambda.length - 1]}); a path reaching smaller lambdas (a larger --path-decades) may find a lower error`,
+  ];
+}
+
 export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: string): FitOutput {
   return {
     lambda: path.lambda,
@@ -69,7 +80,7 @@ export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: 
     standardizedCoefficients: byTerm(path.terms, path.standardizedCoefficients),
     nonzero: path.nonzero,
     devianceExplained: path.devianceExplained,
-    notes: path.notes,
+    notes: [...path.notes, ...cvNotes(path, cv)],
     cautions: CAUTION_LINES,
     warnings: warningsOf(path),
     engineVersion,

@@ -10,8 +10,12 @@ export interface DatabaseHandle {
   close(): Promise<void>;
 }
 
-export function connectDatabase(url: string, max = 10): DatabaseHandle {
-  const pool = new pg.Pool({ connectionString: url, max });
+/**
+ * `connectTimeoutMs`: how long a query waits for a free connection (or a new one) before failing,
+ * so a saturated pool gives errors rather than requests that hang (pg's default is to wait forever).
+ */
+export function connectDatabase(url: string, max = 10, connectTimeoutMs = 5000): DatabaseHandle {
+  const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: connectTimeoutMs });
   // An idle client whose server connection ends (a restart, a dropped test database) must not crash
   // the process; the pool replaces it on the next query.
   pool.on('error', (err) => console.error('[lariat] idle database connection lost:', err.message));

@@ -1,6 +1,7 @@
 /** Applies the Drizzle migrations in drizzle/ to DATABASE_URL (idempotent). */
 import { fileURLToPath } from 'node:url';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { installQueue } from '../queue/queue';
 import { connectDatabase } from './client';
 
 export async function applyMigrations(url: string): Promise<void> {
@@ -10,6 +11,8 @@ export async function applyMigrations(url: string): Promise<void> {
   } finally {
     await handle.close();
   }
+  // The job queue's own tables (schema pgboss), kept by pg-boss itself.
+  await installQueue(url);
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) {

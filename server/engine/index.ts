@@ -15,3 +15,9 @@ export * from './defaults';
 export { createRng } from './random';
 export type { Rng } from './random';
 export * from './types';
+// Fit workers (server/fits) run the cross-validation folds as separate queue jobs, refit and predict.
+export { planCrossValidation, runPlannedFold, combineFolds, summarizeFolds, chooseLambdas, METRICS } from './cv/index';
+export { areaUnderRoc, meanAbsoluteError, meanBinomialDeviance, meanSquaredError, misclassificationRate } from './cv/index';
+export type { CvPlan, FoldLosses } from './cv/index';
+export { refitSelected, POST_SELECTION_CAUTION } from './unpenalized/index';
+export type { UnpenalizedResult } from './unpenalized/index';

@@ -53,7 +53,10 @@ export interface FitSpec {
   pathLength: number;
   /** The automatic path ends at lambda_max * 10^-pathDecades (default DEFAULT_PATH_DECADES). */
   pathDecades?: number;
-  /** End the path after the first lambda whose model has more than maxTerms nonzero terms. */
+  /**
+   * End the automatic path after the first lambda whose model has more than maxTerms nonzero terms;
+   * not with explicit lambdas.
+   */
   maxTerms?: number;
   tolerance: number;
   maxIterations: number;
@@ -151,10 +154,13 @@ export interface PathOptions {
   /** Default 'strong'. */
   screening?: Screening;
   /**
-   * End the path after the first lambda whose model has more than maxTerms nonzero terms (that
-   * lambda is kept). Default: no limit.
+   * End the automatic path after the first lambda whose model has more than maxTerms nonzero terms
+   * (that lambda is kept). Ignored with explicit lambdas (so cross-validation folds fit the whole
+   * full-data grid). Default: no limit.
    */
   maxTerms?: number;
+  /** Called after each lambda is solved (fit workers report live progress with it). */
+  onLambda?: (done: number, total: number) => void;
   /** Gaussian only: 'auto' (default) uses the Gram matrix X'X/n when n >= 2p and p <= 2000. */
   gram?: 'auto' | 'always' | 'never';
   /**

@@ -2,6 +2,7 @@
  * A local stand-in for a hosted mail relay: a real SMTP server on loopback (smtp-server) that keeps
  * every message it receives in memory, newest last. Development and tests only.
  */
+import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
@@ -34,7 +35,11 @@ function headerText(value: unknown): string | null {
   return typeof value === 'string' && value !== '' ? value : null;
 }
 
-export async function startFakeSmtp(port = 0, host = '127.0.0.1'): Promise<FakeSmtp> {
+/**
+ * `logFile` (browser tests only): each captured message is also appended there as one JSON line, so
+ * a test can follow a link mailed to someone who cannot sign in yet (a sign-up's own link).
+ */
+export async function startFakeSmtp(port = 0, host = '127.0.0.1', logFile?: string, announce?: (message: CapturedMessage) => void): Promise<FakeSmtp> {
   const messages: CapturedMessage[] = [];
   let nextId = 1;
   const server = new SMTPServer({
@@ -55,6 +60,8 @@ export async function startFakeSmtp(port = 0, host = '127.0.0.1'): Promise<FakeS
             receivedAt: new Date().toISOString(),
           });
           if (messages.length > MAX_KEPT) messages.shift();
+          if (logFile) fs.appendFileSync(logFile, `${JSON.stringify(messages[messages.length - 1])}\n`);
+          announce?.(messages[messages.length - 1]);
           callback();
         })
         .catch((err: Error) => callback(err));

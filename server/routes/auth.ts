@@ -5,14 +5,17 @@
 import { Router, type Response } from 'express';
 import {
   changePasswordSchema,
+  completeSignUpSchema,
   passwordResetCompleteSchema,
+  SIGN_UP_ACCEPTED,
   passwordResetRequestSchema,
   signInSchema,
   signUpSchema,
   type MeDto,
   type UserDto,
 } from '../../shared/auth';
-import { authenticate, membershipSummaries, signUp } from '../accounts/accounts';
+import { authenticate, membershipSummaries } from '../accounts/accounts';
+import { completeSignUp, requestSignUp } from '../accounts/sign-up';
 import { completePasswordReset, requestPasswordReset } from '../accounts/password-resets';
 import { toUserDto } from '../accounts/users';
 import { changePassword } from '../accounts/change-password';
@@ -32,9 +35,16 @@ export function authRouter(ctx: AppContext): Router {
     return { user: toUserDto(user), memberships: await membershipSummaries(ctx.db, user.id), csrfToken };
   }
 
+  // The same answer whether or not the address has an account; its owner is told by e-mail.
   router.post('/auth/sign-up', limits.signUp, async (req, res) => {
     const input = parseBody(signUpSchema, req.body);
-    const { user } = await signUp(ctx.db, input);
+    await requestSignUp(ctx, input);
+    res.status(202).json({ message: SIGN_UP_ACCEPTED });
+  });
+
+  router.post('/auth/sign-up/complete', limits.resetComplete, async (req, res) => {
+    const { token } = parseBody(completeSignUpSchema, req.body);
+    const { user } = await completeSignUp(ctx.db, token);
     const csrf = await startSession(ctx, res, user.id, req.get('user-agent'));
     res.status(201).json(await me(user, csrf));
   });
@@ -81,7 +91,7 @@ export function authRouter(ctx: AppContext): Router {
 
   router.post('/auth/password-reset/request', ...limits.resetRequest, async (req, res) => {
     const { email } = parseBody(passwordResetRequestSchema, req.body);
-    await requestPasswordReset(ctx, email);
+    requestPasswordReset(ctx, email);
     res.status(202).json({ message: 'If an account uses this e-mail address, a reset link is on its way. It works for 1 hour.' });
   });
 

@@ -3,6 +3,7 @@ import { authBase } from '../auth/middleware';
 import { datasetsApi } from '../datasets/routes/index';
 import type { AppContext } from '../context';
 import { devOutboxRouter } from '../dev/outbox';
+import { fitsRouter } from '../fits/routes';
 import { authRouter } from './auth';
 import { invitationsRouter } from './invitations';
 import { workspacesRouter } from './workspaces';
@@ -19,5 +20,6 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(invitationsRouter(ctx));
   router.use(devOutboxRouter(ctx));
   router.use(datasetsApi(ctx));
+  router.use(fitsRouter(ctx));
   return router;
 }

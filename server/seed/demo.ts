@@ -1,13 +1,15 @@
 /**
  * Seeds the demo workspace (idempotent): the demo account, its workspace, and the invented
- * Harbour Creamery dataset (datasets/demo). Run by `npm start` and `npm run dev` after migrations;
- * skipped when NODE_ENV is production (the server refuses to start with the demo account there).
+ * Harbour Creamery dataset (datasets/demo) with one finished fit (server/fits/demo-fit.ts). Run by
+ * `npm start` and `npm run dev` after migrations; skipped when NODE_ENV is production (the server
+ * refuses to start with the demo account there).
  */
 import { fileURLToPath } from 'node:url';
 import { DEMO_CSV_PATH } from '../../datasets/demo/generate';
 import { ensureUserWithWorkspace } from '../accounts/accounts';
 import { connectDatabase, type Database } from '../db/client';
 import { importDatasetFromFile } from '../datasets/index';
+import { ensureDemoFit } from '../fits/demo-fit';
 import { mayHaveDemo } from '../security/production-checks';
 import { DEMO_ACCOUNT } from './demo-account';
 
@@ -28,6 +30,7 @@ export async function seedDemo(db: Database): Promise<{ workspaceId: string; dat
       'outcomes, 44 numeric candidate predictors of which a handful matter, and three categorical ones.',
     filePath: DEMO_CSV_PATH,
   });
+  await ensureDemoFit(db, { workspaceId, userId, datasetId });
   return { workspaceId, datasetId };
 }
 

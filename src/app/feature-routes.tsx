@@ -1,6 +1,8 @@
 import type { RouteObject } from 'react-router';
 import { accountRoutes } from '@/features/account/routes';
 import { datasetsRoutes } from '@/features/datasets/routes';
+import { fitsRoutes } from '@/features/fits/routes';
+import { modelsRoutes } from '@/features/models/routes';
 
 /**
  * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
@@ -10,5 +12,7 @@ import { datasetsRoutes } from '@/features/datasets/routes';
  */
 export const workspaceFeatureRoutes: RouteObject[] = [
   ...datasetsRoutes,
+  ...modelsRoutes,
+  ...fitsRoutes,
   ...accountRoutes,
 ];

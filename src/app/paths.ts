@@ -7,6 +7,7 @@ export const paths = {
   auth: {
     signIn: { path: '/sign-in', getHref: (redirectTo?: string) => (redirectTo ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in') },
     signUp: { path: '/sign-up', getHref: () => '/sign-up' },
+    finishSignUp: { path: '/sign-up/finish/:token', getHref: (token: string) => `/sign-up/finish/${encodeURIComponent(token)}` },
     forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
     resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
     acceptInvitation: { path: '/invitations/:token', getHref: (token: string) => `/invitations/${encodeURIComponent(token)}` },
@@ -20,6 +21,14 @@ export const paths = {
       getHref: (workspaceId: string, datasetId: string, number: number) => `/w/${workspaceId}/datasets/${datasetId}/versions/${number}`,
     },
     models: { path: '/w/:workspaceId/models', getHref: (workspaceId: string) => `/w/${workspaceId}/models` },
+    newModel: { path: '/w/:workspaceId/models/new', getHref: (workspaceId: string) => `/w/${workspaceId}/models/new` },
+    model: { path: '/w/:workspaceId/models/:modelId', getHref: (workspaceId: string, modelId: string) => `/w/${workspaceId}/models/${modelId}` },
+    runFit: {
+      path: '/w/:workspaceId/models/:modelId/run',
+      /** `from`: a fit whose spec fills the form (the "change and run again" path). */
+      getHref: (workspaceId: string, modelId: string, from?: string) => `/w/${workspaceId}/models/${modelId}/run${from ? `?from=${encodeURIComponent(from)}` : ''}`,
+    },
+    fit: { path: '/w/:workspaceId/fits/:fitId', getHref: (workspaceId: string, fitId: string) => `/w/${workspaceId}/fits/${fitId}` },
     reviews: { path: '/w/:workspaceId/reviews', getHref: (workspaceId: string) => `/w/${workspaceId}/reviews` },
     releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },
     members: { path: '/w/:workspaceId/members', getHref: (workspaceId: string) => `/w/${workspaceId}/members` },

@@ -15,13 +15,13 @@ function WorkspaceIndex() {
 // Pages load on first visit (route `lazy`), so the first download stays small as features grow.
 const signIn = () => import('@/features/auth/components/SignInPage').then((m) => ({ Component: m.SignInPage }));
 const signUp = () => import('@/features/auth/components/SignUpPage').then((m) => ({ Component: m.SignUpPage }));
+const finishSignUp = () => import('@/features/auth/components/FinishSignUpPage').then((m) => ({ Component: m.FinishSignUpPage }));
 const forgotPassword = () => import('@/features/auth/components/ForgotPasswordPage').then((m) => ({ Component: m.ForgotPasswordPage }));
 const resetPassword = () => import('@/features/auth/components/ResetPasswordPage').then((m) => ({ Component: m.ResetPasswordPage }));
 const acceptInvitation = () =>
   import('@/features/members/components/AcceptInvitationPage').then((m) => ({ Component: m.AcceptInvitationPage }));
 const newWorkspace = () => import('@/features/workspaces/components/NewWorkspacePage').then((m) => ({ Component: m.NewWorkspacePage }));
 const members = () => import('@/features/members/components/MembersPage').then((m) => ({ Component: m.MembersPage }));
-const models = () => import('@/features/models/components/ModelsEmptyPage').then((m) => ({ Component: m.ModelsEmptyPage }));
 const reviews = () => import('@/features/reviews/components/ReviewsEmptyPage').then((m) => ({ Component: m.ReviewsEmptyPage }));
 const releases = () => import('@/features/releases/components/ReleasesEmptyPage').then((m) => ({ Component: m.ReleasesEmptyPage }));
 const outbox = () => import('./routes/OutboxRoute').then((m) => ({ Component: m.OutboxRoute }));
@@ -41,6 +41,7 @@ export function createAppRouter() {
             { path: paths.auth.forgotPassword.path, lazy: forgotPassword },
           ],
         },
+        { path: paths.auth.finishSignUp.path, lazy: finishSignUp },
         { path: paths.auth.resetPassword.path, lazy: resetPassword },
         { path: paths.auth.acceptInvitation.path, lazy: acceptInvitation },
         {
@@ -53,7 +54,6 @@ export function createAppRouter() {
               children: [
                 { index: true, element: <WorkspaceIndex /> },
                 ...workspaceFeatureRoutes,
-                { path: paths.workspace.models.path, lazy: models },
                 { path: paths.workspace.reviews.path, lazy: reviews },
                 { path: paths.workspace.releases.path, lazy: releases },
                 { path: paths.workspace.members.path, lazy: members },

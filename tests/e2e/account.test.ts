@@ -64,3 +64,15 @@ describe('account page', () => {
     await fresh.waitForURL(/\/w\/[^/]+\/datasets$/);
   });
 });
+
+describe('finishing a sign-up', () => {
+  it('asks for one click, and explains a link that is not valid', async () => {
+    const visitor = await (await newContext(browser)).newPage();
+    await visitor.goto('/sign-up/finish/not-a-real-token-at-all');
+    await expectVisible(visitor.getByRole('heading', { name: 'Finish creating your account' }));
+    await checkA11y(visitor, 'finish sign-up page');
+    await visitor.getByRole('button', { name: 'Create my account' }).click();
+    await expectVisible(visitor.getByText('This sign-up link is not valid.', { exact: false }));
+    await checkA11y(visitor, 'finish sign-up page with an error');
+  });
+});

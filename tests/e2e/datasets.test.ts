@@ -103,4 +103,20 @@ describe('datasets in the browser', () => {
     await expectVisible(page.getByRole('link', { name: 'Open the imported copy' }), 30_000);
     await expectVisible(page.getByRole('link', { name: 'Diabetes progression (442 patients)' }));
   });
+
+  it('uploads a file of space-separated columns without a header row, and the parse report says so', async () => {
+    await page.goto(`/w/${workspaceId}/datasets`);
+    const rows = Array.from({ length: 30 }, (_, i) => `   ${(i * 0.5).toFixed(4)}   ${(30 - i).toFixed(4)}  ${i % 2}`);
+    await chooseFile('measures.dat', Buffer.from(`${rows.join('\n')}\n`));
+    await page.getByLabel('Dataset name').fill('Measures');
+    await page.getByLabel('The first row is data, not column names').check();
+    await page.getByRole('button', { name: 'Upload' }).click();
+    await page.waitForURL(/\/datasets\/[^/]+\/versions\/1$/, { timeout: 60_000 });
+    await expectVisible(page.getByRole('heading', { name: 'Measures, version 1' }));
+    await expectVisible(page.locator('[data-column="column_1"]'));
+    await expectVisible(page.locator('[data-column="column_3"]'));
+    expect(await page.getByTestId('parse-report-first-row').textContent()).toBe('First row: data (columns named column_1, column_2, ...).');
+    await expectVisible(page.getByText('Delimiter: runs of spaces or tabs (detected).'));
+    await expectVisible(page.getByText(/30 rows, 3 columns/));
+  });
 });

@@ -6,6 +6,8 @@ import type { AppContext } from '../../server/context';
 import { connectDatabase } from '../../server/db/client';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { createMailer } from '../../server/mail/mailer';
+import { startQueue } from '../../server/queue/queue';
+import { startWorkers } from '../../server/queue/workers';
 import { createTestDatabase } from './databases';
 
 export interface TestApp {
@@ -13,6 +15,15 @@ export interface TestApp {
   ctx: AppContext;
   mail: FakeSmtp;
   close(): Promise<void>;
+}
+
+const byApp = new WeakMap<express.Express, TestApp>();
+
+/** The TestApp of an Express app made by startTestApp (helpers that get only `app` read its mail through it). */
+export function testAppOf(app: express.Express): TestApp {
+  const found = byApp.get(app);
+  if (!found) throw new Error('This Express app was not made by startTestApp');
+  return found;
 }
 
 export async function startTestApp(env: Record<string, string> = {}): Promise<TestApp> {
@@ -28,21 +39,29 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     ...env,
   });
   const handle = connectDatabase(database.url, 4);
+  const queue = await startQueue(database.url, { max: 2 });
   const ctx: AppContext = {
     config,
     db: handle.db,
     sendMail: createMailer(`smtp://127.0.0.1:${mail.port}`, config.LARIAT_MAIL_FROM),
     devMailbox: mail,
+    queue,
   };
+  await startWorkers(ctx);
   const app = createApp(ctx);
-  return {
+  const testApp: TestApp = {
     app,
     ctx,
     mail,
     async close() {
+      // Work queued after a response (e-mails after a sign-up) finishes before the database goes.
+      await new Promise((r) => setTimeout(r, 50));
+      await queue.stop();
       await handle.close();
       await mail.close();
       await database.drop();
     },
   };
+  byApp.set(app, testApp);
+  return testApp;
 }

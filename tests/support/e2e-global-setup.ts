@@ -1,11 +1,12 @@
 /**
  * Once per e2e run: a fresh database copied from the migrated template, the real server
  * (`npx tsx server/main.ts`, NODE_ENV=test, serving dist/client) on a free port with its fake SMTP
- * server, and the base URL handed to the test files through `inject('baseUrl')`.
+ * server, one fit worker (`npx tsx server/worker/main.ts`), and the base URL handed to the test files through `inject('baseUrl')`.
  */
 import { execSync, spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import net from 'node:net';
+import path from 'node:path';
 import pg from 'pg';
 import type { TestProject } from 'vitest/node';
 import { applyMigrations } from '../../server/db/migrate';
@@ -14,6 +15,8 @@ import { TEMPLATE_DB, adminQuery, adminUrl, createTestDatabase, urlFor } from '.
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
+    /** JSON lines of every e-mail the server's fake SMTP server captured (e2e-flows.ts mailTo). */
+    mailLog: string;
   }
 }
 
@@ -88,6 +91,9 @@ export default async function setup(project: TestProject): Promise<() => Promise
   const database = await createTestDatabase();
 
   const [port, smtpPort] = [await freePort(), await freePort()];
+  const stateDir = `.lariat/test-state/${database.name}`;
+  fs.mkdirSync(stateDir, { recursive: true });
+  const mailLog = path.resolve(stateDir, 'mail.jsonl');
   const baseUrl = `http://127.0.0.1:${port}`;
   let log = '';
   const server = spawn('npx', ['tsx', 'server/main.ts'], {
@@ -106,7 +112,8 @@ export default async function setup(project: TestProject): Promise<() => Promise
       LARIAT_DEV_OUTBOX: '1',
       // Every test file signs up from 127.0.0.1: real limits are tested in tests/api/security.
       LARIAT_RATE_LIMIT_FACTOR: '100',
-      LARIAT_STATE_DIR: `.lariat/test-state/${database.name}`,
+      LARIAT_STATE_DIR: stateDir,
+      LARIAT_FAKE_SMTP_LOG: mailLog,
     },
   });
   const keep = (chunk: Buffer) => {
@@ -114,17 +121,28 @@ export default async function setup(project: TestProject): Promise<() => Promise
   };
   server.stdout?.on('data', keep);
   server.stderr?.on('data', keep);
+  // One fit worker beside the server, as `npm start` runs it.
+  const worker = spawn('npx', ['tsx', 'server/worker/main.ts'], {
+    detached: true,
+    stdio: ['ignore', 'pipe', 'pipe'],
+    env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: database.url, LARIAT_QUEUE_POLL_MS: '250', LARIAT_WORKER_NAME: 'e2e-worker' },
+  });
+  worker.stdout?.on('data', keep);
+  worker.stderr?.on('data', keep);
 
   try {
     await waitForHealth(baseUrl, server, () => log);
   } catch (error) {
+    await stopServer(worker);
     await stopServer(server);
     await database.drop();
     throw error;
   }
   project.provide('baseUrl', baseUrl);
+  project.provide('mailLog', mailLog);
 
   return async () => {
+    await stopServer(worker);
     await stopServer(server);
     if (process.env.LARIAT_E2E_SERVER_LOG) console.log(log);
     await database.drop();

@@ -2,20 +2,22 @@
  * Signed-in sessions for API tests.
  *
  *   const t = await startTestApp();
- *   const alice = await signUp(t.app);                       // admin of a new workspace
+ *   const alice = await signUp(t.app);                       // admin of a new workspace (follows the e-mailed link)
  *   await withCsrf(alice.agent.post(`/api/workspaces/${alice.workspaceId}/...`), alice.csrf).send({...});
  *   const bob = await inviteAndJoin(t, alice, 'bob@example.test', 'viewer');
  *
  * `agent` keeps the session cookie; state-changing requests also need the CSRF header (`withCsrf`).
  */
 import { randomBytes } from 'node:crypto';
+import { eq } from 'drizzle-orm';
 import type express from 'express';
 import request from 'supertest';
 import type { Test } from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import type { MeDto } from '../../shared/auth';
 import type { WorkspaceRole } from '../../shared/members';
-import type { TestApp } from './app';
+import { invitations } from '../../server/db/schema/auth';
+import { testAppOf, type TestApp } from './app';
 
 export const TEST_PASSWORD = 'correct horse battery staple';
 
@@ -54,9 +56,15 @@ export async function signUp(
   const email = opts.email ?? uniqueEmail();
   const password = opts.password ?? TEST_PASSWORD;
   const body = { email, password, name: opts.name ?? 'Test Person', ...(opts.workspaceName ? { workspaceName: opts.workspaceName } : {}) };
+  const testApp = testAppOf(app);
+  const before = lastMailId(testApp);
   const res = await agent.post('/api/auth/sign-up').send(body);
-  if (res.status !== 201) fail(`Sign-up of ${email}`, res);
-  const me = res.body as MeDto;
+  if (res.status !== 202) fail(`Sign-up of ${email}`, res);
+  // The account exists once the e-mailed link is used (server/accounts/sign-up.ts).
+  const mail = await newMail(testApp, email, /Finish creating/, before);
+  const done = await agent.post('/api/auth/sign-up/complete').send({ token: tokenFromMail(mail.text, 'sign-up/finish') });
+  if (done.status !== 201) fail(`Finishing the sign-up of ${email}`, done);
+  const me = done.body as MeDto;
   return { agent, userId: me.user.id, email: me.user.email, password, workspaceId: me.memberships[0].workspaceId, csrf: me.csrfToken };
 }
 
@@ -70,7 +78,7 @@ export async function signIn(app: express.Express, email: string, password = TES
 }
 
 /** Pulls the token out of a link like `${publicUrl}/invitations/<token>` in a captured e-mail. */
-export function tokenFromMail(text: string, kind: 'invitations' | 'reset-password'): string {
+export function tokenFromMail(text: string, kind: 'invitations' | 'reset-password' | 'sign-up/finish'): string {
   const match = new RegExp(`/${kind}/([A-Za-z0-9_-]+)`).exec(text);
   if (!match) throw new Error(`No /${kind}/<token> link in the e-mail:\n${text}`);
   return match[1];
@@ -85,6 +93,7 @@ export async function inviteAndJoin(testApp: TestApp, admin: Session, email: str
   const invited = await withCsrf(admin.agent.post(`/api/workspaces/${admin.workspaceId}/invitations`), admin.csrf).send({ email, role });
   if (invited.status !== 201) fail(`Inviting ${email}`, invited);
   const mail = await newMail(testApp, email, /invited you/, before);
+  await invitationMailed(testApp, (invited.body as { id: string }).id);
   const token = tokenFromMail(mail.text, 'invitations');
   const agent = request.agent(testApp.app);
   const accepted = await agent.post(`/api/invitations/${token}/accept`).send({ name, password: TEST_PASSWORD });
@@ -101,6 +110,20 @@ export async function newMail(testApp: TestApp, to: string, subject: RegExp, aft
     const found = testApp.mail.messages.find((m) => m.id > afterId && m.to.includes(wanted) && subject.test(m.subject));
     if (found) return found;
     if (Date.now() > deadline) throw new Error(`No new e-mail to ${to} matching ${subject} within 10 s`);
+    await new Promise((r) => setTimeout(r, 25));
+  }
+}
+
+/**
+ * Waits until the queued job has finished with an invitation (its e-mail is sent and older pending
+ * invitations to the address are ended): the e-mail lands a moment before that.
+ */
+export async function invitationMailed(testApp: TestApp, invitationId: string): Promise<void> {
+  const deadline = Date.now() + 10_000;
+  for (;;) {
+    const [row] = await testApp.ctx.db.select({ mailedAt: invitations.mailedAt }).from(invitations).where(eq(invitations.id, invitationId));
+    if (row?.mailedAt) return;
+    if (Date.now() > deadline) throw new Error(`Invitation ${invitationId} was not mailed within 10 s`);
     await new Promise((r) => setTimeout(r, 25));
   }
 }

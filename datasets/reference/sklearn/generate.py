@@ -143,7 +143,7 @@ def gaussian_fixture():
             for mix in (1.0, 0.5):
                 cases.append(gaussian_case(name, terms, X, y, standardized, mix))
     return {
-        "source": "scikit-learn ElasticNet (coordinate descent), an outside reference (shared REFERENCES.md section 3)",
+        "source": "scikit-learn ElasticNet (coordinate descent), an outside reference (Debian python3-sklearn; docs/engine.md, section Outside references in the tests)",
         "generator": "datasets/reference/sklearn/generate.py",
         "versions": versions(),
         "objective": "1/(2n) ||y - b0 - Xw||^2 + lambda (alpha ||w||_1 + (1 - alpha)/2 ||w||^2); lambda = sklearn alpha, alpha = l1_ratio",
@@ -212,7 +212,7 @@ def logistic_fixture():
             "interceptOriginal": [b0 - float(mean @ (np.array(w) / sd)) for b0, w in zip(out["intercept"], out["coef"])],
         })
     return {
-        "source": "scikit-learn LogisticRegression with solver='saga', an outside reference (shared REFERENCES.md section 3)",
+        "source": "scikit-learn LogisticRegression with solver='saga', an outside reference (Debian python3-sklearn; docs/engine.md, section Outside references in the tests)",
         "generator": "datasets/reference/sklearn/generate.py",
         "versions": versions(),
         "objective": "-(1/n) sum [y eta - log(1 + exp(eta))] + lambda (alpha ||w||_1 + (1 - alpha)/2 ||w||^2); lambda = 1/(C n), alpha = l1_ratio",

@@ -16,6 +16,8 @@ export interface CollectOptions {
   columnLimit: number;
   spillPath: string;
   missing: MissingTest;
+  /** The uploader said the file has no header row: the first row is data, columns are column_1, ... */
+  firstRowIsData?: boolean;
 }
 
 export class RowCollector {
@@ -36,11 +38,22 @@ export class RowCollector {
 
   constructor(private readonly opts: CollectOptions) {}
 
+  get firstRowIsData(): boolean {
+    return this.opts.firstRowIsData === true;
+  }
+
+  /** How messages number rows: from the header, or from the first line when there is none. */
+  get rowNote(): string {
+    return this.firstRowIsData ? '(the first line is row 1)' : '(the header is row 1)';
+  }
+
+  /** The first line: the header row, or (no header) the row that sets the number of columns; the caller then admits it as data. */
   setHeader(raw: string[]): void {
-    this.fileRows++;
-    const header = checkHeader(raw, this.opts.fileName, this.opts.columnLimit);
+    if (!this.firstRowIsData) this.fileRows++;
+    const names = this.firstRowIsData ? raw.map((_, j) => `column_${j + 1}`) : raw;
+    const header = checkHeader(names, this.opts.fileName, this.opts.columnLimit);
     this.header = header;
-    this.profiles = header.map((h) => new ColumnProfile(h));
+    this.profiles = header.map((h) => new ColumnProfile(h, this.firstRowIsData ? 0 : 1));
     this.spill = new ColumnSpill(this.opts.spillPath, header.length, this.opts.missing);
     this.batchRows = Math.max(256, Math.floor(400_000 / header.length));
     this.numbers = header.map(() => new Float64Array(this.batchRows));
@@ -96,9 +109,10 @@ export class RowCollector {
     const width = this.header?.length ?? 0;
     const ragged = this.ragged;
     const more = ragged.length >= RAGGED_REPORTED ? ' and possibly more' : '';
-    const rows = ragged.length === 1 ? `row ${ragged[0]} (the header is row 1) does` : `rows ${ragged.join(', ')}${more} (the header is row 1) do`;
+    const rows = ragged.length === 1 ? `row ${ragged[0]} ${this.rowNote} does` : `rows ${ragged.join(', ')}${more} ${this.rowNote} do`;
+    const like = this.firstRowIsData ? 'the first row' : 'the header';
     return new FileProblem(
-      `${this.opts.fileName}: ${rows} not have ${width} fields like the header. ` + 'Check for unquoted delimiters inside values or missing fields.',
+      `${this.opts.fileName}: ${rows} not have ${width} fields like ${like}. ` + 'Check for unquoted delimiters inside values or missing fields.',
     );
   }
 }

@@ -41,7 +41,8 @@ export function inferColumn(p: ColumnProfile): Inference {
     const few = distinct !== null && distinct <= 5 && n > 20 ? ` Only ${distinct} distinct values: you may prefer to treat them as categories.` : '';
     return { type: 'numeric', storage: 'float64', excluded: false, reason: `Every value is a number.${few}` };
   }
-  const text = p.firstText ? `"${p.firstText.value}" in row ${p.firstText.row + 1} (the header is row 1) is not a number` : 'not all values are numbers';
+  const note = p.lineOffset === 1 ? '(the header is row 1)' : '(the first line is row 1)';
+  const text = p.firstText ? `"${p.firstText.value}" in row ${p.firstText.row + p.lineOffset} ${note} is not a number` : 'not all values are numbers';
   if (distinct === 2) {
     return { type: 'binary', storage: 'codes', excluded: false, reason: `Exactly two distinct values (${examples(p)}).` };
   }

@@ -9,14 +9,16 @@ import fs from 'node:fs';
 import type { ParseReport } from '../../../shared/datasets';
 import { RowCollector } from './collect';
 import { FileProblem } from './errors';
+import { checkFirstLine } from './first-line';
 import { missingTest, type MissingTest } from './missing';
 import type { ColumnProfile } from './profile';
 import { isQuoteFree, readQuoteFree } from './read-fast';
 import { readWithPapaparse } from './read-papa';
 import { detectDelimiter, detectLineEndings } from './sniff';
 import type { ColumnSpill } from './spill';
+import { readWhitespace, WHITESPACE } from './whitespace';
 
-export type Reader = 'quote-free' | 'papaparse';
+export type Reader = 'quote-free' | 'papaparse' | 'whitespace';
 
 export interface ParseFileOptions {
   filePath: string;
@@ -28,6 +30,8 @@ export interface ParseFileOptions {
   onProgress?: (bytesRead: number, rowsParsed: number) => void;
   /** Force a reader (tests compare them); by default the quote-free one whenever the file allows. */
   reader?: Reader;
+  /** False when the uploader says the first row is data (columns are then named column_1, ...). */
+  headerRow?: boolean;
 }
 
 export interface ParsedFile {
@@ -42,6 +46,7 @@ export interface ParsedFile {
   /** The caller must close it (it deletes its temporary file). */
   spill: ColumnSpill;
   reader: Reader;
+  headerRow: boolean;
 }
 
 const SAMPLE_BYTES = 64 * 1024;
@@ -64,11 +69,16 @@ export async function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> 
   const sample = readSample(filePath);
   const delimiter = detectDelimiter(sample, fileName);
   const missing = missingTest(opts.missingMarkers);
-  const c = new RowCollector({ fileName, columnLimit: opts.columnLimit, spillPath: opts.spillPath, missing });
+  const headerRow = opts.headerRow !== false;
+  await checkFirstLine(filePath, fileName, delimiter, opts.columnLimit);
+  const c = new RowCollector({ fileName, columnLimit: opts.columnLimit, spillPath: opts.spillPath, missing, firstRowIsData: !headerRow });
   try {
-    const reader = opts.reader ?? ((await isQuoteFree(filePath)) ? 'quote-free' : 'papaparse');
-    const read = reader === 'quote-free' ? readQuoteFree : readWithPapaparse;
-    const { byteOrderMark } = await read(filePath, fileName, delimiter, c, missing, opts.onProgress);
+    const whitespace = delimiter === WHITESPACE;
+    const reader = whitespace ? 'whitespace' : (opts.reader ?? ((await isQuoteFree(filePath)) ? 'quote-free' : 'papaparse'));
+    const { byteOrderMark } =
+      reader === 'whitespace'
+        ? await readWhitespace(filePath, fileName, c, missing, opts.onProgress)
+        : await (reader === 'quote-free' ? readQuoteFree : readWithPapaparse)(filePath, fileName, delimiter, c, missing, opts.onProgress);
     return {
       header: c.header!,
       rowCount: c.rowCount,
@@ -80,6 +90,7 @@ export async function parseCsvFile(opts: ParseFileOptions): Promise<ParsedFile> 
       missing,
       spill: c.spill!,
       reader,
+      headerRow,
     };
   } catch (error) {
     c.close();

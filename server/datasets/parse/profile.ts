@@ -24,7 +24,14 @@ export class ColumnProfile {
   private numbers = new Map<number, number>();
   overflow = false;
 
-  constructor(readonly name: string) {}
+  /**
+   * `lineOffset`: the file line of data row r is r + lineOffset (1 below a header row, 0 when the
+   * first row is data), for messages that name the row.
+   */
+  constructor(
+    readonly name: string,
+    readonly lineOffset = 1,
+  ) {}
 
   /** `row` is the 1-based data row (the header is row 0 here; reports add 1). */
   /** Returns the cell's number (NaN when missing or not a number), so callers need not parse it again. */

@@ -82,7 +82,8 @@ class LineReader {
       const end = nl < 0 ? view.length : nl;
       c.setHeader(this.text(view, start, end).split(this.delimiterText));
       this.allocate(c.header!.length, c.batchRows);
-      return end + 1;
+      if (!c.firstRowIsData) return end + 1;
+      // No header row: the same line is also the first data row.
     }
     const p = this.p;
     let fields = 0;
@@ -176,24 +177,33 @@ export async function readQuoteFree(
   const check = new Utf8Check(fileName);
   const reader = new LineReader(c, missing, delimiter, filePath);
   let carry: Buffer = EMPTY;
+  // Chunks of a line longer than a chunk, joined once when its newline arrives: concatenating the
+  // carry with every chunk would copy a long line over and over.
+  let waiting: Buffer[] = [];
+  let waitingBytes = 0;
   let emitted = -1; // file offset where the next checked bytes start (after a byte-order mark)
   for await (const chunk of fs.createReadStream(filePath, { highWaterMark: 1 << 20 }) as AsyncIterable<Buffer>) {
     const got = check.accept(chunk);
     if (emitted < 0) emitted = check.byteOrderMark ? 3 : 0;
-    const buf = carry.length > 0 ? Buffer.concat([carry, got]) : got;
-    const bufStart = emitted - carry.length;
-    emitted += got.length;
-    const lastNewline = buf.lastIndexOf(NEWLINE);
-    if (lastNewline < 0) {
-      carry = buf;
+    if (got.indexOf(NEWLINE) < 0) {
+      waiting.push(got);
+      waitingBytes += got.length;
+      emitted += got.length;
       continue;
     }
+    const buf = carry.length + waitingBytes > 0 ? Buffer.concat([carry, ...waiting, got]) : got;
+    const bufStart = emitted - waitingBytes - carry.length;
+    waiting = [];
+    waitingBytes = 0;
+    emitted += got.length;
+    const lastNewline = buf.lastIndexOf(NEWLINE);
     reader.lines(buf.subarray(0, lastNewline + 1), bufStart, false);
     carry = buf.subarray(lastNewline + 1);
     c.checkRagged();
     onProgress?.(check.bytes, c.rowCount);
   }
   const rest = check.finish();
+  if (waitingBytes > 0) carry = Buffer.concat([carry, ...waiting]);
   reader.lines(rest.length > 0 ? Buffer.concat([carry, rest]) : carry, emitted - carry.length, true);
   reader.finish();
   return { byteOrderMark: check.byteOrderMark };

@@ -39,7 +39,10 @@ export function readWithPapaparse(
     const cells = (j: number) => batch.map((row) => row[j]);
 
     const onRow = (row: string[]) => {
-      if (c.header === null) return c.setHeader(row);
+      if (c.header === null) {
+        c.setHeader(row);
+        if (!c.firstRowIsData) return;
+      }
       if (!c.admit(row.length, () => row[0].trim() === '')) return;
       const at = c.inBatch++;
       for (let j = 0; j < row.length; j++) c.numbers[j][at] = c.profiles[j].add(row[j], c.rowCount, missing);
@@ -59,7 +62,7 @@ export function readWithPapaparse(
           if (quote) {
             const row = c.fileRows + (quote.row ?? 0) + 1;
             const what = quote.code === 'MissingQuotes' ? 'a quoted field is never closed (a " is missing)' : 'a closing quote is followed by other characters';
-            throw new FileProblem(`${fileName}, row ${row} (the header is row 1): ${what}.`);
+            throw new FileProblem(`${fileName}, row ${row} ${c.rowNote}: ${what}.`);
           }
           for (const row of results.data) onRow(row);
           c.checkRagged();

@@ -8,12 +8,13 @@ import { changeColumnSettings } from '../service/column-settings';
 import { deleteDataset, getDataset, getVersion, listDatasets, requireVersion } from '../service/datasets';
 import { prepareCleanedCsv } from '../service/export';
 import { originalChunks } from '../service/original';
+import { IngestBusy, RETRY_AFTER_SECONDS, type IngestGate } from '../service/ingest-gate';
 import { importOpenDataset, listOpenDatasets } from '../service/open-datasets';
 import { previewRows } from '../service/preview';
 import { contentDisposition, datasetIdParam, intQuery, versionParam } from './params';
 import { sendStream } from './send-stream';
 
-export function datasetsRouter(ctx: AppContext): Router {
+export function datasetsRouter(ctx: AppContext, gate: IngestGate): Router {
   const router = Router();
   const editor = requireWorkspaceRole('admin', 'analyst');
   const base = '/workspaces/:workspaceId/datasets';
@@ -71,7 +72,16 @@ export function datasetsRouter(ctx: AppContext): Router {
   });
 
   router.post('/workspaces/:workspaceId/open-datasets/:key/import', editor, async (req, res) => {
-    const result = await importOpenDataset(ctx.db, workspaceMembership(req).workspaceId, sessionUser(req).id, String(req.params.key));
+    const release = await gate.enter().catch((error: unknown) => {
+      if (error instanceof IngestBusy) res.set('Retry-After', String(RETRY_AFTER_SECONDS));
+      throw error;
+    });
+    let result;
+    try {
+      result = await importOpenDataset(ctx.db, workspaceMembership(req).workspaceId, sessionUser(req).id, String(req.params.key));
+    } finally {
+      release();
+    }
     res.status(result.duplicate ? 200 : 201).json(result);
   });
 

@@ -7,7 +7,7 @@
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type { Response } from 'express';
-import { logUnexpected } from '../service/ingest-errors';
+import { reportUnexpected } from '../../http/unexpected';
 
 let open = 0;
 
@@ -22,7 +22,7 @@ export async function sendStream(res: Response, body: AsyncIterable<string | Buf
   } catch (error) {
     // The client closing the connection is not a fault; anything else is logged (the status line is
     // already sent, so the connection is cut short, which the client sees as a failed download).
-    if ((error as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') logUnexpected('download', error);
+    if ((error as NodeJS.ErrnoException).code !== 'ERR_STREAM_PREMATURE_CLOSE') reportUnexpected(error, 'download');
   } finally {
     open--;
   }

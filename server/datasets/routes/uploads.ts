@@ -14,11 +14,12 @@ import type { AppContext } from '../../context';
 import { fromZod, HttpError, notFound } from '../../http/errors';
 import { ingestFile } from '../service/ingest';
 import { publicIngestFailure } from '../service/ingest-errors';
+import { IngestBusy, RETRY_AFTER_SECONDS, type IngestGate } from '../service/ingest-gate';
 import { sweepIngestLeftovers } from '../service/leftovers';
 import { readProgress, startProgress } from '../service/progress';
 import { ClientGone, receiveUpload } from './receive-upload';
 
-export function uploadsRouter(ctx: AppContext): Router {
+export function uploadsRouter(ctx: AppContext, gate: IngestGate): Router {
   const router = Router();
   const tempDir = path.resolve(ctx.config.LARIAT_STATE_DIR, 'ingest');
   const limitBytes = Math.floor(ctx.config.LARIAT_UPLOAD_LIMIT_MB * 1024 * 1024);
@@ -30,11 +31,14 @@ export function uploadsRouter(ctx: AppContext): Router {
     if (!ingest.success) throw fromZod(ingest.error, 'ingest');
     const progress = startProgress(ingest.data, workspaceId);
     let filePath: string | null = null;
+    let release: (() => void) | null = null;
     try {
+      if (gate.full()) throw new IngestBusy(); // before the transfer, which would be wasted
       const upload = await receiveUpload(req, { limitBytes, tempDir, onBytes: (b) => progress.receiving(b) });
       filePath = upload.filePath;
       const fields = uploadFieldsSchema.safeParse(upload.fields);
       if (!fields.success) throw fromZod(fields.error, 'fields');
+      release = await gate.enter(() => progress.phase('queued', 0));
       const result = await ingestFile(ctx.db, {
         workspaceId,
         userId: sessionUser(req).id,
@@ -47,6 +51,7 @@ export function uploadsRouter(ctx: AppContext): Router {
         sizeBytes: upload.sizeBytes,
         missingMarkers: parseMissingMarkers(fields.data.missing),
         columnLimit: ctx.config.LARIAT_COLUMN_LIMIT,
+        headerRow: fields.data.headerRow !== 'no',
         tempDir,
         progress,
       });
@@ -60,9 +65,11 @@ export function uploadsRouter(ctx: AppContext): Router {
       // Only Lariat's own messages reach the uploader and the progress entry (ingest-errors.ts).
       const failure = publicIngestFailure(error);
       progress.fail(failure.message);
-      if (failure.status === 413) res.set('Connection', 'close'); // stop receiving the rest
+      if (failure.status === 413 || failure.status === 429) res.set('Connection', 'close'); // stop receiving the rest
+      if (failure.status === 429) res.set('Retry-After', String(RETRY_AFTER_SECONDS));
       throw new HttpError(failure.status, failure.message, failure.field);
     } finally {
+      release?.();
       if (filePath) fs.rm(filePath, { force: true }, () => undefined);
     }
   });

@@ -2,7 +2,7 @@
 import type { ColumnSchema, ColumnType, ParseReport } from '../../../shared/datasets';
 import { COLUMN_TYPE_LABELS } from '../../../shared/datasets';
 import type { Inference } from '../parse/infer';
-import type { MissingTest } from '../parse/missing';
+import { DECIMAL, type MissingTest } from '../parse/missing';
 import type { ParsedFile } from '../parse/parse-file';
 import type { ColumnSpill } from '../parse/spill';
 import { describeDelimiter } from '../parse/sniff';
@@ -50,6 +50,11 @@ export function columnSchema(stored: StoredColumn, position: number, inference: 
 
 export function buildReport(parsed: ParsedFile, fileName: string, inferences: Inference[]): ParseReport {
   const notes: string[] = [`Delimiter: ${describeDelimiter(parsed.delimiter)} (detected).`];
+  if (!parsed.headerRow) {
+    notes.push(`The first row was read as data, as the uploader chose: the columns are named column_1 to column_${parsed.header.length}.`);
+  } else if (parsed.header.every((h) => DECIMAL.test(h))) {
+    notes.push('Every name in the first row is a number: if that row is data, upload the file again saying that the first row is data.');
+  }
   if (parsed.byteOrderMark) notes.push('A UTF-8 byte-order mark at the start of the file was removed.');
   if (parsed.blankLinesSkipped > 0) notes.push(`${parsed.blankLinesSkipped} blank line(s) were skipped.`);
   const counts = new Map<string, number>();
@@ -69,6 +74,7 @@ export function buildReport(parsed: ParsedFile, fileName: string, inferences: In
   return {
     fileName,
     delimiter: parsed.delimiter,
+    headerRow: parsed.headerRow,
     encoding: 'utf-8',
     byteOrderMark: parsed.byteOrderMark,
     lineEndings: parsed.lineEndings,

@@ -36,6 +36,8 @@ export interface IngestRequest {
   sizeBytes: number;
   missingMarkers: string[];
   columnLimit: number;
+  /** False: the first row is data (columns named column_1, ...); default true. */
+  headerRow?: boolean;
   tempDir: string;
   progress?: Pick<ProgressHandle, 'phase'>;
 }
@@ -88,6 +90,7 @@ export async function ingestFile(db: Database, req: IngestRequest): Promise<Uplo
       fileName: req.fileName,
       missingMarkers: req.missingMarkers,
       columnLimit: req.columnLimit,
+      headerRow: req.headerRow,
       spillPath: path.join(req.tempDir, `${randomUUID()}.columns`),
     },
     req.sizeBytes,

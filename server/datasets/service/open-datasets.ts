@@ -1,6 +1,7 @@
 /**
  * The bundled open datasets (datasets/open/, provenance in its SOURCES.md), importable into any
- * workspace in one click. The citation shown is copied from SOURCES.md.
+ * workspace in one click. The card cites the original publication and data repository; how the
+ * files were obtained (the copying route) is recorded only in datasets/open/SOURCES.md.
  */
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -22,8 +23,8 @@ export const OPEN_DATASETS: OpenEntry[] = [
     description:
       'Ten baseline measurements (age, sex, body mass index, blood pressure, six blood serum values) and a measure of disease progression one year later. Raw, unscaled values; sex is coded 1/2.',
     citation:
-      'Bradley Efron, Trevor Hastie, Iain Johnstone and Robert Tibshirani (2004), "Least Angle Regression", Annals of Statistics 32(2), 407-499. Copied from scikit-learn 1.2.1 as packaged by Debian 12.',
-    licence: 'BSD-3-Clause (as shipped in scikit-learn); see datasets/open/SOURCES.md.',
+      'Bradley Efron, Trevor Hastie, Iain Johnstone and Robert Tibshirani (2004), "Least Angle Regression", Annals of Statistics 32(2), 407-499, doi:10.1214/009053604000000067. Data page: https://www4.stat.ncsu.edu/~boos/var.select/diabetes.html',
+    licence: 'No licence is stated by the authors or on the data page.',
   },
   {
     key: 'breast-cancer',
@@ -32,8 +33,8 @@ export const OPEN_DATASETS: OpenEntry[] = [
     description:
       'Thirty measurements of cell nuclei from images of breast masses, and the diagnosis: 0 = malignant (212), 1 = benign (357). Suited to logistic models.',
     citation:
-      'W. N. Street, W. H. Wolberg and O. L. Mangasarian (1993), "Nuclear feature extraction for breast tumor diagnosis", IS&T/SPIE Electronic Imaging, vol. 1905, 861-870. UCI Machine Learning Repository, "Breast Cancer Wisconsin (Diagnostic)". Copied from scikit-learn 1.2.1 as packaged by Debian 12.',
-    licence: 'BSD-3-Clause (as shipped in scikit-learn); UCI lists CC BY 4.0; see datasets/open/SOURCES.md.',
+      'W. N. Street, W. H. Wolberg and O. L. Mangasarian (1993), "Nuclear feature extraction for breast tumor diagnosis", IS&T/SPIE Electronic Imaging, vol. 1905, 861-870. Data: W. H. Wolberg, W. N. Street and O. L. Mangasarian (1995), "Breast Cancer Wisconsin (Diagnostic)", UCI Machine Learning Repository, https://archive.ics.uci.edu/ml/datasets/breast+cancer+wisconsin+(diagnostic)',
+    licence: 'Creative Commons Attribution 4.0 (CC BY 4.0), as the UCI Machine Learning Repository lists it.',
   },
 ];
 

@@ -9,6 +9,8 @@ export interface ParseJob {
   missingMarkers: string[];
   columnLimit: number;
   spillPath: string;
+  /** False: the uploader says the first row is data, not column names. */
+  headerRow?: boolean;
 }
 
 export type ToWorker = { type: 'parse'; job: ParseJob } | { type: 'column'; j: number } | { type: 'close' };

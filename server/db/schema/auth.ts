@@ -74,6 +74,8 @@ export const invitations = pgTable(
     acceptedAt: timestamp('accepted_at', { withTimezone: true }),
     acceptedBy: uuid('accepted_by').references(() => users.id, { onDelete: 'set null' }),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    /** When its e-mail went out (sent by a queued job); older invitations to the address end then. */
+    mailedAt: timestamp('mailed_at', { withTimezone: true }),
   },
   (t) => [index('invitations_workspace_idx').on(t.workspaceId)],
 );
@@ -83,6 +85,22 @@ export const passwordResets = pgTable('password_resets', {
   userId: uuid('user_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull().unique(),
+  createdAt: createdAt(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+});
+
+/**
+ * A sign-up waiting for its e-mailed link (decision 10): the account exists only once the link is
+ * used, so the sign-up answer is the same whether or not the address already has an account.
+ */
+export const signUpRequests = pgTable('sign_up_requests', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  email: text('email').notNull(),
+  name: text('name').notNull(),
+  workspaceName: text('workspace_name'),
+  passwordHash: text('password_hash').notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   createdAt: createdAt(),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),

@@ -13,7 +13,7 @@ export interface StandardizedDesign {
 
 /**
  * Centres every column on the rows given and, when `standardize`, divides it by its population
- * standard deviation, so the penalty applies to standardized coefficients (DESIGN.md). Centring is
+ * standard deviation, so the penalty applies to standardized coefficients (docs/engine.md, "Standardization"). Centring is
  * done either way: it makes the gaussian intercept closed-form and the fit better conditioned, and
  * does not change the penalized coefficients. A column with equal values everywhere is constant:
  * its coefficient stays 0.

@@ -1,5 +1,5 @@
 /**
- * Summaries of per-fold losses and the two lambda choices of ../shared/DESIGN.md: the minimum of
+ * Summaries of per-fold losses and the two lambda choices of docs/engine.md ("Cross-validation"): the minimum of
  * the CV curve and the one-standard-error rule (Breiman, Friedman, Olshen & Stone 1984, CART,
  * section 3.4.3; Hastie, Tibshirani & Friedman 2009, ESL section 7.10).
  */

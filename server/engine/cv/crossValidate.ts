@@ -1,5 +1,5 @@
 /**
- * K-fold cross-validation of a fitted path (../shared/DESIGN.md): the grid is the full-data path's,
+ * K-fold cross-validation of a fitted path (docs/engine.md, "Cross-validation"): the grid is the full-data path's,
  * each fold refits on its training rows and scores its held-out rows, and combineFolds summarizes.
  * Uses only the engine's public entry (../index).
  */

@@ -38,6 +38,8 @@ export interface FoldLosses {
   losses: Partial<Record<CvMetricName, number[]>>;
   /** Solver status of the fold's fit at each lambda. */
   statuses: SolveStatus[];
+  /** Design columns with a nonzero coefficient at each lambda (for selection stability). */
+  support: number[][];
 }
 
 export const METRICS: Record<Family, CvMetricName[]> = {
@@ -123,7 +125,12 @@ export function runFoldOnDesign(
     const scores = scoreHeldOut(options.family, testSet.y, eta);
     for (const metric of METRICS[options.family]) losses[metric]?.push(scores[metric]);
   }
-  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status) };
+  const support = fit.coefficients.map((b) => {
+    const kept: number[] = [];
+    for (let j = 0; j < b.length; j++) if (b[j] !== 0) kept.push(j);
+    return kept;
+  });
+  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status), support };
 }
 
 /** The fold's training rows copied out, and fitted (with the fold's cross products when given). */

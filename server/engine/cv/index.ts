@@ -1,4 +1,4 @@
-/** Cross-validation: folds, held-out metrics, the lambda choices (../shared/DESIGN.md). */
+/** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
 export { crossValidate, planCrossValidation, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
 export { runFold, runFoldOnDesign, METRICS } from './fold';

@@ -7,7 +7,7 @@ const fail = (message: string, field: string): never => {
 /**
  * Checks a table-level fit spec before any work: every problem is an EngineInputError whose message
  * names the column, row, option or value at fault (rows are 1-based data rows). Constant predictors
- * are not errors: they are reported and left out (DESIGN.md); a constant response is.
+ * are not errors: they are reported and left out (docs/engine.md, "Data and encoding"); a constant response is.
  */
 export function validateSpec(table: EngineTable, spec: FitSpec): void {
   if (table.nRows === 0 || table.columns.length === 0) fail('the data has no rows', 'data');
@@ -68,6 +68,7 @@ function checkOptions(spec: FitSpec): void {
   if (spec.maxTerms !== undefined && !(Number.isInteger(spec.maxTerms) && spec.maxTerms >= 1)) {
     fail(`max terms must be a whole number >= 1; got ${spec.maxTerms}`, 'maxTerms');
   }
+  if (spec.maxTerms !== undefined && spec.lambda) fail('max terms ends the automatic path; it cannot be combined with explicit lambdas', 'maxTerms');
   if (!(spec.tolerance > 0 && Number.isFinite(spec.tolerance))) fail(`tolerance must be a positive number; got ${spec.tolerance}`, 'tolerance');
   if (!(Number.isInteger(spec.maxIterations) && spec.maxIterations >= 1)) {
     fail(`iteration limit must be a whole number >= 1; got ${spec.maxIterations}`, 'maxIterations');

@@ -15,7 +15,7 @@ export interface ZeroFit {
 }
 
 /**
- * lambda = 0 is the unpenalized fit (../shared/DESIGN.md): least squares by Householder QR for
+ * lambda = 0 is the unpenalized fit (docs/engine.md; docs/decisions/0005): least squares by Householder QR for
  * gaussian, Newton/IRLS for binomial (../unpenalized), on the columns that are not constant over
  * the rows fitted. These reach the digits a first-order method cannot (NIST StRD Longley: >= 9
  * significant digits). Terms QR finds aliased (exact linear combinations of the intercept and

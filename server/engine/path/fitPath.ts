@@ -16,7 +16,8 @@ import { solveAtZero } from './atZero';
  * learnt from these rows. The path (scikit-learn's path functions are the model, STYLE.md 11): exact
  * lambda_max from the null model, the log-spaced grid or the explicit lambdas, warm starts, screening
  * and one typed SolveInfo per lambda. With options.maxTerms the path ends after the first lambda
- * whose model has more than maxTerms nonzero terms (that lambda is kept, so the crossing is shown).
+ * whose model has more than maxTerms nonzero terms (that lambda is kept, so the crossing is shown);
+ * explicit lambdas are all fitted.
  */
 export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
   checkPathOptions(design, y, options);
@@ -44,6 +45,9 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
   if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && (options.l1Share ?? 1) < 1) {
     notes.push('Gap Safe screening is used for an L1 share of 1 only; this elastic-net fit uses the strong rule with KKT checks');
   }
+  // maxTerms shapes the automatic path only: explicit lambdas (a user's list, or the full-data grid
+  // each cross-validation fold refits) are all fitted.
+  const automatic = !options.lambda;
   let grid = options.lambda ? [...options.lambda] : null;
   if (!grid) {
     if (lambdaMax > 0) grid = lambdaGrid(lambdaMax, options.pathLength ?? DEFAULT_PATH_LENGTH, options.pathDecades ?? DEFAULT_PATH_DECADES);
@@ -102,8 +106,9 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
     });
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
+    options.onLambda?.(result.lambda.length, grid.length);
     const terms = result.nonzero[result.nonzero.length - 1];
-    if (options.maxTerms !== undefined && terms > options.maxTerms && result.lambda.length < grid.length) {
+    if (automatic && options.maxTerms !== undefined && terms > options.maxTerms && result.lambda.length < grid.length) {
       notes.push(`path ended after ${result.lambda.length} of ${grid.length} lambdas: the model at lambda ${lambda} has ${terms} nonzero terms, more than the limit of ${options.maxTerms}`);
       break;
     }

@@ -13,8 +13,13 @@
  * its own norm is an exact linear combination of earlier ones and is left out (reported as aliased).
  */
 
-/** Relative norm below which a column counts as aliased; the same default as common practice (1e-7). */
-export const RANK_TOLERANCE = 1e-7;
+/**
+ * Relative norm below which a column counts as aliased: sqrt(machine epsilon), about 1.5e-8. A
+ * column left with less than that share of its norm after the earlier columns are projected out has
+ * lost at least half of its double-precision digits to cancellation, so its coefficient would be
+ * mostly rounding noise.
+ */
+export const RANK_TOLERANCE = Math.sqrt(Number.EPSILON);
 
 export interface LeastSquaresFit {
   /** Slope for each column; NaN for aliased columns. */

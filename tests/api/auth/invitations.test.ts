@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { invitations } from '../../../server/db/schema/auth';
 import { hashToken } from '../../../server/auth/tokens';
 import { startTestApp, type TestApp } from '../../support/app';
-import { inviteAndJoin, lastMailId, newMail, signIn, signUp, TEST_PASSWORD, tokenFromMail, uniqueEmail, withCsrf, type Session } from '../../support/session';
+import { invitationMailed, inviteAndJoin, lastMailId, newMail, signIn, signUp, TEST_PASSWORD, tokenFromMail, uniqueEmail, withCsrf, type Session } from '../../support/session';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -21,6 +21,7 @@ async function invite(admin: Session, email: string, role = 'analyst'): Promise<
   const res = await withCsrf(admin.agent.post(`/api/workspaces/${admin.workspaceId}/invitations`), admin.csrf).send({ email, role });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   const mail = await newMail(t, email, /invited you/, before);
+  await invitationMailed(t, res.body.id as string);
   return { token: tokenFromMail(mail.text, 'invitations'), id: res.body.id as string, text: mail.text };
 }
 

@@ -32,8 +32,9 @@ describe('password reset', () => {
     const s = await signUp(t.app);
     const before = lastMailId(t);
     const nobody = uniqueEmail('nobody');
-    const a = await request(t.app).post('/api/auth/password-reset/request').send({ email: s.email });
+    // The unknown address first: its (empty) background work is done before the real one's mail lands.
     const b = await request(t.app).post('/api/auth/password-reset/request').send({ email: nobody });
+    const a = await request(t.app).post('/api/auth/password-reset/request').send({ email: s.email });
     expect([a.status, b.status]).toEqual([202, 202]);
     expect(b.body).toEqual(a.body);
     await newMail(t, s.email, /reset/i, before);
@@ -100,7 +101,8 @@ describe('password reset', () => {
     for (let i = 0; i < 6; i++) statuses.push((await request(t.app).post('/api/auth/password-reset/request').send({ email: s.email })).status);
     expect(statuses).toEqual([202, 202, 202, 202, 202, 429]);
     // Let the five background e-mails land before the test app shuts its SMTP server down.
-    for (let i = 0; i < 200 && t.mail.messages.filter((m) => m.to.includes(s.email)).length < 5; i++) await new Promise((r) => setTimeout(r, 25));
-    expect(t.mail.messages.filter((m) => m.to.includes(s.email))).toHaveLength(5);
+    const resets = () => t.mail.messages.filter((m) => m.to.includes(s.email) && /Reset your/.test(m.subject));
+    for (let i = 0; i < 400 && resets().length < 5; i++) await new Promise((r) => setTimeout(r, 25));
+    expect(resets()).toHaveLength(5);
   });
 });

@@ -136,8 +136,9 @@ describe('cookie flags', () => {
   it('marks cookies Secure when the public URL is https', async () => {
     const secure = await startTestApp({ LARIAT_PUBLIC_URL: 'https://lariat.example.test' });
     try {
-      const res = await request(secure.app).post('/api/auth/sign-up').send({ email: 'secure@example.test', password: 'a fine long passphrase', name: 'S' });
-      expect(res.status).toBe(201);
+      await signUp(secure.app, { email: 'secure@example.test', password: 'a fine long passphrase', name: 'S' });
+      const res = await request(secure.app).post('/api/auth/sign-in').send({ email: 'secure@example.test', password: 'a fine long passphrase' });
+      expect(res.status).toBe(200);
       const cookies = (res.headers['set-cookie'] as unknown as string[]).join('\n');
       expect(cookies).toMatch(/lariat_session=[^\n]*Secure/);
       expect(cookies).toMatch(/lariat_csrf=[^\n]*Secure/);

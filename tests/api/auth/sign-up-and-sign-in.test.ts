@@ -3,7 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { users, workspaces } from '../../../server/db/schema/auth';
 import { startTestApp, type TestApp } from '../../support/app';
-import { signIn, signUp, TEST_PASSWORD, uniqueEmail, withCsrf } from '../../support/session';
+import { lastMailId, newMail, signIn, signUp, TEST_PASSWORD, tokenFromMail, uniqueEmail, withCsrf } from '../../support/session';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -14,9 +14,15 @@ afterAll(async () => {
 });
 
 describe('sign-up', () => {
-  it('creates the account and a new workspace where the person is admin, and signs them in', async () => {
+  it('e-mails a link that creates the account and a new workspace where the person is admin, and signs them in', async () => {
     const email = uniqueEmail('first');
-    const res = await request(t.app).post('/api/auth/sign-up').send({ email: email.toUpperCase(), password: TEST_PASSWORD, name: 'Ada', workspaceName: 'Dairy yields' });
+    const before = lastMailId(t);
+    const asked = await request(t.app).post('/api/auth/sign-up').send({ email: email.toUpperCase(), password: TEST_PASSWORD, name: 'Ada', workspaceName: 'Dairy yields' });
+    expect(asked.status, JSON.stringify(asked.body)).toBe(202);
+    const token = tokenFromMail((await newMail(t, email, /Finish creating/, before)).text, 'sign-up/finish');
+    // No account before the link is used.
+    expect((await request(t.app).post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD })).status).toBe(401);
+    const res = await request(t.app).post('/api/auth/sign-up/complete').send({ token });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.user).toEqual({ id: expect.any(String), email, name: 'Ada' });
     expect(res.body.memberships).toEqual([{ workspaceId: expect.any(String), workspaceName: 'Dairy yields', role: 'admin' }]);
@@ -25,6 +31,8 @@ describe('sign-up', () => {
     expect(cookies).toMatch(/lariat_session=[^;]+;.*HttpOnly/i);
     expect(cookies).toMatch(/lariat_session=[^;]+;.*SameSite=Lax/i);
     expect(cookies).toMatch(new RegExp(`lariat_csrf=${res.body.csrfToken}`));
+    // The link works once.
+    expect((await request(t.app).post('/api/auth/sign-up/complete').send({ token })).status).toBe(410);
   });
 
   it('gives every later sign-up its own workspace too (no one joins a stranger by signing up)', async () => {
@@ -42,13 +50,16 @@ describe('sign-up', () => {
     expect(row.hash).not.toContain(TEST_PASSWORD);
   });
 
-  it('refuses a second account for the same e-mail (409 naming email)', async () => {
+  it('makes no second account for the same e-mail: the owner is told by e-mail instead', async () => {
     const s = await signUp(t.app);
     const workspacesBefore = (await t.ctx.db.select({ n: count() }).from(workspaces))[0].n;
+    const before = lastMailId(t);
     const res = await request(t.app).post('/api/auth/sign-up').send({ email: s.email.toUpperCase(), password: TEST_PASSWORD, name: 'Again', workspaceName: 'Orphan' });
-    expect(res.status).toBe(409);
-    expect(res.body.error.field).toBe('email');
-    // Nothing is written for a refused sign-up: no orphan workspace.
+    expect(res.status).toBe(202);
+    const mail = await newMail(t, s.email, /tried to create a Lariat account/, before);
+    expect(mail.text).toMatch(/already has one/);
+    expect(mail.text).not.toMatch(/sign-up\/finish/);
+    // Nothing is written for it: no orphan workspace.
     expect((await t.ctx.db.select({ n: count() }).from(workspaces))[0].n).toBe(workspacesBefore);
   });
 });

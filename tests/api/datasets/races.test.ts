@@ -3,8 +3,9 @@
  * 500 from a unique constraint), different files to one dataset (consecutive version numbers), and
  * an unexpected server fault whose text must not reach the uploader or the progress entry.
  */
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
+import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { UploadResultDto } from '../../../shared/datasets';
 import { startTestApp, type TestApp } from '../../support/app';
@@ -15,16 +16,43 @@ let t: TestApp;
 let alice: Session;
 
 beforeAll(async () => {
-  t = await startTestApp();
+  // Two ingests at once in one process (with one slot they only race across server processes).
+  t = await startTestApp({ LARIAT_INGEST_SLOTS: '2' });
   alice = await signUp(t.app);
 });
 afterAll(async () => closeApp(t));
 
-/** About 1 MB, so each ingest parses long enough for the two to overlap. */
+/** About 0.7 MB of numbers. */
 function table(seed: number): string {
   const lines = ['x,y,z'];
   for (let i = 0; i < 60_000; i++) lines.push(`${i},${(i * seed) % 997},${(i * 7 + seed) % 13}`);
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * Runs `both` while this test holds the lock that ingests of `file` take before their final check,
+ * and lets go only once two ingests wait for it: both have passed the first "already stored?" check,
+ * so the race happens every time, however the machine schedules the two requests.
+ */
+async function overlapped<T>(file: string, both: () => Promise<T>): Promise<T> {
+  const sha = createHash('sha256').update(file).digest('hex');
+  const key = `lariat-checksum:${alice.workspaceId}:${sha}`;
+  const holder = new pg.Client({ connectionString: t.ctx.config.DATABASE_URL });
+  await holder.connect();
+  try {
+    await holder.query('SELECT pg_advisory_lock(hashtextextended($1, 0))', [key]);
+    const running = both();
+    for (let i = 0; ; i++) {
+      const r = await holder.query<{ n: number }>("SELECT count(*)::int AS n FROM pg_locks WHERE locktype = 'advisory' AND NOT granted AND database = (SELECT oid FROM pg_database WHERE datname = current_database())");
+      if (r.rows[0].n === 2) break;
+      if (i > 500) throw new Error('the two ingests never both waited for the checksum lock');
+      await new Promise((res) => setTimeout(res, 20));
+    }
+    await holder.query('SELECT pg_advisory_unlock(hashtextextended($1, 0))', [key]);
+    return await running;
+  } finally {
+    await holder.end();
+  }
 }
 
 async function datasetWithVersion1(name: string, seed: number): Promise<string> {
@@ -38,7 +66,7 @@ describe('uploads at the same time', () => {
     const datasetId = await datasetWithVersion1('same-file', 1);
     const before = await tableCounts(t);
     const file = table(2);
-    const [a, b] = await Promise.all([upload(alice, file, 'v2.csv', { datasetId }), upload(alice, file, 'v2.csv', { datasetId })]);
+    const [a, b] = await overlapped(file, () => Promise.all([upload(alice, file, 'v2.csv', { datasetId }), upload(alice, file, 'v2.csv', { datasetId })]));
     const statuses = [a.status, b.status].sort();
     expect(statuses, JSON.stringify([a.body, b.body])).toEqual([201, 409]);
     const refused = a.status === 409 ? a : b;
@@ -56,7 +84,7 @@ describe('uploads at the same time', () => {
   it('two identical files as new datasets: one dataset, the other 409', async () => {
     const before = await tableCounts(t);
     const file = table(3);
-    const [a, b] = await Promise.all([upload(alice, file, 'new.csv', { name: 'New A' }), upload(alice, file, 'new.csv', { name: 'New B' })]);
+    const [a, b] = await overlapped(file, () => Promise.all([upload(alice, file, 'new.csv', { name: 'New A' }), upload(alice, file, 'new.csv', { name: 'New B' })]));
     expect([a.status, b.status].sort(), JSON.stringify([a.body, b.body])).toEqual([201, 409]);
     const after = await tableCounts(t);
     expect(after.datasets - before.datasets).toBe(1);
@@ -83,12 +111,14 @@ describe('uploads at the same time', () => {
       const res = await withCsrf(alice.agent.post(uploadUrl(alice, ingest)), alice.csrf).attach('file', Buffer.from('a,b\n1,2\n3,4\n'), 'secret-params.csv');
       expect(res.status).toBe(500);
       const message: string = res.body.error.message;
-      const id = /error id ([0-9a-f]{8})/.exec(message)?.[1];
+      const id = /\(error ([0-9a-f]{12})\)/.exec(message)?.[1];
       expect(id, message).toBeDefined();
-      expect(message).toBe(`The upload failed on the server and nothing was stored. Please try again; if it fails again, tell your administrator the error id ${id}.`);
+      expect(message).toBe(
+        `The upload failed and nothing was stored. Something went wrong on the server (error ${id}). The error was logged; quote this id when you report it.`,
+      );
       const progress = await alice.agent.get(`${apiBase(alice)}/ingests/${ingest}`);
       expect(progress.body).toMatchObject({ phase: 'failed', message });
-      const line = logged.find((l) => l.includes(`error id ${id}`));
+      const line = logged.find((l) => l.includes(`error ${id} in ingest`));
       expect(line, logged.join('\n')).toBeDefined();
       expect(line).toContain('code=P0001');
       expect(logged.join('\n')).not.toContain('secret-params');

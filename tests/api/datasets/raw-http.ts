@@ -3,6 +3,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type express from 'express';
 import request from 'supertest';
+import { signUp } from '../../support/session';
 
 export interface RawSession {
   cookie: string;
@@ -11,8 +12,10 @@ export interface RawSession {
 }
 
 export async function rawSignUp(app: express.Express, email: string): Promise<RawSession> {
-  const res = await request(app).post('/api/auth/sign-up').send({ email, password: 'correct horse battery staple', name: 'Raw Tester' });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+  // Sign-up finishes through an e-mailed link; then a fresh sign-in gives the cookies to replay.
+  await signUp(app, { email, password: 'correct horse battery staple', name: 'Raw Tester' });
+  const res = await request(app).post('/api/auth/sign-in').send({ email, password: 'correct horse battery staple' });
+  if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
   const cookies = (res.headers['set-cookie'] as unknown as string[]).map((c) => c.split(';')[0]);
   return { cookie: cookies.join('; '), csrf: res.body.csrfToken, workspaceId: res.body.memberships[0].workspaceId };
 }

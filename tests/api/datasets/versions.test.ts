@@ -124,6 +124,11 @@ describe('open datasets', () => {
     const list = await alice.agent.get(`${apiBase(alice)}/open-datasets`);
     const diabetes = list.body.openDatasets.find((o: { key: string }) => o.key === 'diabetes');
     expect(diabetes.citation).toMatch(/Efron, Trevor Hastie, Iain Johnstone and Robert Tibshirani \(2004\)/);
+    // The cards cite the original publications and data repositories; the copying route stays in SOURCES.md.
+    for (const card of list.body.openDatasets as { citation: string; licence: string }[]) {
+      expect(`${card.citation} ${card.licence}`).not.toMatch(/scikit-learn|Debian|copied|as shipped/i);
+    }
+    expect(list.body.openDatasets.find((o: { key: string }) => o.key === 'breast-cancer').citation).toMatch(/UCI Machine Learning Repository/);
     const first = await withCsrf(alice.agent.post(`${apiBase(alice)}/open-datasets/diabetes/import`), alice.csrf);
     expect(first.status, JSON.stringify(first.body)).toBe(201);
     const v = (await alice.agent.get(`${apiBase(alice)}/datasets/${first.body.datasetId}/versions/1`)).body as VersionDetailDto;

@@ -8,7 +8,7 @@ import type { AppContext } from '../../../server/context';
 function appFor(publicUrl: string) {
   const config = loadConfig({ NODE_ENV: 'test', LARIAT_PUBLIC_URL: publicUrl, LARIAT_SERVE_CLIENT: '0' });
   // /api/health touches neither the database nor mail.
-  return createApp({ config, db: undefined as unknown as AppContext['db'], sendMail: async () => undefined });
+  return createApp({ config, db: undefined as unknown as AppContext['db'], queue: undefined as unknown as AppContext['queue'], sendMail: async () => undefined });
 }
 
 describe('security headers', () => {

@@ -49,6 +49,7 @@ const V = `${W}/datasets/:datasetId/versions/:number`;
 const TABLE: Record<string, Row> = {
   'GET /api/health': open(200),
   'POST /api/auth/sign-up': open(400),
+  'POST /api/auth/sign-up/complete': open(400),
   'POST /api/auth/sign-in': open(400),
   'POST /api/auth/sign-out': { ...open(204), fresh: true },
   'GET /api/auth/me': personal(200),
@@ -81,6 +82,16 @@ const TABLE: Record<string, Row> = {
   [`GET ${V}/cleaned.csv`]: ws(all, 200),
   [`GET ${W}/open-datasets`]: ws(all, 200),
   [`POST ${W}/open-datasets/:key/import`]: ws(editors, 404),
+  [`GET ${W}/models`]: ws(all, 200),
+  [`POST ${W}/models`]: ws(editors, 400),
+  [`GET ${W}/models/:modelId`]: ws(all, 404),
+  [`POST ${W}/models/:modelId/fits`]: ws(editors, 400),
+  [`GET ${W}/fits/:fitId`]: ws(all, 404),
+  [`GET ${W}/fits/:fitId/progress`]: ws(all, 404),
+  [`POST ${W}/fits/:fitId/cancel`]: ws(editors, 404),
+  [`POST ${W}/fits/:fitId/choice`]: ws(editors, 400),
+  [`GET ${W}/fits/:fitId/predictions`]: ws(all, 400),
+  [`POST ${W}/fits/:fitId/predictions`]: ws(all, 404),
 };
 
 let t: TestApp;
@@ -159,6 +170,7 @@ describe('route-by-role matrix (from the router)', () => {
 /** Routes that carry their own proof (no session yet, or an e-mailed token): see server/auth/csrf.ts. */
 const CSRF_EXEMPT = new Set([
   'POST /api/auth/sign-up',
+  'POST /api/auth/sign-up/complete',
   'POST /api/auth/sign-in',
   'POST /api/auth/password-reset/request',
   'POST /api/auth/password-reset/complete',

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { DEFAULTS, parseFitOptions, UsageError } from '../../../server/cli/args';
+import { DEFAULTS, FLAG_OPTIONS, parseFitOptions, UsageError, VALUE_OPTIONS } from '../../../server/cli/args';
+import { HELP } from '../../../server/cli/help';
 
 const base = ['--data', 'd.csv', '--response', 'y'];
 
@@ -17,17 +18,17 @@ describe('parseFitOptions', () => {
     const o = parseFitOptions([
       ...base, '--predictors', 'a, b,c', '--family=binomial', '--penalty', 'elastic-net', '--l1-share', '0.3',
       '--lambda', '1,0.5,0.1', '--no-standardize', '--fold-column', 'fold', '--seed', '7', '--tolerance', '1e-8',
-      '--max-terms', '12', '--penalty-weights', 'w.json',
+      '--penalty-weights', 'w.json',
     ]);
     expect(o).toMatchObject({
       predictors: ['a', 'b', 'c'], family: 'binomial', penalty: 'elastic-net', l1Share: 0.3,
       lambda: [1, 0.5, 0.1], standardize: false, foldColumn: 'fold', seed: 7, tolerance: 1e-8,
-      maxTerms: 12, penaltyWeightsFile: 'w.json',
+      penaltyWeightsFile: 'w.json',
     });
   });
 
-  it('reads --path-decades, with its default when absent', () => {
-    expect(parseFitOptions([...base, '--path-decades', '2.5']).pathDecades).toBe(2.5);
+  it('reads --path-decades and --max-terms, with their defaults when absent', () => {
+    expect(parseFitOptions([...base, '--path-decades', '2.5', '--max-terms', '12'])).toMatchObject({ pathDecades: 2.5, maxTerms: 12 });
     expect(parseFitOptions(base).pathDecades).toBe(DEFAULTS.pathDecades);
   });
 
@@ -53,6 +54,7 @@ describe('parseFitOptions', () => {
     [[...base, '--path-decades', '0'], /--path-decades must be a positive number/],
     [[...base, '--lambda', '1', '--path-decades', '2'], /--lambda cannot be combined/],
     [[...base, '--max-terms', '0'], /--max-terms must be an integer of at least 1/],
+    [[...base, '--lambda', '1', '--max-terms', '3'], /--lambda cannot be combined/],
     [[...base, '--lambda-ratio', '0.01'], /unknown option --lambda-ratio/],
     [[...base, '--tolerance', '-1'], /--tolerance must be positive/],
     [[...base, '--seed'], /--seed needs a value/],
@@ -66,4 +68,17 @@ describe('parseFitOptions', () => {
       expect(() => parseFitOptions(argv)).toThrow(message);
     });
   }
+});
+
+describe('--help', () => {
+  it('explains every option the parser accepts', () => {
+    for (const name of [...VALUE_OPTIONS, ...FLAG_OPTIONS].filter((n) => n !== 'help')) expect(HELP, `--${name}`).toContain(`--${name}`);
+  });
+
+  it('states the measured defaults and no option of the old vocabulary', () => {
+    expect(HELP).toContain(`Default ${DEFAULTS.pathDecades}`);
+    expect(HELP).toContain(`Default ${DEFAULTS.tolerance}`);
+    expect(HELP).toContain('devianceExplained');
+    for (const old of ['--alpha', '--lambda-ratio', 'devianceRatio', 'penalty factor']) expect(HELP).not.toContain(old);
+  });
 });

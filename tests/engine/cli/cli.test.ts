@@ -114,11 +114,28 @@ describe('lariat fit (spawned CLI)', () => {
     const shallow = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--folds', '0');
     const last = shallow.lambda[shallow.lambda.length - 1];
     expect(Math.abs(last / shallow.lambdaMax - 1e-2)).toBeLessThan(1e-12);
-    const limited = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--max-terms', '1', '--folds', '0');
+    const limited = fitJson('--data', 'data.csv', '--response', 'y', '--predictors', 'a,b,colour', '--path-length', '11', '--path-decades', '2', '--max-terms', '1', '--folds', '4');
+    // Cross-validation refits every lambda of the shortened path in each fold.
+    expect(limited.cv?.mean).toHaveLength(limited.lambda.length);
+    expect(limited.cv?.mean.every((v) => Number.isFinite(v))).toBe(true);
     const k = limited.lambda.length - 1;
     expect(limited.nonzero[k]).toBeGreaterThan(1);
     expect(limited.nonzero.slice(0, k).every((count) => count <= 1)).toBe(true);
     expect(limited.lambda).toEqual(shallow.lambda.slice(0, k + 1));
+  });
+
+  it('notes when the cross-validation minimum sits at the end of the path, and only then', () => {
+    const diabetes = fileURLToPath(new URL('../../../datasets/open/diabetes.csv', import.meta.url));
+    const args = ['--data', diabetes, '--response', 'progression', '--path-length', '20', '--folds', '5'];
+    const shallow = fitJson(...args, '--no-standardize', '--path-decades', '1');
+    const last = shallow.lambda.length - 1;
+    // Diabetes on the raw scale: the CV error still falls at 1 decade; standardized, its minimum is
+    // near 2 decades, well inside a 6-decade path (docs/decisions/0006-path-depth.md).
+    expect(shallow.cv?.minimum.index).toBe(last);
+    expect(shallow.notes.join('\n')).toContain('cross-validation minimum is at the smallest lambda');
+    const deep = fitJson(...args, '--path-decades', '6');
+    expect(deep.cv?.minimum.index).toBeLessThan(deep.lambda.length - 1);
+    expect(deep.notes.join('\n')).not.toContain('cross-validation minimum');
   });
 
   it('carries the statistical cautions, and names every solve that stopped at the iteration limit', () => {

@@ -2,7 +2,7 @@
  * `lariat fit --lambda 0 --no-standardize --folds 0` is the unpenalized least-squares fit and must
  * reproduce the certified coefficients of NIST StRD Longley (Statistical Reference Datasets, linear
  * least squares, https://www.itl.nist.gov/div898/strd/lls/data/Longley.shtml; values in
- * datasets/reference/nist/longley.json) to at least 9 significant digits (REFERENCES.md 1).
+ * datasets/reference/nist/longley.json) to at least 9 significant digits (NIST StRD, linear least squares).
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';

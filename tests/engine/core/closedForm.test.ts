@@ -1,5 +1,5 @@
 /**
- * Closed forms on orthonormal designs (REFERENCES.md section 4, common practice): with centred
+ * Closed forms on orthonormal designs (common practice): with centred
  * columns and X'X/n = I, z = X'(y - mean y)/n,
  *   lasso:        b_j = sign(z_j)(|z_j| - lambda)_+
  *   elastic net:  b_j = sign(z_j)(|z_j| - lambda alpha)_+ / (1 + lambda (1 - alpha))

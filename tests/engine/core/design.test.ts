@@ -1,5 +1,5 @@
 /**
- * Encoding (DESIGN.md): categorical -> one indicator per level named `column=level`; rows with a
+ * Encoding (docs/engine.md, "Data and encoding"): categorical -> one indicator per level named `column=level`; rows with a
  * missing value dropped or mean/mode imputed; constant columns reported and left out; a two-level
  * categorical binomial response mapped to 0/1 with the mapping in the notes. Expected values are
  * worked out by hand from the small tables below.

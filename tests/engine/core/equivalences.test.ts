@@ -1,5 +1,5 @@
 /**
- * Facts of the method (REFERENCES.md section 4, common practice): groups of size one make the group
+ * Facts of the method (common practice): groups of size one make the group
  * lasso the lasso; l1Share = 1 makes the elastic net the lasso; a penalty weight of 0 leaves a column
  * unpenalized (in the model at every lambda, and its coefficient is the least-squares one given the
  * others); lambda = 0 is the unpenalized least-squares fit.

@@ -1,5 +1,5 @@
 /**
- * Independent optimality checks (written apart from the engine, from the objectives in DESIGN.md):
+ * Independent optimality checks (written apart from the engine, from the objectives in docs/engine.md):
  * standardize X the same documented way, map the reported coefficients to that scale and measure
  * the distance of -gradient to lambda * subdifferential of the penalty (KKT; common practice).
  */

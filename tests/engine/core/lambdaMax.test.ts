@@ -1,5 +1,5 @@
 /**
- * lambda_max (DESIGN.md: "the smallest lambda with all penalized coefficients zero", common
+ * lambda_max (docs/engine.md: "the smallest lambda at which every penalized coefficient is exactly zero", common
  * practice): at lambda_max every penalized coefficient is 0; just below it at least one is not.
  * Also the closed form for the gaussian lasso without penalty weights: max_j |x~_j'(y - mean y)|/n
  * on standardized columns (Friedman, Hastie & Tibshirani 2010, "Regularization paths for generalized

@@ -1,5 +1,5 @@
 /**
- * Never a silent non-convergence (DESIGN.md, STYLE.md 9): a tiny iteration limit gives status
+ * Never a silent non-convergence (docs/engine.md, "Solving and the stopping rule"): a tiny iteration limit gives status
  * 'iteration-limit' with the gap above the tolerance reported; and the same input gives
  * bitwise-identical output (determinism; no randomness or timing in the numbers).
  */

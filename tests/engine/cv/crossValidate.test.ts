@@ -35,7 +35,7 @@ const oneColumn = csv('y,x,fold', X.map((x, i) => [Y[i], x, FOLD[i]]));
 const LAMBDA = [3, 1, 0.3, 0.05];
 
 /**
- * Closed form (REFERENCES.md 4, common practice): with one standardized column (x_s'x_s/n = 1) the
+ * Closed form (common practice): with one standardized column (x_s'x_s/n = 1) the
  * lasso coefficient is soft(z, lambda), z = x_s'(y - mean y)/n; back on the original scale
  * b = b_s / sd, b0 = mean y - b mean x. `learnOn` gives the rows whose mean and sd standardize.
  */

@@ -56,7 +56,7 @@ describe('missing: impute learns the fill-in values on each fold\'s training row
   };
 
   /**
-   * Closed form (REFERENCES.md 4, common practice): one standardized column gives the lasso
+   * Closed form (common practice): one standardized column gives the lasso
    * coefficient soft(z, lambda), z = x_s'(y - mean y)/n; b = b_s / sd, b0 = mean y - b mean x.
    * Missing x are filled with the mean of the observed x over `learnOn` rows, in training and
    * held-out rows alike.

@@ -1,5 +1,5 @@
 /**
- * lambda = 0 on a path is the unpenalized fit (DESIGN.md: QR for gaussian, Newton/IRLS for
+ * lambda = 0 on a path is the unpenalized fit (docs/engine.md; docs/decisions/0005: QR for gaussian, Newton/IRLS for
  * binomial), checked on outside references: NIST StRD Norris (certified values,
  * datasets/reference/nist/norris.json) with standardization on, scikit-learn's unpenalized
  * LogisticRegression (datasets/reference/sklearn/logistic-unpenalized.json), the separable breast

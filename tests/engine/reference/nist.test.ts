@@ -4,7 +4,7 @@
  * (https://www.itl.nist.gov/div898/strd/lls/lls.shtml), transcribed with the data into
  * datasets/reference/nist/*.json (each file names its page and original reference).
  * Bars: Longley and Norris >= 9 significant digits in every estimate, standard deviation and the
- * residual SD; Wampler1 >= 6 (the bars of shared REFERENCES.md section 1).
+ * residual SD; Wampler1 >= 6 (NIST StRD certified values, computed in 500-digit arithmetic; bars as in docs/engine.md, "Outside references in the tests").
  */
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';

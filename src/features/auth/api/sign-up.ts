@@ -1,18 +1,11 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MeDto, SignUpInput } from '@shared/auth';
+import { useMutation } from '@tanstack/react-query';
+import type { SignUpInput } from '@shared/auth';
 import { api } from '@/lib/api';
-import { meQueryOptions } from '@/lib/session';
 
-/** POST /api/auth/sign-up: a new account and its own workspace (as admin); signs the person in. */
-export const signUp = (input: SignUpInput) => api.post<MeDto>('/api/auth/sign-up', input);
+/**
+ * POST /api/auth/sign-up: always "check your inbox" (202), whether or not the address has an
+ * account; the e-mailed link finishes the sign-up (sign-up-complete.ts).
+ */
+export const signUp = (input: SignUpInput) => api.post<{ message: string }>('/api/auth/sign-up', input);
 
-export function useSignUp() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: signUp,
-    onSuccess: (me) => {
-      queryClient.removeQueries();
-      queryClient.setQueryData(meQueryOptions().queryKey, me);
-    },
-  });
-}
+export const useSignUp = () => useMutation({ mutationFn: signUp });

@@ -1,6 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { useNavigate } from 'react-router';
 import { PASSWORD_MIN, signUpSchema, type SignUpInput } from '@shared/auth';
 import { paths } from '@/app/paths';
 import { AuthCard, TextLink } from '@/components/AuthCard';
@@ -14,7 +13,6 @@ const FIELDS = ['name', 'email', 'password', 'workspaceName'] as const;
 
 /** A new account always starts a new workspace, with its creator as the admin. */
 export function SignUpPage() {
-  const navigate = useNavigate();
   const signUp = useSignUp();
   const form = useForm<SignUpInput>({
     resolver: zodResolver(signUpSchema),
@@ -24,13 +22,23 @@ export function SignUpPage() {
 
   const onSubmit = form.handleSubmit(async (values) => {
     try {
-      const me = await signUp.mutateAsync(values);
-      const first = me.memberships[0];
-      navigate(first ? paths.workspace.root.getHref(first.workspaceId) : paths.home.getHref(), { replace: true });
+      await signUp.mutateAsync(values);
     } catch (error) {
       applyServerError(error, form.setError, FIELDS);
     }
   });
+
+  if (signUp.isSuccess) {
+    return (
+      <AuthCard title="Check your inbox">
+        <Notice tone="success">{signUp.data.message}</Notice>
+        <p className="mt-4 text-sm">
+          Sent to <strong>{signUp.variables.email}</strong>. Nothing arrived? Check the address, or{' '}
+          <TextLink to={paths.auth.signIn.getHref()}>sign in</TextLink> if you already have an account.
+        </p>
+      </AuthCard>
+    );
+  }
 
   return (
     <AuthCard

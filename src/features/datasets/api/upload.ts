@@ -12,6 +12,8 @@ export interface UploadFields {
   description?: string;
   datasetId?: string;
   missing?: string;
+  /** "no": the first row is data (columns become column_1, ...). */
+  headerRow?: 'yes' | 'no';
 }
 
 export interface UploadHandle {

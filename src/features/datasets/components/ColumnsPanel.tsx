@@ -1,5 +1,6 @@
 /**
- * Every column with its type, why it was inferred, whether it is used for modelling, and its summary.
+ * Every column with its type, why it was inferred, whether it is used for modelling, and its summary,
+ * one compact row each (the shared column table: searchable, sortable, virtualized).
  * Analysts and admins may change types or exclusions; saving makes the next version (versions
  * never change; docs/decisions/0003).
  */
@@ -8,9 +9,9 @@ import { useNavigate } from 'react-router';
 import { COLUMN_TYPE_LABELS, COLUMN_TYPES, type ColumnSchema, type ColumnType } from '@shared/datasets';
 import { paths } from '@/app/paths';
 import { Button } from '@/components/Button';
+import { ColumnTable } from '@/components/columns/ColumnTable';
 import { Notice } from '@/components/Notice';
 import { useChangeColumnSettings } from '../api/column-settings';
-import { ColumnSummary } from './ColumnSummary';
 
 interface Props {
   workspaceId: string;
@@ -44,45 +45,41 @@ export function ColumnsPanel({ workspaceId, datasetId, number, columns, canEdit 
       <h2 id="columns-heading" className="text-lg font-bold">
         Columns
       </h2>
-      <ul className="divide-y divide-slate-200 dark:divide-slate-800">
-        {columns.map((c) => {
-          const d = current(c);
-          return (
-            <li key={c.name} className="grid gap-4 py-3 md:grid-cols-[minmax(12rem,1fr)_2fr]" data-column={c.name}>
-              <div className="space-y-1 text-sm">
-                <p className="font-bold">{c.name}</p>
-                {canEdit ? (
-                  <label className="block">
-                    <span className="sr-only">Type of {c.name}</span>
-                    <select value={d.type} onChange={(e) => set(c, { type: e.target.value as ColumnType })} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
-                      {COLUMN_TYPES.map((t) => (
-                        <option key={t} value={t}>
-                          {COLUMN_TYPE_LABELS[t]}
-                        </option>
-                      ))}
-                    </select>
-                  </label>
-                ) : (
-                  <p>{COLUMN_TYPE_LABELS[c.type]}</p>
-                )}
-                {canEdit ? (
-                  <label className="flex items-center gap-2">
-                    <input type="checkbox" checked={!d.excluded} onChange={(e) => set(c, { excluded: !e.target.checked })} />
-                    Use in models
-                  </label>
-                ) : (
-                  <p>{c.excluded ? 'Left out of models' : 'Used in models'}</p>
-                )}
-                <p className="text-xs text-slate-600 dark:text-slate-400">
-                  {c.overridden ? `Changed by hand (inferred: ${COLUMN_TYPE_LABELS[c.inferredType]}). ` : ''}
-                  {c.reason}
-                </p>
-              </div>
-              <ColumnSummary column={c} />
-            </li>
-          );
-        })}
-      </ul>
+      <ColumnTable
+        columns={columns}
+        label={`Columns of version ${number}`}
+        renderNote={(c) => `${c.overridden ? `Changed by hand (inferred: ${COLUMN_TYPE_LABELS[c.inferredType]}). ` : ''}${c.reason}`}
+        renderType={(c) =>
+          canEdit ? (
+            <label className="block">
+              <span className="sr-only">Type of {c.name}</span>
+              <select value={current(c).type} onChange={(e) => set(c, { type: e.target.value as ColumnType })} className="w-full rounded border border-slate-300 px-1 py-0.5 text-sm dark:border-slate-700 dark:bg-slate-950">
+                {COLUMN_TYPES.map((t) => (
+                  <option key={t} value={t}>
+                    {COLUMN_TYPE_LABELS[t]}
+                  </option>
+                ))}
+              </select>
+            </label>
+          ) : (
+            COLUMN_TYPE_LABELS[c.type]
+          )
+        }
+        extra={{
+          header: 'In models',
+          cell: (c) =>
+            canEdit ? (
+              <label className="flex items-center gap-2">
+                <input type="checkbox" checked={!current(c).excluded} onChange={(e) => set(c, { excluded: !e.target.checked })} />
+                Use in models
+              </label>
+            ) : c.excluded ? (
+              'Left out'
+            ) : (
+              'Used'
+            ),
+        }}
+      />
       {canEdit && (
         <div className="flex items-center gap-3">
           <Button onClick={submit} disabled={changed.length === 0} busy={save.isPending} busyLabel="Saving…">

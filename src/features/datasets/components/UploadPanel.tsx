@@ -28,6 +28,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
   const [file, setFile] = useState<File | null>(null);
   const [name, setName] = useState('');
   const [missing, setMissing] = useState(DEFAULT_MISSING_MARKERS.join(', '));
+  const [firstRowIsData, setFirstRowIsData] = useState(false);
   const [dragging, setDragging] = useState(false);
   const [handle, setHandle] = useState<UploadHandle | null>(null);
   const [transfer, setTransfer] = useState(0);
@@ -48,7 +49,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
   const start = async () => {
     if (!file) return;
     const markers = missing.split(',').map((m) => m.trim());
-    const h = uploadDataset(workspaceId, file, { name: datasetId ? undefined : name, datasetId, missing: markers.join(',') }, (loaded, total) => setTransfer(loaded / Math.max(1, total)));
+    const h = uploadDataset(workspaceId, file, { name: datasetId ? undefined : name, datasetId, missing: markers.join(','), headerRow: firstRowIsData ? 'no' : undefined }, (loaded, total) => setTransfer(loaded / Math.max(1, total)));
     setHandle(h);
     try {
       const result = await h.result;
@@ -90,7 +91,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
           {file ? 'Choose another file' : 'Choose a file'}
         </Button>
         <input ref={input} type="file" accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values" aria-label="CSV or TSV file" className="sr-only" onChange={(e) => choose(e.target.files?.[0])} />
-        <p className="mt-2 text-xs text-slate-600 dark:text-slate-400">UTF-8 text with a header row; comma, tab, semicolon or | between fields. Limit {formatBytes(uploadLimitBytes)}.</p>
+        <p className="mt-2 text-xs text-slate-600 dark:text-slate-400">UTF-8 text, usually with a header row; comma, tab, semicolon, | or runs of spaces between fields. Limit {formatBytes(uploadLimitBytes)}.</p>
       </div>
       <div className="grid gap-4 sm:grid-cols-2">
         {!datasetId && (
@@ -103,6 +104,13 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
           <span className="font-bold">Missing-value markers</span>
           <input value={missing} onChange={(e) => setMissing(e.target.value)} className="mt-1 w-full rounded border border-slate-300 px-2 py-1 dark:border-slate-700 dark:bg-slate-950" />
           <span className="text-xs text-slate-600 dark:text-slate-400">Comma-separated; an empty entry means blank cells. Case is ignored.</span>
+        </label>
+        <label className="flex items-start gap-2 text-sm sm:col-span-2">
+          <input type="checkbox" checked={firstRowIsData} onChange={(e) => setFirstRowIsData(e.target.checked)} className="mt-1" />
+          <span>
+            <span className="font-bold">The first row is data, not column names</span>
+            <span className="block text-xs text-slate-600 dark:text-slate-400">Columns are then named column_1, column_2, and so on.</span>
+          </span>
         </label>
       </div>
       <div className="flex gap-3">
@@ -119,7 +127,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
         <div className="space-y-3" data-testid="upload-progress">
           <ProgressBar label="Transfer" value={transfer} />
           <ProgressBar
-            label={server?.phase === 'storing' ? 'Storing' : 'Reading and checking'}
+            label={server?.phase === 'storing' ? 'Storing' : server?.phase === 'queued' ? 'Waiting for the server to finish other uploads' : 'Reading and checking'}
             value={server?.phase === 'parsing' || server?.phase === 'storing' ? server.fraction : server?.phase === 'done' ? 1 : 0}
             detail={server && server.rowsParsed > 0 ? `${server.rowsParsed.toLocaleString()} rows` : undefined}
           />

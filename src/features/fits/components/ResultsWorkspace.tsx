@@ -1,0 +1,79 @@
+/**
+ * The results of a finished fit, in reading order: the chosen lambda (and how to change it), the
+ * cautions, the CV curve and the coefficient paths, the coefficients with their stability, the
+ * diagnostics and refit, the solver's certificates, and applying the fit to a table.
+ */
+import { useState } from 'react';
+import type { FitDetailDto, FitResultsDto } from '@shared/fits';
+import { Cautions } from '@/components/Cautions';
+import { Notice } from '@/components/Notice';
+import { CvChart } from '../charts/CvChart';
+import { PathChart } from '../charts/PathChart';
+import { useChooseLambda } from '../api/choose-lambda';
+import { CertificateTable } from '../tables/CertificateTable';
+import { CoefficientTable } from '../tables/CoefficientTable';
+import { ApplyPanel } from './ApplyPanel';
+import { EvaluationPanel } from './EvaluationPanel';
+import { LambdaChooser } from './LambdaChooser';
+
+export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit: FitDetailDto; results: FitResultsDto; workspaceId: string; canChoose: boolean }) {
+  const choose = useChooseLambda(workspaceId, fit.id);
+  const [scale, setScale] = useState<'original' | 'standardized'>('standardized');
+  const onChoose = canChoose ? (index: number) => choose.mutate({ index }) : undefined;
+  const index = results.chosen.index;
+  return (
+    <div className="space-y-6">
+      {fit.unconverged && (
+        <Notice tone="error">
+          Some solves stopped at their iteration limit{results.unconvergedLambdas.length ? ` (lambda positions ${results.unconvergedLambdas.map((i) => i + 1).join(', ')})` : ''}
+          {results.cv?.unconvergedFolds.length ? ` or in folds ${results.cv.unconvergedFolds.map((f) => f + 1).join(', ')}` : ''}. Their results are not certified; see the solver certificates below.
+        </Notice>
+      )}
+      <LambdaChooser results={results} canChoose={canChoose} busy={choose.isPending} error={choose.error} onChoose={(input) => choose.mutate(input)} />
+      <Cautions />
+      <div className="grid gap-4 xl:grid-cols-2">
+        {results.cv ? (
+          <CvChart lambda={results.lambda} cv={results.cv} chosenIndex={index} onChoose={onChoose} />
+        ) : (
+          <Notice>No cross-validation in this version: the lambda is the end of the path unless chosen by hand.</Notice>
+        )}
+        <div className="space-y-2">
+          <label className="flex items-center gap-2 text-sm">
+            <span className="font-bold">Path scale</span>
+            <select value={scale} onChange={(e) => setScale(e.target.value as typeof scale)} className="rounded border border-slate-300 px-1 py-0.5 dark:border-slate-700 dark:bg-slate-950">
+              <option value="standardized">Standardized</option>
+              <option value="original">Original units</option>
+            </select>
+          </label>
+          <PathChart
+            lambda={results.lambda}
+            coefficients={scale === 'original' ? results.coefficients : results.standardizedCoefficients}
+            terms={results.terms}
+            chosenIndex={index}
+            onChoose={onChoose}
+            scaleLabel={scale === 'original' ? 'original units' : 'standardized'}
+          />
+        </div>
+      </div>
+      <CoefficientTable results={results} index={index} />
+      <EvaluationPanel evaluation={results.evaluation} />
+      <CertificateTable results={results} />
+      {results.notes.length > 0 && (
+        <section aria-labelledby="notes-heading" className="rounded-lg border border-slate-200 bg-white p-4 text-sm dark:border-slate-800 dark:bg-slate-900">
+          <h2 id="notes-heading" className="font-bold">
+            Notes from the fit
+          </h2>
+          <ul className="mt-1 list-disc space-y-1 pl-5">
+            {results.notes.map((n) => (
+              <li key={n}>{n}</li>
+            ))}
+          </ul>
+          <p className="mt-2 text-xs text-slate-600 dark:text-slate-400">
+            {results.rowsFitted} rows fitted{results.rowsDropped ? `, ${results.rowsDropped} left out for missing values` : ''}.
+          </p>
+        </section>
+      )}
+      <ApplyPanel workspaceId={workspaceId} fitId={fit.id} binomial={fit.family === 'binomial'} />
+    </div>
+  );
+}
