@@ -8,7 +8,7 @@ export { validateSpec } from './design/validate';
 export { encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathPrepared, prepareFit } from './path/fitPath';
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
-export { crossProducts, crossProductsByFold, subtractCrossProducts } from './core/crossProducts';
+export { crossProducts, subtractCrossProducts } from './core/crossProducts';
 export { constantColumns } from './core/standardize';
 export { computeLambdaMax, lambdaGrid } from './path/grid';
 export * from './defaults';

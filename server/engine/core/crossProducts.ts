@@ -71,47 +71,6 @@ export function crossProducts(
   return { rows: count, center: c, sums, colSums, response: { center: cy, sum, cross, squares } };
 }
 
-/**
- * Cross products of every row as the sum of each fold's (about the all-row means): the folds' own
- * sums come at no extra cost, and a fold's training rows are then S(all) - S(fold) (one pass of
- * n p^2 / 2 products in all, instead of one for all rows and another for the held-out rows).
- */
-export function crossProductsByFold(
-  design: DesignMatrix,
-  y: Float64Array,
-  foldIds: Int32Array,
-  folds: number,
-): { all: CrossProducts; byFold: CrossProducts[] } {
-  const { n, p, x } = design;
-  const center = new Float64Array(p);
-  for (let j = 0; j < p; j++) {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += x[j * n + i];
-    center[j] = s / n;
-  }
-  let cy = 0;
-  for (let i = 0; i < n; i++) cy += y[i];
-  cy /= n;
-  const rows: number[][] = Array.from({ length: folds }, () => []);
-  for (let i = 0; i < n; i++) rows[foldIds[i]].push(i);
-  const byFold = rows.map((r) => crossProducts(design, r, center, y, cy));
-  const sums = new Float64Array(p * p);
-  const colSums = new Float64Array(p);
-  const cross = new Float64Array(p);
-  let sum = 0;
-  let squares = 0;
-  for (const part of byFold) {
-    for (let t = 0; t < sums.length; t++) sums[t] += part.sums[t];
-    for (let j = 0; j < p; j++) {
-      colSums[j] += (part.colSums as Float64Array)[j];
-      cross[j] += part.response!.cross[j];
-    }
-    sum += part.response!.sum;
-    squares += part.response!.squares;
-  }
-  return { all: { rows: n, center, sums, colSums, response: { center: cy, sum, cross, squares } }, byFold };
-}
-
 /** S(all) - S(part): the cross products of the remaining rows (same centre required). */
 export function subtractCrossProducts(all: CrossProducts, part: CrossProducts): CrossProducts {
   if (all.center.length !== part.center.length || all.center.some((v, j) => v !== part.center[j])) {

@@ -1,7 +1,5 @@
 /** The fold id of every used row of a built design, from the spec's CvSpec. */
-import { findColumn, type BuiltDesign } from '../design/build';
-import { createRng } from '../random';
-import { EngineInputError, type CvSpec, type EngineTable, type FitSpec } from '../types';
+import { createRng, EngineInputError, findColumn, type BuiltDesign, type CvSpec, type EngineTable, type FitSpec } from '../index';
 import { assignFolds, checkFoldsNonEmpty, foldIdsFromColumn } from './folds';
 
 export function foldAssignment(

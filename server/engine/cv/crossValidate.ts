@@ -25,11 +25,9 @@ export interface CvPlan {
  */
 export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvPlan {
   if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  const { built, options, crossProducts, foldIds: summedOver, foldCrossProducts } = prepared ?? encodeForFit(table, spec);
+  const { built, options, crossProducts } = prepared ?? encodeForFit(table, spec);
   const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  // The full fit's per-fold sums serve only if they were made for these very folds.
-  const sameFolds = summedOver !== undefined && summedOver.length === foldIds.length && summedOver.every((f, i) => f === foldIds[i]);
-  const shared = foldShared(table, built, options, foldIds, folds, crossProducts, sameFolds ? foldCrossProducts : undefined);
+  const shared = foldShared(table, built, options, foldIds, folds, crossProducts);
   return { built, options, foldIds, folds, lambda: path.lambda, shared };
 }
 

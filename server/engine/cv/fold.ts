@@ -109,7 +109,7 @@ export function runFoldOnDesign(
   }
   const isTraining = Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1));
   const design = imputeFromTraining(fullDesign, shared.imputed, isTraining);
-  const cross = foldCrossProducts(design, shared, test, y, foldIndex);
+  const cross = foldCrossProducts(design, shared, test, y);
   const fit =
     cross?.response && !lambda.includes(0)
       ? fitPathOnCrossProducts(design.terms, cross, constantColumns(design, train), { ...options, lambda })

@@ -3,7 +3,7 @@
  * (gaussian Gram form: each fold's Gram is S(all) - S(held out), PathOptions.crossProducts), and
  * where values were imputed, so each fold can impute them again from its training rows only.
  */
-import { crossProducts, crossProductsByFold, FULL_GRAM_COLUMNS, subtractCrossProducts, usesGram } from '../index';
+import { crossProducts, FULL_GRAM_COLUMNS, subtractCrossProducts, usesGram } from '../index';
 import type { BuiltDesign, CrossProducts, DesignMatrix, EngineTable, PathOptions } from '../index';
 
 /** A predictor with imputed cells: its design column(s) and the design rows whose value was missing. */
@@ -17,8 +17,6 @@ export interface FoldShared {
   imputed: ImputedPredictor[];
   /** Cross products of all rows of the design (absent when not in the Gram form, or with imputation). */
   crossProducts?: CrossProducts;
-  /** Each fold's own cross products about the same centre, when the full fit summed them (fitPathPrepared). */
-  heldOut?: CrossProducts[];
 }
 
 /** The imputed cells of a built design, found from the table's missing values. */
@@ -50,7 +48,6 @@ export function foldShared(
   foldIds: Int32Array,
   folds: number,
   all?: CrossProducts,
-  heldOut?: CrossProducts[],
 ): FoldShared {
   const imputed = imputedPredictors(table, built);
   const { n, p } = built.design;
@@ -58,24 +55,13 @@ export function foldShared(
   const counts = new Int32Array(folds);
   for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
   const gram = imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
-  if (!gram) return { imputed };
-  if (all && heldOut?.length === folds) return { imputed, crossProducts: all, heldOut };
-  // Always the per-fold sums (never S(all) computed on its own): every caller gets the same numbers.
-  const byFold = crossProductsByFold(built.design, built.y, foldIds, folds);
-  return { imputed, crossProducts: byFold.all, heldOut: byFold.byFold };
+  return gram ? { imputed, crossProducts: all ?? crossProducts(built.design, undefined, undefined, built.y) } : { imputed };
 }
 
 /** The fold's cross products: S(all) - S(held-out rows). */
-export function foldCrossProducts(
-  design: DesignMatrix,
-  shared: FoldShared,
-  test: number[],
-  y?: Float64Array,
-  fold?: number,
-): CrossProducts | undefined {
+export function foldCrossProducts(design: DesignMatrix, shared: FoldShared, test: number[], y?: Float64Array): CrossProducts | undefined {
   if (!shared.crossProducts) return undefined;
   const all = shared.crossProducts;
-  if (fold !== undefined && shared.heldOut?.[fold]) return subtractCrossProducts(all, shared.heldOut[fold]);
   return subtractCrossProducts(all, crossProducts(design, test, all.center, all.response ? y : undefined, all.response?.center));
 }
 

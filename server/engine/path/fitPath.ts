@@ -1,12 +1,11 @@
 import { buildDesign, type BuiltDesign } from '../design/build';
 import { validateSpec } from '../design/validate';
-import { foldAssignment } from '../cv/assign';
 import { EngineInputError, type CrossProducts, type DesignMatrix, type EngineTable, type FitSpec, type PathOptions, type PathResult, type SolveInfo } from '../types';
 import { lambdaGrid } from './grid';
 import { DEFAULT_MAX_ITERATIONS, DEFAULT_PATH_DECADES, DEFAULT_PATH_LENGTH, DEFAULT_TOLERANCE } from '../defaults';
 import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareGramProblem, prepareProblem, usesGram, type PreparedProblem } from './setup';
-import { crossProducts, crossProductsByFold } from '../core/crossProducts';
+import { crossProducts } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
 import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
@@ -158,29 +157,12 @@ export interface PreparedFit {
    * path's Gram comes from them, and cross-validation subtracts each fold's held-out rows from them.
    */
   crossProducts?: CrossProducts;
-  /**
-   * The fold id of every row, when the caller will cross-validate (set before fitPathPrepared): the
-   * all-row cross products are then summed from each fold's, kept in `foldCrossProducts`.
-   */
-  foldIds?: Int32Array;
-  foldCrossProducts?: CrossProducts[];
 }
 
 /** validateSpec, then encodeForFit: the table-level steps every fit shares. */
 export function prepareFit(table: EngineTable, spec: FitSpec): PreparedFit {
   validateSpec(table, spec);
-  const prepared = encodeForFit(table, spec);
-  // With cross-validation ahead, the fold ids are known now: fitPathPrepared then sums the all-row
-  // cross products from each fold's, for whichever caller fits this spec (so every caller gets the
-  // same numbers). An invalid fold set-up is reported by crossValidate, where it belongs.
-  if (spec.cv) {
-    try {
-      prepared.foldIds = foldAssignment(table, spec, spec.cv, prepared.built).foldIds;
-    } catch (error) {
-      if (!(error instanceof EngineInputError)) throw error;
-    }
-  }
-  return prepared;
+  return encodeForFit(table, spec);
 }
 
 /**
@@ -205,17 +187,7 @@ export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
 export function fitPathPrepared(prepared: PreparedFit): PathResult {
   const { built, options } = prepared;
   const { n, p } = built.design;
-  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) {
-    if (prepared.foldIds) {
-      let folds = 0;
-      for (const f of prepared.foldIds) folds = Math.max(folds, f + 1);
-      const { all, byFold } = crossProductsByFold(built.design, built.y, prepared.foldIds, folds);
-      prepared.crossProducts = all;
-      prepared.foldCrossProducts = byFold;
-    } else {
-      prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
-    }
-  }
+  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
   const cp = prepared.crossProducts;
   // The Gram form needs the rows only to check them: the problem comes from the cross products.
   let result: PathResult;
