@@ -46,6 +46,24 @@ export default tseslint.config(
     },
   },
   {
+    // server/engine is pure functions on arrays (README, docs/decisions/0013-no-io-in-engine.md): no file, thread,
+    // process or network access. Reading files lives in server/tabular, threads in server/engine-runner.
+    files: ['server/engine/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              regex: '^(node:)?(fs|fs/promises|worker_threads|child_process|cluster|net|http|https|http2|dgram|dns|tls|readline|module|os|process|stream|inspector|v8|vm)(/.*)?$',
+              message: 'The engine does no I/O: read data in server/tabular, run threads in server/engine-runner.',
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
     files: ['src/**/*.{ts,tsx}'],
     plugins: { 'react-hooks': reactHooks },
     rules: {

@@ -25,7 +25,7 @@ bundle() { # entry, output: written beside it, then renamed, so concurrent runs 
 
 if stale; then
   mkdir -p "$build"
-  bundle "$root/server/engine/cv/worker.ts" "$worker"
+  bundle "$root/server/engine-runner/worker.ts" "$worker"
   bundle "$root/server/cli/main.ts" "$out"
 fi
 exec node "$out" "$@"

@@ -5,7 +5,7 @@
  * unit-variance columns. Each case is a table and a spec without path options; the scripts add
  * pathDecades / tolerance.
  */
-import { readCsvFile } from '../../server/engine/csv';
+import { readCsvFile } from '../../server/tabular/csv';
 import { createRng, type Rng } from '../../server/engine/random';
 import type { EngineColumn, EngineTable, Family, FitSpec } from '../../server/engine/types';
 import { gaussianBenchData } from '../engine/data';

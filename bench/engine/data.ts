@@ -2,7 +2,7 @@
  * Benchmark data written as CSV into bench/out/ (gitignored), with the fold id of each row as a
  * column so Lariat (--fold-column) and scikit-learn use the same folds.
  */
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { closeSync, mkdirSync, openSync, readFileSync, writeSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { assignFolds } from '../../server/engine/cv/folds';
 import { createRng, type Rng } from '../../server/engine/random';
@@ -18,9 +18,18 @@ export interface BenchData {
 
 function writeCsv(path: string, names: string[], n: number, cell: (i: number, j: number) => string): void {
   mkdirSync(dirname(path), { recursive: true });
-  const lines = [names.join(',')];
-  for (let i = 0; i < n; i++) lines.push(names.map((_, j) => cell(i, j)).join(','));
-  writeFileSync(path, `${lines.join('\n')}\n`);
+  const fd = openSync(path, 'w');
+  try {
+    writeSync(fd, `${names.join(',')}\n`);
+    // In chunks of rows: one string for a 600 x 5000 table would be needlessly large.
+    for (let from = 0; from < n; from += 1000) {
+      const lines: string[] = [];
+      for (let i = from; i < Math.min(n, from + 1000); i++) lines.push(names.map((_, j) => cell(i, j)).join(','));
+      writeSync(fd, `${lines.join('\n')}\n`);
+    }
+  } finally {
+    closeSync(fd);
+  }
 }
 
 /**
@@ -46,10 +55,47 @@ export function gaussianBenchData(n: number, p: number, active: number, rng: Rng
   return { x, y };
 }
 
-/** The gaussian benchmark data (gaussianBenchData) with seeded fold ids, written as CSV. */
-export function writeGaussian(path: string, n: number, p: number, active: number, folds: number, seed: number): BenchData {
+/**
+ * Data as it comes in practice (issue 9's measurement): columns on very different scales (standard
+ * deviations 10^-2 to 10^3) and offsets (means up to +-1000), neighbouring columns correlated about
+ * 0.5 (an AR(1) chain along the columns, rho = 0.5), `active` true effects at spread-out positions,
+ * signal-to-noise variance ratio about 3. Values are written with 7 significant digits (plain
+ * decimals); x and y here hold exactly what the CSV holds.
+ */
+export function realisticBenchData(n: number, p: number, active: number, rng: Rng): { x: Float64Array; y: Float64Array } {
+  const rho = 0.5;
+  const x = new Float64Array(n * p);
+  const y = new Float64Array(n);
+  const scale = Float64Array.from({ length: p }, () => 10 ** (-2 + 5 * rng.next()));
+  const offset = Float64Array.from({ length: p }, () => (rng.next() < 0.5 ? 0 : 2000 * (rng.next() - 0.5)));
+  const z = new Float64Array(n);
+  for (let j = 0; j < p; j++) {
+    for (let i = 0; i < n; i++) {
+      z[i] = j === 0 ? rng.normal() : rho * z[i] + Math.sqrt(1 - rho * rho) * rng.normal();
+      x[j * n + i] = Number((offset[j] + scale[j] * z[i]).toPrecision(7));
+    }
+  }
+  // Effects on the standardized scale of +-1 down to +-0.5, spread over the columns.
+  const effects: [number, number][] = Array.from({ length: active }, (_, k) => [
+    Math.floor(((k + 0.5) * p) / active),
+    (k % 2 === 0 ? 1 : -1) * (1 - k / (2 * active)),
+  ]);
+  let signalVar = 0;
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    for (const [j, b] of effects) s += (b * (x[j * n + i] - offset[j])) / scale[j];
+    y[i] = s;
+    signalVar += s * s;
+  }
+  const sigma = Math.sqrt(signalVar / n / 3);
+  for (let i = 0; i < n; i++) y[i] = Number((50 + y[i] + sigma * rng.normal()).toPrecision(7));
+  return { x, y };
+}
+
+/** The realistic benchmark data (realisticBenchData) with seeded fold ids, written as CSV. */
+export function writeRealistic(path: string, n: number, p: number, active: number, folds: number, seed: number): BenchData {
   const rng = createRng(seed);
-  const { x, y } = gaussianBenchData(n, p, active, rng);
+  const { x, y } = realisticBenchData(n, p, active, rng);
   const foldIds = assignFolds(n, folds, () => rng.next());
   const names = ['y', ...Array.from({ length: p }, (_, j) => `x${j + 1}`), 'fold'];
   writeCsv(path, names, n, (i, j) => (j === 0 ? String(y[i]) : j <= p ? String(x[(j - 1) * n + i]) : String(foldIds[i])));
@@ -75,11 +121,12 @@ export function writeBreastCancer(path: string, folds: number, seed: number): Be
 }
 
 /**
- * The shared grid: lambda_max = max_j |x_j'(y - mean y)| / (n sd_j) on standardized columns (the
- * gradient at the null model; the same formula for gaussian and binomial, since the null model's
- * fitted mean is mean y in both), then `length` values log-spaced down to ratio * lambda_max.
+ * The shared grid: lambda_max = max_j |x_j'(y - mean y)| / (n sd_j) on standardized columns (sd_j = 1
+ * unstandardized: centred columns on their own scale) (the gradient at the null model; the same
+ * formula for gaussian and binomial, since the null model's fitted mean is mean y in both), then
+ * `length` values log-spaced down to ratio * lambda_max.
  */
-export function sharedGrid(data: BenchData, length: number, ratio: number): number[] {
+export function sharedGrid(data: BenchData, length: number, ratio: number, standardize = true): number[] {
   const { n, p, x, y } = data;
   const yMean = y.reduce((a, b) => a + b, 0) / n;
   let lambdaMax = 0;
@@ -92,7 +139,7 @@ export function sharedGrid(data: BenchData, length: number, ratio: number): numb
       ss += (col[i] - mean) ** 2;
       cross += (col[i] - mean) * (y[i] - yMean);
     }
-    const sd = Math.sqrt(ss / n);
+    const sd = standardize ? Math.sqrt(ss / n) : 1;
     if (sd > 0) lambdaMax = Math.max(lambdaMax, Math.abs(cross) / (n * sd));
   }
   return Array.from({ length }, (_, k) => lambdaMax * ratio ** (k / (length - 1)));

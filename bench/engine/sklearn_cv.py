@@ -6,7 +6,8 @@ standard deviation, the penalty applies to the standardized coefficients, the la
 and the CV error is the mean over folds of each fold's mean held-out loss. Also fits the full-data
 path, as Lariat does. Prints one JSON object.
 
-usage: sklearn_cv.py DATA.csv RESPONSE FOLD_COLUMN GRID.json TOL   (gaussian lasso only)
+usage: sklearn_cv.py DATA.csv RESPONSE FOLD_COLUMN GRID.json TOL [raw]   (gaussian lasso only)
+`raw`: columns centred only (Lariat's --no-standardize).
 """
 import json
 import sys
@@ -21,8 +22,13 @@ import warnings
 warnings.simplefilter("ignore", ConvergenceWarning)
 
 
+STANDARDIZE = True
+
+
 def standardize(x_train, x_other):
     mu = x_train.mean(axis=0)
+    if not STANDARDIZE:
+        return x_train - mu, x_other - mu
     sd = x_train.std(axis=0)  # population sd (ddof=0), as Lariat
     sd[sd == 0] = 1.0
     return (x_train - mu) / sd, (x_other - mu) / sd
@@ -41,11 +47,14 @@ def gaussian_fold(x_train, y_train, x_test, y_test, grid, tol):
 
 
 def main():
+    global STANDARDIZE
     data, response, fold_column, grid_file, tol = sys.argv[1:6]
+    STANDARDIZE = not (len(sys.argv) > 6 and sys.argv[6] == "raw")
     started = time.perf_counter()
     with open(data) as f:
         header = f.readline().strip().split(",")
     table = np.loadtxt(data, delimiter=",", skiprows=1)
+    read_seconds = time.perf_counter() - started
     y = table[:, header.index(response)]
     folds = table[:, header.index(fold_column)].astype(int)
     keep = [j for j, name in enumerate(header) if name not in (response, fold_column)]
@@ -64,6 +73,7 @@ def main():
         "mean": mean.tolist(),
         "minimumIndex": int(np.argmin(mean)),
         "seconds": time.perf_counter() - started,
+        "readSeconds": read_seconds,
     }))
 
 

@@ -7,6 +7,11 @@ import { existsSync, readFileSync } from 'node:fs';
 
 export interface Measured {
   wallSeconds: number;
+  /**
+   * User + system CPU seconds of the process and its children (GNU time only; NaN otherwise). On a
+   * shared machine wall time swings with the other load; CPU time much less.
+   */
+  cpuSeconds: number;
   /** Peak resident set size in MiB; NaN when it could not be read. */
   peakMiB: number;
   exitCode: number;
@@ -16,6 +21,8 @@ export interface Measured {
 
 const GNU_TIME = '/usr/bin/time';
 const PEAK = /Maximum resident set size \(kbytes\): (\d+)/;
+const USER = /User time \(seconds\): ([\d.]+)/;
+const SYSTEM = /System time \(seconds\): ([\d.]+)/;
 
 export function measureProcess(
   command: string,
@@ -48,7 +55,10 @@ export function measureProcess(
       const wallSeconds = Number(process.hrtime.bigint() - started) / 1e9;
       const m = useTime ? PEAK.exec(stderr) : null;
       const peakKb = m ? Number(m[1]) : polledKb;
-      resolve({ wallSeconds, peakMiB: peakKb / 1024, exitCode: code ?? -1, stdout, stderr });
+      const user = useTime ? USER.exec(stderr) : null;
+      const system = useTime ? SYSTEM.exec(stderr) : null;
+      const cpuSeconds = user && system ? Number(user[1]) + Number(system[1]) : Number.NaN;
+      resolve({ wallSeconds, cpuSeconds, peakMiB: peakKb / 1024, exitCode: code ?? -1, stdout, stderr });
     });
   });
 }

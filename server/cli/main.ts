@@ -4,8 +4,9 @@
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
 import { readFileSync } from 'node:fs';
-import { crossValidate, crossValidateAdaptive, crossValidateInWorkers } from '../engine/cv';
-import { readCsvFile } from '../engine/csv';
+import { crossValidate } from '../engine/cv';
+import { crossValidateAdaptive, crossValidateInWorkers } from '../engine-runner';
+import { readCsvFile } from '../tabular/csv';
 import { EngineInputError, fitPathPrepared, prepareFit, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
 import { parseFitOptions, UsageError, type FitOptions } from './args';
 import { HELP } from './help';

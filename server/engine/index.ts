@@ -5,10 +5,11 @@
 export { buildDesign, findColumn, selectRows } from './design/build';
 export type { BuiltDesign } from './design/build';
 export { validateSpec } from './design/validate';
-export { encodeForFit, fitPath, fitPathOnDesign, fitPathPrepared, prepareFit } from './path/fitPath';
+export { encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathPrepared, prepareFit } from './path/fitPath';
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
 export { crossProducts, subtractCrossProducts } from './core/crossProducts';
+export { constantColumns } from './core/standardize';
 export { computeLambdaMax, lambdaGrid } from './path/grid';
 export * from './defaults';
 export { createRng } from './random';

@@ -84,7 +84,15 @@ export interface SolveInfo {
   /** FISTA iterations plus the active-set polish's linear solves and Newton steps (both limited). */
   iterations: number;
   timeMs: number;
+  /**
+   * What ended the solve: 'warm-start' (the previous solution already met the tolerance), 'polish'
+   * (the active-set polish's point met it), 'gap' (a FISTA iterate met it), 'factorization' (lambda =
+   * 0: the unpenalized fit), 'iteration-limit' or 'numerical-failure'.
+   */
+  stoppedBy: StopRule;
 }
+
+export type StopRule = 'warm-start' | 'polish' | 'gap' | 'factorization' | 'iteration-limit' | 'numerical-failure';
 
 export interface PathResult {
   family: Family;
@@ -163,7 +171,7 @@ export interface PathOptions {
   crossProducts?: CrossProducts;
   /**
    * Lasso and elastic net: finish each solve with the active-set polish (exact solve on the support,
-   * core/polish.ts); default true. false leaves FISTA alone (for comparisons and tests).
+   * core/polish.ts, docs/decisions/0010-active-set-polish.md); default true. false leaves FISTA alone (for comparisons and tests).
    */
   polish?: boolean;
 }
@@ -173,6 +181,10 @@ export interface CrossProducts {
   rows: number;
   center: Float64Array;
   sums: Float64Array;
+  /** sum_i (x_i - center): the rows' means follow (center + colSums / rows). */
+  colSums?: Float64Array;
+  /** The response's sums about its own centre: sum (y - cy), sum (x - c)(y - cy), sum (y - cy)^2. */
+  response?: { center: number; sum: number; cross: Float64Array; squares: number };
 }
 
 /** How one predictor column becomes design columns (for applying a stored fit to new rows). */

@@ -1,7 +1,7 @@
 /**
  * The quote-free reader, for files with no `"` and one line ending throughout (LF, or CRLF on every
  * line): lines are split on bytes, and plain decimals become numbers without a string per cell
- * (server/engine/csv-scan.ts). Without quotes papaparse splits exactly so (lines at the newline, fields at the
+ * (server/tabular/csv-scan.ts). Without quotes papaparse splits exactly so (lines at the newline, fields at the
  * delimiter), so both readers give the same rows, counts, messages and spilled cells
  * (tests/unit/datasets/read-fast.test.ts compares them).
  */
@@ -9,7 +9,7 @@ import fs from 'node:fs';
 import type { RowCollector } from './collect';
 import { DECIMAL_TRIMMED, type MissingTest } from './missing';
 import type { ReadResult } from './read-papa';
-import { scanCell, scanned } from '../../engine/csv-scan';
+import { scanCell, scanned } from '../../tabular/csv-scan';
 import { Utf8Check } from './utf8-check';
 
 const NEWLINE = 10;

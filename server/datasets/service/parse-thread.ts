@@ -16,7 +16,7 @@ import { ParseSession, type ParsedColumn } from './parse-session';
 
 /**
  * Node 20 resolves a worker's entry file before `--import tsx` hooks apply, so a `.ts` entry fails;
- * a small evaluated bootstrap registers tsx's ESM hooks first (as server/engine/cv/parallel.ts does).
+ * a small evaluated bootstrap registers tsx's ESM hooks first (as server/engine-runner/parallel.ts does).
  */
 function startWorker(): Worker {
   const tsxRoot = dirname(createRequire(import.meta.url).resolve('tsx/package.json'));

@@ -9,7 +9,13 @@ import { GramCache } from './gram';
  * gramFromCrossProducts). Centring about c first keeps the sums free of the cancellation that raw
  * sums x_i x_i' suffer when means are large against spreads.
  */
-export function crossProducts(design: DesignMatrix, rows?: ArrayLike<number>, center?: Float64Array): CrossProducts {
+export function crossProducts(
+  design: DesignMatrix,
+  rows?: ArrayLike<number>,
+  center?: Float64Array,
+  y?: Float64Array,
+  yCenter?: number,
+): CrossProducts {
   const { p } = design;
   const count = rows ? rows.length : design.n;
   const row = (i: number): number => (rows ? rows[i] : i);
@@ -22,7 +28,16 @@ export function crossProducts(design: DesignMatrix, rows?: ArrayLike<number>, ce
     }
   }
   const centred = new Float64Array(count * p);
-  for (let j = 0; j < p; j++) for (let i = 0; i < count; i++) centred[j * count + i] = design.x[j * design.n + row(i)] - c[j];
+  const colSums = new Float64Array(p);
+  for (let j = 0; j < p; j++) {
+    let sum = 0;
+    for (let i = 0; i < count; i++) {
+      const v = design.x[j * design.n + row(i)] - c[j];
+      centred[j * count + i] = v;
+      sum += v;
+    }
+    colSums[j] = sum;
+  }
   const sums = new Float64Array(p * p);
   if (count > 0) {
     const gram = new GramCache(centred, count, p);
@@ -32,7 +47,28 @@ export function crossProducts(design: DesignMatrix, rows?: ArrayLike<number>, ce
       for (let k = 0; k < p; k++) sums[j * p + k] = col[k] * count;
     }
   }
-  return { rows: count, center: c, sums };
+  if (!y) return { rows: count, center: c, sums, colSums };
+  let cy = yCenter ?? 0;
+  if (yCenter === undefined) {
+    for (let i = 0; i < count; i++) cy += y[row(i)];
+    cy = count > 0 ? cy / count : 0;
+  }
+  const yc = new Float64Array(count);
+  let sum = 0;
+  let squares = 0;
+  for (let i = 0; i < count; i++) {
+    yc[i] = y[row(i)] - cy;
+    sum += yc[i];
+    squares += yc[i] * yc[i];
+  }
+  const cross = new Float64Array(p);
+  for (let j = 0; j < p; j++) {
+    let s = 0;
+    const off = j * count;
+    for (let i = 0; i < count; i++) s += centred[off + i] * yc[i];
+    cross[j] = s;
+  }
+  return { rows: count, center: c, sums, colSums, response: { center: cy, sum, cross, squares } };
 }
 
 /** S(all) - S(part): the cross products of the remaining rows (same centre required). */
@@ -42,7 +78,13 @@ export function subtractCrossProducts(all: CrossProducts, part: CrossProducts): 
   }
   const sums = new Float64Array(all.sums.length);
   for (let t = 0; t < sums.length; t++) sums[t] = all.sums[t] - part.sums[t];
-  return { rows: all.rows - part.rows, center: Float64Array.from(all.center), sums };
+  const out: CrossProducts = { rows: all.rows - part.rows, center: Float64Array.from(all.center), sums };
+  if (all.colSums && part.colSums) out.colSums = Float64Array.from(all.colSums, (v, j) => v - (part.colSums as Float64Array)[j]);
+  const [a, b] = [all.response, part.response];
+  if (a && b && a.center === b.center) {
+    out.response = { center: a.center, sum: a.sum - b.sum, cross: Float64Array.from(a.cross, (v, j) => v - b.cross[j]), squares: a.squares - b.squares };
+  }
+  return out;
 }
 
 /**

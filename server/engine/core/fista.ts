@@ -1,4 +1,4 @@
-import type { SolveStatus } from '../types';
+import type { SolveStatus, StopRule } from '../types';
 import type { BoundLoss } from './loss';
 
 /** What the solver needs: the loss, the prox of step * lambda * P, and the relative duality gap. */
@@ -6,8 +6,6 @@ export interface SolverRoles {
   size: number;
   loss: BoundLoss;
   prox(z: Float64Array, out: Float64Array, step: number): void;
-  /** lambda * P(w). */
-  penalty(w: Float64Array): number;
   /** Relative duality gap at w (image img). */
   gap(w: Float64Array, img: Float64Array): number;
   /**
@@ -31,6 +29,8 @@ export interface SolverOutcome {
   gap: number;
   iterations: number;
   lipschitz: number;
+  /** Which point met the tolerance (or why the solver stopped). */
+  stoppedBy: StopRule;
 }
 
 /**
@@ -40,9 +40,12 @@ export interface SolverOutcome {
  * gradient schemes", Found. Comput. Math. 15): momentum is reset when (y_k - x_{k+1})'(x_{k+1} - x_k)
  * > 0. Minimizes loss(w) + lambda P(w) from the warm start in `w`, which receives the solution.
  * Stops when the relative duality gap <= tolerance (checked every `checkEvery` iterations).
- * With roles.polish, the polished point replaces the iterate whenever its duality gap is no larger:
- * tried on the warm start, whenever the sign pattern has held between two gap checks, and once more
- * when the tolerance is reached (FISTA then only has to find the support; the gap stays the test).
+ * Stops as soon as the asked tolerance is met, and says by which point (SolverOutcome.stoppedBy):
+ * the warm start, the polish, or a FISTA iterate. With roles.polish, the polished point replaces the
+ * iterate whenever its duality gap is no larger: tried on the warm start when that does not meet the
+ * tolerance, and whenever the sign pattern has held between two gap checks (FISTA then only has to
+ * find the support; the gap stays the test). A point that meets the tolerance is returned as it is,
+ * not polished further.
  * Reported iterations are FISTA iterations plus the polish's solves; both count against the limit.
  */
 export function fista(roles: SolverRoles, w: Float64Array, options: SolverOptions): SolverOutcome {
@@ -60,9 +63,8 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   let lipschitz = options.lipschitz > 0 ? options.lipschitz : 1;
   let t = 1;
 
-  // With a polish, its candidate is tried first and the warm start's gap is computed only when that
-  // candidate does not already meet the tolerance (along a path it usually does: one gap saved).
-  let gap = roles.polish ? Infinity : roles.gap(x, imgX);
+  // Where the current x came from, for SolverOutcome.stoppedBy.
+  let source: StopRule = 'warm-start';
   const polisher = roles.polish ? new Polisher(size, m) : null;
   let spent = 0;
   let it = 0;
@@ -84,23 +86,12 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     imgY.set(imgX);
     t = 1;
     gap = found.gap;
+    source = 'polish';
   };
-  if (polisher) {
-    const warm = Float64Array.from(x);
-    polish();
-    if (!(gap <= options.tolerance)) {
-      const warmImage = new Float64Array(m);
-      loss.image(warm, warmImage);
-      const warmGap = roles.gap(warm, warmImage);
-      if (!(gap <= warmGap)) {
-        x.set(warm);
-        imgX.set(warmImage);
-        yv.set(x);
-        imgY.set(imgX);
-        gap = warmGap;
-      }
-    }
-  }
+  // The warm start's gap first: along a path, and with a loose tolerance, the previous lambda's
+  // solution often meets it already (stoppedBy 'warm-start'); otherwise the polish is tried on it.
+  let gap = roles.gap(x, imgX);
+  if (polisher && !(gap <= options.tolerance)) polish();
   if (!Number.isFinite(gap)) return finish('numerical-failure', gap, 0);
   if (gap <= options.tolerance) return finish('converged', gap, 0);
 
@@ -145,8 +136,10 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
         loss.image(yv, imgY);
       }
       gap = roles.gap(x, imgX);
+      source = 'gap';
       if (!Number.isFinite(gap)) return finish('numerical-failure', gap, it);
-      if (gap <= options.tolerance || polisher?.stable(x)) polish();
+      if (gap <= options.tolerance) return finish('converged', gap, it);
+      if (polisher?.stable(x)) polish();
       if (gap <= options.tolerance) return finish('converged', gap, it);
     }
   }
@@ -155,7 +148,8 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   function finish(status: SolveStatus, finalGap: number, iterations: number): SolverOutcome {
     // After a numerical failure the warm start is kept: never hand back non-finite coefficients.
     if (status !== 'numerical-failure') w.set(x);
-    return { status, gap: finalGap, iterations: iterations + spent, lipschitz };
+    const stoppedBy: StopRule = status === 'converged' ? source : status;
+    return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy };
   }
 }
 

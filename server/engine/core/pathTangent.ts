@@ -1,8 +1,8 @@
-import type { Problem } from './problem';
+import type { SupportMemory } from './loss/role';
 import { solveSymmetric } from './symmetric';
 
 /**
- * The solution's tangent along the path, kept per problem from one polish to the next: on a fixed
+ * The solution's tangent along the path, kept in the path's memory from one polish to the next: on a fixed
  * support and signs the optimality condition grad L(b) + l1 s + l2 b = 0 (l1, l2 proportional to
  * lambda) gives H db/dlambda = -(l1 s + l2 b) / lambda, with H the Hessian at the solution. The
  * next lambda's Newton then starts from the first-order prediction b + (lambda' - lambda) db/dlambda
@@ -10,15 +10,13 @@ import { solveSymmetric } from './symmetric';
  * Methods", ch. 2), which saves about one Newton step per lambda. Applied only when the start is the
  * recorded solution and the support and signs are unchanged.
  */
-interface Tangent {
+export interface Tangent {
   lambda: number;
   features: Int32Array;
   signs: Int8Array;
   solution: Float64Array;
   direction: Float64Array;
 }
-
-const tangents = new WeakMap<Problem, Tangent>();
 
 function sameArrays(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   if (a.length !== b.length) return false;
@@ -27,8 +25,8 @@ function sameArrays(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
 }
 
 /** Moves `beta` (support values, then the intercept) to the prediction for `lambda` when it applies. */
-export function predict(problem: Problem, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): void {
-  const t = tangents.get(problem);
+export function predict(memory: SupportMemory, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): void {
+  const t = memory.tangent;
   if (!t || !(lambda < t.lambda) || !sameArrays(t.features, features) || !sameArrays(t.signs, signs) || !sameArrays(t.solution, beta)) return;
   const delta = lambda - t.lambda;
   for (let q = 0; q < beta.length; q++) beta[q] += delta * t.direction[q];
@@ -36,7 +34,7 @@ export function predict(problem: Problem, lambda: number, features: Int32Array, 
 
 /** Records the tangent at a Newton solution (hess: the Hessian with the ridge, at that solution). */
 export function recordTangent(
-  problem: Problem,
+  memory: SupportMemory,
   lambda: number,
   features: Int32Array,
   signs: Int8Array,
@@ -51,5 +49,5 @@ export function recordTangent(
   for (let q = 0; q < m; q++) rhs[q] = -(linear[q] + ridge[q] * beta[q]) / lambda;
   const direction = new Float64Array(m);
   if (!solveSymmetric(hess, m, rhs, direction)) return;
-  tangents.set(problem, { lambda, features, signs, solution: Float64Array.from(beta), direction });
+  memory.tangent = { lambda, features, signs, solution: Float64Array.from(beta), direction };
 }

@@ -96,37 +96,6 @@ export function blockConjugate(norm: number, lambda: number, weight: number, alp
   return excess > 0 ? (excess * excess) / (2 * lambda * weight * (1 - alpha)) : 0;
 }
 
-/**
- * Distance from -gradient to the subdifferential of lambda * P at block b_u (KKT residual):
- * b_u = 0: (||g_u|| - lambda w alpha)_+; otherwise ||g_u + lambda w (alpha b_u/||b_u|| + (1-alpha) b_u)||.
- * `grad` and `coef` are indexed by column.
- */
-export function blockKktDistance(
-  pen: BlockPenalty,
-  u: number,
-  grad: Float64Array,
-  coef: Float64Array,
-  lambda: number,
-): number {
-  const weight = pen.weight[u];
-  let gSq = 0;
-  let bSq = 0;
-  for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
-    const j = pen.features[i];
-    gSq += grad[j] * grad[j];
-    bSq += coef[j] * coef[j];
-  }
-  if (bSq === 0) return Math.max(0, Math.sqrt(gSq) - lambda * weight * pen.alpha);
-  const bNorm = Math.sqrt(bSq);
-  let dSq = 0;
-  for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
-    const j = pen.features[i];
-    const d = grad[j] + lambda * weight * ((pen.alpha * coef[j]) / bNorm + (1 - pen.alpha) * coef[j]);
-    dSq += d * d;
-  }
-  return Math.sqrt(dSq);
-}
-
 /** ||v_u||_2 for a column-indexed vector. */
 export function blockNorm(pen: BlockPenalty, u: number, v: Float64Array): number {
   let sq = 0;

@@ -1,10 +1,8 @@
-import type { Problem, WorkingSet } from './problem';
+import { FREE, type SupportMemory, type SupportProblem } from './loss/role';
+import type { Problem } from './problem';
 import { softplus } from './problem';
 import { predict, recordTangent } from './pathTangent';
 import { solveSymmetric } from './symmetric';
-
-/** Sign code of a coefficient without sign constraint (unpenalized, or lambda = 0). */
-export const FREE = 2;
 const MAX_NEWTON = 50;
 /**
  * A Newton step whose predicted decrease (half the Newton decrement, Boyd & Vandenberghe 2004,
@@ -17,7 +15,8 @@ const ROUNDING = 1e-15;
 const FINAL = 1e-10;
 
 /**
- * Binomial part of the active-set polish (polish.ts): Newton's method with step halving on the
+ * The one logistic Newton loop, used by the binomial active-set polish (polish.ts) and the binomial
+ * null fit (loss/binomial.ts: every sign free, no penalty): Newton's method with step halving on the
  * smooth function of (b_A, b0) that equals the objective while the signs s hold:
  *   (1/n) sum [log(1 + exp(eta_i)) - y_i eta_i] + sum_A (l1_j s_j b_j + l2_j/2 b_j^2),
  * eta = b0 + X_A b_A, l1 = lambda alpha v, l2 = lambda (1 - alpha) v (0 for free columns).
@@ -29,15 +28,12 @@ const FINAL = 1e-10;
  */
 export function newtonOnSupport(
   problem: Problem,
-  ws: WorkingSet,
-  active: number[],
-  sign: Int8Array,
-  l1: Float64Array,
-  l2: Float64Array,
+  support: SupportProblem,
   out: Float64Array,
   maxSteps: number,
-  lambda: number,
+  memory: SupportMemory,
 ): { ok: boolean; steps: number } {
+  const { ws, active, sign, l1, l2, lambda } = support;
   const { n, y } = problem;
   const k = ws.k;
   const m = active.length + 1;
@@ -55,7 +51,7 @@ export function newtonOnSupport(
   }
   const features = Int32Array.from(active, (a) => ws.features[a]);
   const signs = Int8Array.from(active, (a) => sign[a]);
-  predict(problem, lambda, features, signs, beta);
+  predict(memory, lambda, features, signs, beta);
   const etaOf = (v: Float64Array, eta: Float64Array): void => {
     eta.fill(v[m - 1]);
     for (let q = 0; q < m - 1; q++) {
@@ -122,7 +118,7 @@ export function newtonOnSupport(
     }
   }
   if (!done || !Number.isFinite(value)) return { ok: false, steps };
-  recordTangent(problem, lambda, features, signs, beta, hess, linear, ridge);
+  recordTangent(memory, lambda, features, signs, beta, hess, linear, ridge);
   out.fill(0, 0, k);
   for (let q = 0; q < m - 1; q++) out[active[q]] = beta[q];
   out[k] = beta[m - 1];

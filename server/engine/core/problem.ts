@@ -1,5 +1,6 @@
 import type { Family } from '../types';
 import type { GramCache } from './gram';
+import type { LossRole } from './loss';
 import type { BlockPenalty } from './penalty';
 
 /**
@@ -19,11 +20,12 @@ export interface Problem {
   yy: number;
   c: Float64Array;
   gram: GramCache;
-  useGram: boolean;
+  /** The loss role for this family and form (loss/index.ts); set once the problem is built. */
+  loss: LossRole;
   penalty: BlockPenalty;
   /** ||x_j||^2 of each (centred, scaled) column, for Gap Safe spheres. */
   colNormSq: Float64Array;
-  /** Objective at b = 0 with the best intercept: the gap's scale. */
+  /** Objective at b = 0 with the best intercept: the gap's scale (the loss's null objective). */
   nullObjective: number;
 }
 

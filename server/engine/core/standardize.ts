@@ -60,3 +60,24 @@ export function standardizeDesign(design: DesignMatrix, standardize: boolean): S
   }
   return { n, p, x, centers, scales, constant };
 }
+
+/** Columns whose values are all equal over `rows` (default: every row); standardizeDesign's test. */
+export function constantColumns(design: DesignMatrix, rows?: ArrayLike<number>): Uint8Array {
+  const { n, p, x } = design;
+  const count = rows ? rows.length : n;
+  const row = (t: number): number => (rows ? rows[t] : t);
+  const constant = new Uint8Array(p);
+  for (let j = 0; j < p; j++) {
+    const off = j * n;
+    const first = x[off + row(0)];
+    let same = 1;
+    for (let t = 1; t < count; t++) {
+      if (x[off + row(t)] !== first) {
+        same = 0;
+        break;
+      }
+    }
+    constant[j] = same;
+  }
+  return constant;
+}

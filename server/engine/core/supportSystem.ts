@@ -25,6 +25,7 @@ export class SupportSystem {
   solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array): boolean {
     const wanted = new Map<number, number>();
     features.forEach((f, q) => wanted.set(f, q));
+    this.dropUnwanted(wanted, shifts);
     let keep = 0;
     while (keep < this.order.length) {
       const q = wanted.get(this.order[keep]);
@@ -61,6 +62,61 @@ export class SupportSystem {
       out[position[q]] = value;
     }
     return true;
+  }
+
+  /**
+   * Columns that left the support are deleted from the factor in place when every remaining one
+   * keeps its shift (always for the lasso) and no row was skipped: deleting row and column q of
+   * L L' leaves the rows above q as they are and turns the trailing block into a rank-one update
+   * L33 L33' + l32 l32', done by rotations at O(k^2) (Golub & Van Loan 2013, 6.5.4) instead of
+   * refactoring every row after q at O(k m^2).
+   */
+  private dropUnwanted(wanted: Map<number, number>, shifts: number[]): void {
+    const size = this.order.length;
+    let drop = 0;
+    for (let q = 0; q < size; q++) {
+      if (this.skip[q]) return;
+      const at = wanted.get(this.order[q]);
+      if (at === undefined) drop++;
+      else if (this.shift[q] !== shifts[at]) return;
+    }
+    if (drop === 0) return;
+    for (let q = size - 1; q >= 0; q--) if (!wanted.has(this.order[q])) this.removeRow(q);
+  }
+
+  private removeRow(q: number): void {
+    const { stride, m, l } = this;
+    const size = this.order.length;
+    const k = size - q - 1;
+    const x = new Float64Array(k);
+    for (let i = 0; i < k; i++) x[i] = l[(q + 1 + i) * stride + q];
+    // Shift the entries after row / column q up and left (each source lies after its target).
+    const from = (i: number): number => (i < q ? i : i + 1);
+    for (let r = 0; r < size - 1; r++) {
+      for (let c = 0; c < size - 1; c++) m[r * stride + c] = m[from(r) * stride + from(c)];
+    }
+    for (let r = q; r < size - 1; r++) {
+      for (let c = 0; c <= r; c++) l[r * stride + c] = l[(r + 1) * stride + from(c)];
+    }
+    for (let j = 0; j < k; j++) {
+      const jj = (q + j) * stride + q + j;
+      const pivot = l[jj];
+      const radius = Math.hypot(pivot, x[j]);
+      const cos = radius / pivot;
+      const sin = x[j] / pivot;
+      l[jj] = radius;
+      for (let i = j + 1; i < k; i++) {
+        const at = (q + i) * stride + q + j;
+        l[at] = (l[at] + sin * x[i]) / cos;
+        x[i] = cos * x[i] - sin * l[at];
+      }
+    }
+    this.order.splice(q, 1);
+    this.scale.splice(q, 1);
+    this.skip.splice(q, 1);
+    const shift = new Float64Array(size - 1);
+    for (let i = 0; i < size - 1; i++) shift[i] = this.shift[from(i)];
+    this.shift = shift;
   }
 
   /**

@@ -7,9 +7,12 @@
  */
 import {
   EngineInputError,
+  constantColumns,
+  fitPathOnCrossProducts,
   fitPathOnDesign,
   encodeForFit,
   selectRows,
+  type CrossProducts,
   type CvMetricName,
   type DesignMatrix,
   type EngineTable,
@@ -106,9 +109,11 @@ export function runFoldOnDesign(
   }
   const isTraining = Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1));
   const design = imputeFromTraining(fullDesign, shared.imputed, isTraining);
-  const trainSet = selectRows(design, y, train);
-  const cross = foldCrossProducts(design, shared, test);
-  const fit = fitPathOnDesign(trainSet.design, trainSet.y, cross ? { ...options, lambda, crossProducts: cross } : { ...options, lambda });
+  const cross = foldCrossProducts(design, shared, test, y);
+  const fit =
+    cross?.response && !lambda.includes(0)
+      ? fitPathOnCrossProducts(design.terms, cross, constantColumns(design, train), { ...options, lambda })
+      : fitOnRows(design, y, train, cross, { ...options, lambda });
   const testSet = selectRows(design, y, test);
   const nTest = test.length;
   const xt = testSet.design.x;
@@ -126,6 +131,12 @@ export function runFoldOnDesign(
     return kept;
   });
   return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status), support };
+}
+
+/** The fold's training rows copied out, and fitted (with the fold's cross products when given). */
+function fitOnRows(design: DesignMatrix, y: Float64Array, train: number[], cross: CrossProducts | undefined, options: PathOptions) {
+  const trainSet = selectRows(design, y, train);
+  return fitPathOnDesign(trainSet.design, trainSet.y, cross ? { ...options, crossProducts: cross } : options);
 }
 
 /**

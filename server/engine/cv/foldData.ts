@@ -55,13 +55,14 @@ export function foldShared(
   const counts = new Int32Array(folds);
   for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
   const gram = imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
-  return gram ? { imputed, crossProducts: all ?? crossProducts(built.design) } : { imputed };
+  return gram ? { imputed, crossProducts: all ?? crossProducts(built.design, undefined, undefined, built.y) } : { imputed };
 }
 
 /** The fold's cross products: S(all) - S(held-out rows). */
-export function foldCrossProducts(design: DesignMatrix, shared: FoldShared, test: number[]): CrossProducts | undefined {
+export function foldCrossProducts(design: DesignMatrix, shared: FoldShared, test: number[], y?: Float64Array): CrossProducts | undefined {
   if (!shared.crossProducts) return undefined;
-  return subtractCrossProducts(shared.crossProducts, crossProducts(design, test, shared.crossProducts.center));
+  const all = shared.crossProducts;
+  return subtractCrossProducts(all, crossProducts(design, test, all.center, all.response ? y : undefined, all.response?.center));
 }
 
 /**

@@ -1,7 +1,6 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
 export { crossValidate, planCrossValidation, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
-export { crossValidateAdaptive, crossValidateInWorkers, runFoldsAlongside, runFoldsInWorkers } from './parallel';
 export { runFold, runFoldOnDesign, METRICS } from './fold';
 export type { FoldLosses } from './fold';
 export { combineFolds, mainMetric } from './combine';

@@ -4,7 +4,7 @@ import type { StandardizedDesign } from '../core/standardize';
 import { EngineInputError, type DesignMatrix, type SolveInfo } from '../types';
 import { fitUnpenalized, type UnpenalizedResult } from '../unpenalized';
 import { checkFull } from './check';
-import type { LambdaState } from './solveAtLambda';
+import type { PathState } from './solveAtLambda';
 
 /** The exact fit at lambda = 0 on the original scale, recorded instead of record()'s conversion. */
 export interface ZeroFit {
@@ -20,12 +20,12 @@ export interface ZeroFit {
  * the rows fitted. These reach the digits a first-order method cannot (NIST StRD Longley: >= 9
  * significant digits). Terms QR finds aliased (exact linear combinations of the intercept and
  * earlier terms, e.g. the last indicator of a fully encoded categorical predictor) get coefficient 0;
- * the note names them (docs/decisions: aliasing at lambda = 0). The duality gap is then computed
+ * the note names them (docs/decisions/0005-lambda-zero-and-aliased-indicators.md). The duality gap is then computed
  * at the result as for any solve (the dual point projected on X'theta = 0), and the status follows
  * it: 'converged' when gap / null objective <= tolerance, else 'iteration-limit' (e.g. binomial
  * separation, where no finite minimizer exists), with the unpenalized fit's message.
- * Returns null when the factorization cannot be used (fewer rows than coefficients): the caller
- * then solves with FISTA as for any lambda and notes why.
+ * Returns `{ fallback: reason }` when the factorization cannot be used (e.g. fewer rows than
+ * coefficients): the caller then solves with FISTA as for any lambda and notes the reason.
  */
 export function solveAtZero(
   design: DesignMatrix,
@@ -33,7 +33,7 @@ export function solveAtZero(
   problem: Problem,
   dual: DualContext,
   std: StandardizedDesign,
-  state: LambdaState,
+  state: PathState,
   tolerance: number,
 ): ZeroFit | { fallback: string } {
   const started = performance.now();
@@ -76,7 +76,7 @@ export function solveAtZero(
       ? `lambda = 0: ${fit.aliased.map((t) => `"${t}"`).join(', ')} aliased with the intercept and earlier terms (coefficient 0)`
       : `lambda = 0: ${fit.status === 'converged' ? 'unpenalized fit' : fit.status} (${method})`;
   return {
-    info: { status, message, gap, tolerance, iterations: fit.iterations, timeMs: performance.now() - started },
+    info: { status, message, gap, tolerance, iterations: fit.iterations, timeMs: performance.now() - started, stoppedBy: 'factorization' },
     intercept,
     coefficients,
     note,

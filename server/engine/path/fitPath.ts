@@ -4,9 +4,10 @@ import { EngineInputError, type CrossProducts, type DesignMatrix, type EngineTab
 import { lambdaGrid } from './grid';
 import { DEFAULT_MAX_ITERATIONS, DEFAULT_PATH_DECADES, DEFAULT_PATH_LENGTH, DEFAULT_TOLERANCE } from '../defaults';
 import { pathOptionsFromSpec } from './fromSpec';
-import { checkPathOptions, FULL_GRAM_COLUMNS, prepareProblem, usesGram, type PreparedProblem } from './setup';
+import { checkPathOptions, FULL_GRAM_COLUMNS, prepareGramProblem, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
-import { solveAtLambda, type LambdaState } from './solveAtLambda';
+import { constantColumns } from '../core/standardize';
+import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
 
 /**
@@ -19,11 +20,26 @@ import { solveAtZero } from './atZero';
  */
 export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
   checkPathOptions(design, y, options);
-  const { problem, std, nullFit, dual, lambdaMax } = prepareProblem(design, y, options);
-  const { p } = design;
+  return runPath(prepareProblem(design, y, options), design.terms, options, { design, y });
+}
+
+/**
+ * The gaussian Gram-form path from cross products alone (a CV fold's training rows as
+ * S(all) - S(held out), with the response; setup.ts prepareGramProblem): no copy, centring or
+ * scaling of the rows. `constant` marks the columns constant over those rows. Not for grids with
+ * lambda = 0 (its exact factorization needs the rows).
+ */
+export function fitPathOnCrossProducts(terms: string[], cp: CrossProducts, constant: Uint8Array, options: PathOptions): PathResult {
+  if (options.lambda?.includes(0)) throw new EngineInputError('lambda = 0 needs the rows, not only their cross products', 'lambda');
+  return runPath(prepareGramProblem(cp, constant, terms, options), terms, options, null);
+}
+
+function runPath(prepared: PreparedProblem, terms: string[], options: PathOptions, rows: { design: DesignMatrix; y: Float64Array } | null): PathResult {
+  const { problem, std, nullFit, dual, lambdaMax } = prepared;
+  const { p } = std;
   const notes: string[] = [];
   for (let j = 0; j < p; j++) {
-    if (std.constant[j]) notes.push(`column "${design.terms[j]}" is constant over the rows fitted; its coefficient is 0`);
+    if (std.constant[j]) notes.push(`column "${terms[j]}" is constant over the rows fitted; its coefficient is 0`);
   }
   if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && (options.l1Share ?? 1) < 1) {
     notes.push('Gap Safe screening is used for an L1 share of 1 only; this elastic-net fit uses the strong rule with KKT checks');
@@ -40,11 +56,17 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
     }
   }
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
-  const state: LambdaState = { coef: Float64Array.from(nullFit.coef), intercept: nullFit.intercept, g: Float64Array.from(nullFit.g), loss: problem.nullObjective };
-  const lipschitz = { value: 0 };
+  const state: PathState = {
+    coef: Float64Array.from(nullFit.coef),
+    intercept: nullFit.intercept,
+    g: Float64Array.from(nullFit.g),
+    loss: problem.nullObjective,
+    lipschitz: 0,
+    support: {},
+  };
   const result: PathResult = {
     family: options.family,
-    terms: [...design.terms],
+    terms: [...terms],
     lambda: [],
     lambdaMax,
     intercept: [],
@@ -61,8 +83,8 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
   };
   let previous = Math.max(lambdaMax, grid[0]);
   for (const lambda of grid) {
-    if (lambda === 0) {
-      const zero = solveAtZero(design, y, problem, dual, std, state, tolerance);
+    if (lambda === 0 && rows) {
+      const zero = solveAtZero(rows.design, rows.y, problem, dual, std, state, tolerance);
       if ('info' in zero) {
         record(result, state, zero.info, lambda, std, options.standardize, problem);
         // The factorization's own original-scale numbers, not a round trip through the scales.
@@ -80,7 +102,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
       maxIterations: options.maxIterations ?? DEFAULT_MAX_ITERATIONS,
       screening: options.screening ?? 'strong',
       polish: options.polish ?? true,
-    }, lipschitz);
+    });
     previous = lambda;
     record(result, state, info, lambda, std, options.standardize, problem);
     options.onLambda?.(result.lambda.length, grid.length);
@@ -95,7 +117,7 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
 
 function record(
   result: PathResult,
-  state: LambdaState,
+  state: PathState,
   info: SolveInfo,
   lambda: number,
   std: PreparedProblem['std'],
@@ -106,7 +128,8 @@ function record(
   const standardized = Float64Array.from(state.coef);
   const original = new Float64Array(p);
   let nonzero = 0;
-  const internalIntercept = problem.family === 'gaussian' ? problem.yMean : state.intercept;
+  // Losses without an intercept slot (gaussian) have the closed-form intercept mean(y) on centred columns.
+  const internalIntercept = problem.loss.intercept ? state.intercept : problem.yMean;
   let intercept = internalIntercept;
   for (let j = 0; j < p; j++) {
     if (standardized[j] === 0 || std.scales[j] === 0) continue;
@@ -164,8 +187,16 @@ export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
 export function fitPathPrepared(prepared: PreparedFit): PathResult {
   const { built, options } = prepared;
   const { n, p } = built.design;
-  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design);
-  const result = fitPathOnDesign(built.design, built.y, prepared.crossProducts ? { ...options, crossProducts: prepared.crossProducts } : options);
+  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
+  const cp = prepared.crossProducts;
+  // The Gram form needs the rows only to check them: the problem comes from the cross products.
+  let result: PathResult;
+  if (cp?.response && !options.lambda?.includes(0)) {
+    checkPathOptions(built.design, built.y, options);
+    result = fitPathOnCrossProducts(built.design.terms, cp, constantColumns(built.design), options);
+  } else {
+    result = fitPathOnDesign(built.design, built.y, cp ? { ...options, crossProducts: cp } : options);
+  }
   result.notes.unshift(...built.notes);
   result.encoding = built.encoding;
   return result;

@@ -4,8 +4,8 @@ import { GramCache } from '../core/gram';
 import { buildBlockPenalty } from '../core/penalty';
 import type { Problem } from '../core/problem';
 import { standardizeDesign, type StandardizedDesign } from '../core/standardize';
-import { EngineInputError, type DesignMatrix, type PathOptions } from '../types';
-import { fitNullModel, type NullFit } from './nullFit';
+import { EngineInputError, type CrossProducts, type DesignMatrix, type PathOptions } from '../types';
+import { GRAM_FAMILIES, lossFor, type LossRole, type NullFit } from '../core/loss';
 import { penaltyLambdaMax } from '../core/penalty';
 
 export interface PreparedProblem {
@@ -87,24 +87,28 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
 /** Up to this many columns the Gram form computes all of G at once (see prepareProblem). */
 export const FULL_GRAM_COLUMNS = 500;
 
-/** Gram form for gaussian fits when n is well above p (n >= 2p and p <= 2000), unless overridden. */
+/**
+ * Above this many columns the Gram form is not used: its columns are cached as they are needed and
+ * all of G is p^2 * 8 bytes (32 MB at 2000 columns, 200 MB at 5000), and a long path touches most
+ * columns through its KKT checks, so the cache would grow towards all of it.
+ */
+export const MAX_GRAM_COLUMNS = 2000;
+
+/**
+ * Gram form for gaussian fits when n is well above p (n >= 2p: one Gram column, p products of
+ * length n, is then cheaper to reuse than to recompute n-long residual products every iteration)
+ * and p <= MAX_GRAM_COLUMNS, unless overridden (docs/decisions/0011-gram-form.md).
+ */
 export function usesGram(options: PathOptions, n: number, p: number): boolean {
-  if (options.family !== 'gaussian') return false;
+  if (!GRAM_FAMILIES.has(options.family)) return false;
   if (options.gram === 'always') return true;
   if (options.gram === 'never') return false;
-  return n >= 2 * p && p <= 2000;
+  return n >= 2 * p && p <= MAX_GRAM_COLUMNS;
 }
 
 export function prepareProblem(design: DesignMatrix, y: Float64Array, options: PathOptions): PreparedProblem {
   const { n, p } = design;
   const std = standardizeDesign(design, options.standardize);
-  const isGroup = options.penalty === 'group-lasso';
-  const alpha = options.penalty === 'elastic-net' ? (options.l1Share as number) : 1;
-  const weightOf = (j: number): number => (options.penaltyWeights ? options.penaltyWeights[j] : 1);
-  const penalty = buildBlockPenalty(p, std.constant, alpha, isGroup ? (options.groupOfTerm ?? null) : null, (id, size, members) =>
-    isGroup ? (options.groupWeights && id < options.groupWeights.length ? options.groupWeights[id] : Math.sqrt(size)) * weightOf(members[0]) : weightOf(members[0]),
-  );
-
   let yMean = 0;
   for (let i = 0; i < n; i++) yMean += y[i];
   yMean /= n;
@@ -114,10 +118,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
     yWork[i] = options.family === 'gaussian' ? y[i] - yMean : y[i];
     yy += (y[i] - yMean) * (y[i] - yMean);
   }
-  if (options.family === 'gaussian' && yy === 0) throw new EngineInputError('the response is constant: there is nothing to fit', 'response');
-  if (options.family === 'binomial' && (yMean === 0 || yMean === 1)) {
-    throw new EngineInputError(`the binomial response has only ${yMean === 0 ? 0 : 1}s: both classes are needed`, 'response');
-  }
+  checkResponse(options, yMean, yy);
   const c = new Float64Array(p);
   const colNormSq = new Float64Array(p);
   for (let j = 0; j < p; j++) {
@@ -136,32 +137,104 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
       throw new EngineInputError(`column "${design.terms[j]}" has values too large to fit (their squares overflow); rescale it`, design.terms[j]);
     }
   }
-  const nullObjective =
-    options.family === 'gaussian' ? yy / (2 * n) : -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean));
+  const form = usesGram(options, n, p) ? 'gram' : 'design';
+  const gram = new GramCache(std.x, n, p);
+  // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
+  // is cheaper than column by column as the working set grows.
+  if (form === 'gram' && options.crossProducts) gramFromCrossProducts(gram, options.crossProducts, n, std.centers, std.scales);
+  else if (form === 'gram' && p <= FULL_GRAM_COLUMNS) gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+  return finishProblem(options, std, { y: yWork, yMean, yy, c, colNormSq, gram, form });
+}
+
+function checkResponse(options: PathOptions, yMean: number, yy: number): void {
+  if (options.family === 'gaussian' && yy === 0) throw new EngineInputError('the response is constant: there is nothing to fit', 'response');
+  if (options.family === 'binomial' && (yMean === 0 || yMean === 1)) {
+    throw new EngineInputError(`the binomial response has only ${yMean === 0 ? 0 : 1}s: both classes are needed`, 'response');
+  }
+}
+
+/**
+ * The gaussian Gram form from cross products alone (a CV fold: S(all) - S(held out), response
+ * included, crossProducts.ts), without touching the rows: centres, scales, G, c = X'yc/n, ||yc||^2
+ * and the column norms all follow from the sums. `constant` marks columns constant over the rows
+ * (found by the caller from the values: sums cannot tell a constant column exactly). The problem has
+ * no X: only Gram-form code runs on it (no lambda = 0 factorization; the caller checks).
+ */
+export function prepareGramProblem(cp: CrossProducts, constant: Uint8Array, terms: string[], options: PathOptions): PreparedProblem {
+  const n = cp.rows;
+  const p = cp.center.length;
+  const response = cp.response;
+  if (!response || !cp.colSums) throw new EngineInputError('cross products: the response and column sums are needed', 'crossProducts');
+  const centers = new Float64Array(p);
+  const scales = new Float64Array(p);
+  const shift = new Float64Array(p);
+  for (let j = 0; j < p; j++) {
+    shift[j] = cp.colSums[j] / n;
+    centers[j] = cp.center[j] + shift[j];
+    if (constant[j]) continue;
+    const variance = Math.max(0, cp.sums[j * p + j] / n - shift[j] * shift[j]);
+    scales[j] = options.standardize ? Math.sqrt(variance) : 1;
+  }
+  const yShift = response.sum / n;
+  const yMean = response.center + yShift;
+  const yy = response.squares - n * yShift * yShift;
+  checkResponse(options, yMean, yy);
+  const c = new Float64Array(p);
+  for (let j = 0; j < p; j++) if (scales[j] > 0) c[j] = (response.cross[j] - n * shift[j] * yShift) / (n * scales[j]);
+  const empty = new Float64Array(0);
+  const gram = new GramCache(empty, n, p);
+  gramFromCrossProducts(gram, cp, n, centers, scales);
+  const colNormSq = Float64Array.from({ length: p }, (_, j) => n * gram.column(j)[j]);
+  for (let j = 0; j < p; j++) {
+    if (!Number.isFinite(colNormSq[j]) || !Number.isFinite(c[j])) {
+      throw new EngineInputError(`column "${terms[j]}" has values too large to fit (their squares overflow); rescale it`, terms[j]);
+    }
+  }
+  const std: StandardizedDesign = { n, p, x: empty, centers, scales, constant };
+  return finishProblem(options, std, { y: empty, yMean, yy, c, colNormSq, gram, form: 'gram' });
+}
+
+interface ProblemParts {
+  y: Float64Array;
+  yMean: number;
+  yy: number;
+  c: Float64Array;
+  colNormSq: Float64Array;
+  gram: GramCache;
+  form: 'design' | 'gram';
+}
+
+/** The penalty, the loss, the null fit, lambda_max and the dual context of a problem. */
+function finishProblem(options: PathOptions, std: StandardizedDesign, parts: ProblemParts): PreparedProblem {
+  const { n, p } = std;
+  const isGroup = options.penalty === 'group-lasso';
+  const alpha = options.penalty === 'elastic-net' ? (options.l1Share as number) : 1;
+  const weightOf = (j: number): number => (options.penaltyWeights ? options.penaltyWeights[j] : 1);
+  const penalty = buildBlockPenalty(p, std.constant, alpha, isGroup ? (options.groupOfTerm ?? null) : null, (id, size, members) =>
+    isGroup ? (options.groupWeights && id < options.groupWeights.length ? options.groupWeights[id] : Math.sqrt(size)) * weightOf(members[0]) : weightOf(members[0]),
+  );
   const problem: Problem = {
     family: options.family,
     n,
     p,
     x: std.x,
-    y: yWork,
-    yMean,
-    yy,
-    c,
-    gram: new GramCache(std.x, n, p),
-    useGram: usesGram(options, n, p),
+    y: parts.y,
+    yMean: parts.yMean,
+    yy: parts.yy,
+    c: parts.c,
+    gram: parts.gram,
+    loss: undefined as unknown as LossRole,
     penalty,
-    colNormSq,
-    nullObjective,
+    colNormSq: parts.colNormSq,
+    nullObjective: 0,
   };
-  // With few columns a path ends up needing nearly all of G; computing it in one sweep of panels
-  // is cheaper than column by column as the working set grows.
-  if (problem.useGram && options.crossProducts) gramFromCrossProducts(problem.gram, options.crossProducts, n, std.centers, std.scales);
-  else if (problem.useGram && p <= FULL_GRAM_COLUMNS) problem.gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
+  problem.loss = lossFor(problem, parts.form);
+  problem.nullObjective = problem.loss.nullObjective;
   const fixedU: number[] = [];
   for (let u = 0; u < penalty.nBlocks; u++) {
     if (penalty.weight[u] === 0) for (let i = penalty.start[u]; i < penalty.start[u + 1]; i++) fixedU.push(penalty.features[i]);
   }
-  const nullFit = fitNullModel(problem, Int32Array.from(fixedU));
+  const nullFit = problem.loss.nullFit(Int32Array.from(fixedU), {});
   const lambdaMax = penaltyLambdaMax(penalty, nullFit.g);
   if (!Number.isFinite(lambdaMax)) throw new EngineInputError('the data are too large in scale to fit; rescale the columns or standardize', 'data');
   const dual = new DualContext(problem, nullFit.theta, nullFit.g, lambdaMax);

@@ -1,22 +1,30 @@
 import type { DualContext } from '../core/dual';
 import { fista } from '../core/fista';
-import { bindLoss } from '../core/loss';
+import type { SupportMemory } from '../core/loss';
 import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
 import type { Problem, WorkingSet } from '../core/problem';
-import { makeWorkingSet, sigmoid } from '../core/problem';
+import { makeWorkingSet } from '../core/problem';
 import { polishOnSupport } from '../core/polish';
-import type { Screening, SolveInfo } from '../types';
+import type { Screening, SolveInfo, StopRule } from '../types';
 import { checkFull, type FullCheck } from './check';
 
-export interface LambdaState {
+/**
+ * Everything one path carries from one lambda to the next (explicit state, owned by fitPathOnDesign;
+ * nothing is kept in module state).
+ */
+export interface PathState {
   /** Standardized-scale coefficients (column-indexed), updated in place. */
   coef: Float64Array;
-  /** binomial intercept (standardized scale). */
+  /** Intercept slot of losses that have one (binomial; standardized scale). */
   intercept: number;
   /** X'theta_raw at the current point (-gradient), from the last full check. */
   g: Float64Array;
   /** Loss value at the current point, from the last full check. */
   loss: number;
+  /** Lipschitz estimate carried along the path (0: a power iteration starts it off). */
+  lipschitz: number;
+  /** The active-set polish's factor and Newton tangent (polish.ts). */
+  support: SupportMemory;
 }
 
 export interface LambdaOptions {
@@ -28,7 +36,18 @@ export interface LambdaOptions {
   polish: boolean;
 }
 
+/**
+ * FISTA computes the duality gap every CHECK_EVERY iterations. One gap costs about one gradient
+ * (a product with the working columns) plus the dual point, so checking every iteration would
+ * nearly double the work; every 5 keeps it under ~20% while stopping at most 4 iterations late.
+ */
 const CHECK_EVERY = 5;
+/**
+ * Working-set rounds per lambda. Each round either adds at least one block that violates its KKT
+ * condition or tightens the inner tolerance tenfold (rounding), so the count is small in practice
+ * (1-3); the cap only guards against cycling between two sets, and the iteration limit still applies.
+ */
+const MAX_ROUNDS = 50;
 
 /**
  * Solves at one lambda from the warm start in `state`. Working set: with 'strong', the sequential
@@ -43,15 +62,14 @@ const CHECK_EVERY = 5;
 export function solveAtLambda(
   problem: Problem,
   dual: DualContext,
-  state: LambdaState,
+  state: PathState,
   options: LambdaOptions,
-  lipschitz: { value: number },
 ): SolveInfo {
   const started = performance.now();
   const pen = problem.penalty;
   const allBlocks = Int32Array.from({ length: pen.nBlocks }, (_, u) => u);
   const { lambda, tolerance } = options;
-  const intercept = problem.family === 'binomial';
+  const intercept = problem.loss.intercept;
   const keep = new Uint8Array(pen.nBlocks);
   if (options.screening === 'none' || lambda === 0) keep.fill(1);
   else if (options.screening === 'gap-safe' && pen.alpha >= 1) gapSafe(problem, dual, state, allBlocks, lambda, keep);
@@ -66,17 +84,18 @@ export function solveAtLambda(
 
   let iterations = 0;
   let status: SolveInfo['status'] = 'converged';
+  let stoppedBy: StopRule = 'warm-start';
   let check: FullCheck | null = null;
   let restrictedTolerance = tolerance;
-  for (let round = 0; round < 50; round++) {
+  for (let round = 0; round < MAX_ROUNDS; round++) {
     const ws = makeWorkingSet(pen, allBlocks.filter((u) => keep[u] === 1), intercept);
     const outcome = solveRestricted(problem, dual, ws, state, lambda, {
       polish: options.polish,
       tolerance: restrictedTolerance,
       maxIterations: Math.max(1, options.maxIterations - iterations),
-      lipschitz,
     });
     iterations += outcome.iterations;
+    stoppedBy = outcome.stoppedBy;
     check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
     state.g = check.g;
     state.loss = check.loss;
@@ -103,9 +122,11 @@ export function solveAtLambda(
   }
   const gap = check ? check.gap : NaN;
   if (status === 'converged' && !(gap <= tolerance)) status = 'iteration-limit';
+  if (status !== 'converged') stoppedBy = status;
   return {
     status,
-    message: describe(status, gap, tolerance, iterations),
+    stoppedBy,
+    message: describe(status, gap, tolerance, iterations, stoppedBy),
     gap,
     tolerance,
     iterations,
@@ -113,19 +134,29 @@ export function solveAtLambda(
   };
 }
 
-function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number): string {
-  if (status === 'converged') return `converged: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+const RULE_WORDS: Record<StopRule, string> = {
+  'warm-start': 'at the warm start',
+  polish: 'at the active-set polish',
+  gap: 'at a FISTA iterate',
+  factorization: 'by factorization',
+  'iteration-limit': 'at the iteration limit',
+  'numerical-failure': 'on a numerical failure',
+};
+
+function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number, stoppedBy: StopRule): string {
+  if (status === 'converged') {
+    return `converged ${RULE_WORDS[stoppedBy]}: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+  }
   if (status === 'iteration-limit') {
     return `stopped at the iteration limit (${iterations}) with relative duality gap ${gap.toExponential(2)} > tolerance ${tolerance}`;
   }
   return `numerical failure (non-finite values) after ${iterations} iterations`;
 }
 
-function gapSafe(problem: Problem, dual: DualContext, state: LambdaState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
+function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
   const pen = problem.penalty;
   const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
-  const gamma = problem.family === 'gaussian' ? problem.n : 4 * problem.n;
-  const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / gamma);
+  const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / problem.loss.dualConcavity);
   for (let u = 0; u < pen.nBlocks; u++) {
     if (pen.weight[u] === 0) {
       keep[u] = 1;
@@ -143,54 +174,43 @@ function solveRestricted(
   problem: Problem,
   dual: DualContext,
   ws: WorkingSet,
-  state: LambdaState,
+  state: PathState,
   lambda: number,
-  options: { polish: boolean; tolerance: number; maxIterations: number; lipschitz: { value: number } },
+  options: { polish: boolean; tolerance: number; maxIterations: number },
 ) {
-  const { n, y } = problem;
   const pen = problem.penalty;
-  const loss = bindLoss(problem, ws);
+  const loss = problem.loss.bind(ws);
   const w = new Float64Array(ws.size);
   for (let b = 0; b < ws.k; b++) w[b] = state.coef[ws.features[b]];
   if (ws.size > ws.k) w[ws.k] = state.intercept;
   const g = new Float64Array(problem.p);
   const grad = new Float64Array(ws.size);
-  const theta = problem.family === 'binomial' ? new Float64Array(n) : null;
   const gap = (v: Float64Array, img: Float64Array): number => {
     const value = loss.value(img, v);
-    let ycTheta = 0;
-    if (problem.family === 'binomial' && theta) {
-      for (let i = 0; i < n; i++) theta[i] = (y[i] - sigmoid(img[i])) / n;
-      loss.gradient(img, v, grad);
-    } else if (problem.useGram) {
-      loss.gradient(img, v, grad);
-      ycTheta = problem.yy / n;
-      for (let b = 0; b < ws.k; b++) ycTheta -= problem.c[ws.features[b]] * v[b];
-    } else {
-      for (let i = 0; i < n; i++) ycTheta += (y[i] * (y[i] - img[i])) / n;
-      loss.gradient(img, v, grad);
-    }
+    const residual = loss.residual(img, v);
+    loss.gradient(img, v, grad);
     for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
     const penalty = penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda);
-    const result = dual.gap({ lambda, blocks: ws.blocks, g, loss: value, penalty, ycTheta, theta });
+    const result = dual.gap({ lambda, blocks: ws.blocks, g, loss: value, penalty, residual });
     return result.gap / problem.nullObjective;
   };
-  // The Lipschitz estimate is carried along the path; a power iteration only starts it off.
-  if (options.lipschitz.value <= 0) options.lipschitz.value = loss.lipschitz();
-  const estimate = options.lipschitz.value;
+  if (state.lipschitz <= 0) state.lipschitz = loss.lipschitz();
+  const estimate = state.lipschitz;
   const outcome = fista(
     {
       size: ws.size,
       loss,
       prox: (z, out, step) => penaltyProx(pen, ws.blocks, ws.blockStart, z, out, step * lambda),
-      penalty: (v) => penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda),
       gap,
-      polish: options.polish && singleColumnBlocks(ws) ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps) : undefined,
+      polish:
+        options.polish && singleColumnBlocks(ws)
+          ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support)
+          : undefined,
     },
     w,
     { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
   );
-  options.lipschitz.value = outcome.lipschitz;
+  state.lipschitz = outcome.lipschitz;
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
   if (ws.size > ws.k) state.intercept = w[ws.k];
   return outcome;

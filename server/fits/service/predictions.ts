@@ -7,7 +7,7 @@
 import { eq } from 'drizzle-orm';
 import { CAUTION_LINES } from '../../../shared/cautions';
 import { EngineInputError, type EngineTable } from '../../engine/index';
-import { parseCsvBytes } from '../../engine/csv';
+import { parseCsvBytes } from '../../tabular/csv';
 import type { Database } from '../../db/client';
 import { fits } from '../../db/schema/index';
 import { findVersionRowById } from '../../datasets/data/versions';

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, it, expect, beforeAll } from 'vitest';
 import { crossValidate } from '../../../server/engine/cv';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import type { FitSpec } from '../../../server/engine/types';

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { parseCsvText } from '../../../server/engine/csv';
-import { scanSimpleDecimal } from '../../../server/engine/csv-fast';
+import { parseCsvText } from '../../../server/tabular/csv';
+import { scanSimpleDecimal } from '../../../server/tabular/csv-fast';
 import { createRng } from '../../../server/engine/random';
 import { EngineInputError, type EngineColumn } from '../../../server/engine/types';
 

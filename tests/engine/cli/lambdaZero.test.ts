@@ -10,7 +10,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { expectDigits, readJson } from '../reference/helpers';
+import { readJson } from '../reference/helpers';
+import { expectDigits } from '../../support/numbers';
 
 const CLI = fileURLToPath(new URL('../../../server/cli/main.ts', import.meta.url));
 const TSX = fileURLToPath(new URL('../../../node_modules/.bin/tsx', import.meta.url));

@@ -9,7 +9,7 @@
 import { describe, it } from 'vitest';
 import { fitPathOnDesign } from '../../../server/engine/index';
 import { linearResponse, orthonormalDesign } from './data';
-import { expectClose } from './helpers';
+import { expectClose } from '../../support/numbers';
 
 const n = 120;
 const p = 8;
@@ -30,9 +30,9 @@ describe('orthonormal design closed forms', () => {
       const result = fitPathOnDesign(design, y, { family: 'gaussian', penalty: 'lasso', standardize, pathLength: 15, tolerance: 1e-12 });
       result.lambda.forEach((lambda, k) => {
         for (let j = 0; j < p; j++) {
-          expectClose(result.coefficients[k][j], soft(z[j], lambda), tol, `lasso b_${j} at lambda ${lambda}`);
+          expectClose(`lasso b_${j} at lambda ${lambda}`, result.coefficients[k][j], soft(z[j], lambda), tol);
         }
-        expectClose(result.intercept[k], yMean, tol, `intercept at lambda ${lambda}`);
+        expectClose(`intercept at lambda ${lambda}`, result.intercept[k], yMean, tol);
       });
     });
   }
@@ -43,7 +43,7 @@ describe('orthonormal design closed forms', () => {
     result.lambda.forEach((lambda, k) => {
       for (let j = 0; j < p; j++) {
         const expected = soft(z[j], lambda * alpha) / (1 + lambda * (1 - alpha));
-        expectClose(result.coefficients[k][j], expected, tol, `elastic net b_${j} at lambda ${lambda}`);
+        expectClose(`elastic net b_${j} at lambda ${lambda}`, result.coefficients[k][j], expected, tol);
       }
     });
   });
@@ -63,7 +63,7 @@ describe('orthonormal design closed forms', () => {
       for (const members of groups) {
         const norm = Math.sqrt(members.reduce((a, j) => a + z[j] ** 2, 0));
         const shrink = Math.max(0, 1 - (lambda * Math.sqrt(members.length)) / norm);
-        for (const j of members) expectClose(result.coefficients[k][j], shrink * z[j], tol, `group lasso b_${j} at lambda ${lambda}`);
+        for (const j of members) expectClose(`group lasso b_${j} at lambda ${lambda}`, result.coefficients[k][j], shrink * z[j], tol);
       }
     });
   });

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { fitPathOnDesign } from '../../../server/engine/index';
 import type { PathResult } from '../../../server/engine/types';
 import { linearResponse, logisticResponse, randomDesign } from './data';
-import { expectClose } from './helpers';
+import { expectClose } from '../../support/numbers';
 
 const design = randomDesign(90, 15, 41);
 const truth = [1.2, -0.6, 0.4, 0, 0, 0.3];
@@ -18,9 +18,9 @@ const yBin = logisticResponse(design, truth, 43);
 function expectSamePath(a: PathResult, b: PathResult, tol: number, label: string): void {
   expect(a.lambda).toEqual(b.lambda);
   a.lambda.forEach((lambda, k) => {
-    expectClose(a.intercept[k], b.intercept[k], tol, `${label} intercept at lambda ${lambda}`);
+    expectClose(`${label} intercept at lambda ${lambda}`, a.intercept[k], b.intercept[k], tol);
     for (let j = 0; j < a.coefficients[k].length; j++) {
-      expectClose(a.coefficients[k][j], b.coefficients[k][j], tol, `${label} coefficient ${j} at lambda ${lambda}`);
+      expectClose(`${label} coefficient ${j} at lambda ${lambda}`, a.coefficients[k][j], b.coefficients[k][j], tol);
     }
   });
 }
@@ -62,7 +62,7 @@ describe('equivalences', () => {
       sxy += (col[i] - mx) * (y[i] - my);
       sxx += (col[i] - mx) ** 2;
     }
-    expectClose(result.coefficients[0][4], sxy / sxx, 1e-8, 'unpenalized x5 at lambda_max');
+    expectClose('unpenalized x5 at lambda_max', result.coefficients[0][4], sxy / sxx, 1e-8);
     expect([...result.coefficients[0]].filter((b, j) => j !== 4 && b !== 0)).toEqual([]);
   });
 
@@ -92,7 +92,7 @@ describe('equivalences', () => {
       for (let b = r + 1; b < m; b++) s -= A[r][b] * beta[b];
       beta[r] = s / A[r][r];
     }
-    expectClose(result.intercept[1], beta[0], 1e-5, 'least-squares intercept');
-    for (let j = 0; j < p; j++) expectClose(result.coefficients[1][j], beta[j + 1], 1e-5, `least-squares coefficient ${j}`);
+    expectClose('least-squares intercept', result.intercept[1], beta[0], 1e-5);
+    for (let j = 0; j < p; j++) expectClose(`least-squares coefficient ${j}`, result.coefficients[1][j], beta[j + 1], 1e-5);
   });
 });

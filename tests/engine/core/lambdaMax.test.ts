@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { computeLambdaMax, fitPathOnDesign } from '../../../server/engine/index';
 import type { PathOptions } from '../../../server/engine/types';
 import { linearResponse, logisticResponse, randomDesign } from './data';
-import { expectClose } from './helpers';
+import { expectClose } from '../../support/numbers';
 
 const design = randomDesign(70, 12, 31);
 const gaussianY = linearResponse(design, [1, 0.5, -0.5, 0, 0.2], 1, 32);
@@ -69,6 +69,6 @@ describe('lambda_max', () => {
       expected = Math.max(expected, Math.abs(dot / n / Math.sqrt(v)));
     }
     const got = computeLambdaMax(design, gaussianY, { family: 'gaussian', penalty: 'lasso', standardize: true });
-    expectClose(got, expected, 1e-12, 'lambda_max');
+    expectClose('lambda_max', got, expected, 1e-12);
   });
 });

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { fitPathOnDesign } from '../../../server/engine/index';
 import type { DesignMatrix, PathOptions, PathResult, Screening } from '../../../server/engine/types';
 import { linearResponse, logisticResponse, randomDesign } from './data';
-import { expectClose } from './helpers';
+import { expectClose } from '../../support/numbers';
 import { gaussianLassoGap, kktResidual, type KktSetup } from './kkt';
 
 /** Unequal column scales and offsets, so standardization matters. */
@@ -66,7 +66,7 @@ describe('KKT and duality gap at every solution', () => {
           if (c.family === 'gaussian' && penalty === 'lasso') {
             result.lambda.forEach((lambda, k) => {
               const scratch = gaussianLassoGap(c.design, c.y, result, k, standardize);
-              expectClose(result.solves[k].gap, scratch, 1e-6, `${c.name}: reported vs recomputed relative gap at lambda ${lambda}`);
+              expectClose(`${c.name}: reported vs recomputed relative gap at lambda ${lambda}`, result.solves[k].gap, scratch, 1e-6);
             });
           }
         });
@@ -99,9 +99,9 @@ describe('screening does not change the solutions', () => {
       for (const other of fits.slice(1)) {
         other.lambda.forEach((lambda, k) => {
           for (let j = 0; j < c.design.p; j++) {
-            expectClose(other.standardizedCoefficients[k][j], fits[0].standardizedCoefficients[k][j], 1e-4, `${c.name} coefficient ${j} at lambda ${lambda}`);
+            expectClose(`${c.name} coefficient ${j} at lambda ${lambda}`, other.standardizedCoefficients[k][j], fits[0].standardizedCoefficients[k][j], 1e-4);
           }
-          expectClose(other.intercept[k], fits[0].intercept[k], 1e-4, `${c.name} intercept at lambda ${lambda}`);
+          expectClose(`${c.name} intercept at lambda ${lambda}`, other.intercept[k], fits[0].intercept[k], 1e-4);
         });
       }
     });

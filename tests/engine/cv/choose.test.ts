@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { mean, sampleStandardDeviation } from 'simple-statistics';
 import { chooseLambdas, summarizeFolds } from '../../../server/engine/cv/choose';
-import { expectClose } from './close';
+import { expectClose } from '../../support/numbers';
 
 describe('summarizeFolds', () => {
   it('mean over folds and standard error = sample sd / sqrt(K) (simple-statistics)', () => {
@@ -9,14 +9,14 @@ describe('summarizeFolds', () => {
     const { mean: m, standardError } = summarizeFolds(perFold);
     for (const l of [0, 1]) {
       const column = perFold.map((f) => f[l]);
-      expectClose(m[l], mean(column), 1e-14, `mean at ${l}`);
-      expectClose(standardError[l], sampleStandardDeviation(column) / Math.sqrt(4), 1e-14, `se at ${l}`);
+      expectClose(`mean at ${l}`, m[l], mean(column), 1e-14);
+      expectClose(`se at ${l}`, standardError[l], sampleStandardDeviation(column) / Math.sqrt(4), 1e-14);
     }
   });
   it('leaves undefined fold values out (e.g. AUC of a one-class held-out set)', () => {
     const { mean: m, standardError } = summarizeFolds([[0.8], [Number.NaN], [0.6]]);
-    expectClose(m[0], 0.7, 1e-14, 'mean');
-    expectClose(standardError[0], sampleStandardDeviation([0.8, 0.6]) / Math.sqrt(2), 1e-14, 'se');
+    expectClose('mean', m[0], 0.7, 1e-14);
+    expectClose('se', standardError[0], sampleStandardDeviation([0.8, 0.6]) / Math.sqrt(2), 1e-14);
   });
 });
 

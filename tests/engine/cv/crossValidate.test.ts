@@ -3,17 +3,16 @@ import { mean, sampleStandardDeviation } from 'simple-statistics';
 import {
   combineFolds,
   crossValidate,
-  crossValidateAdaptive,
-  crossValidateInWorkers,
   planCrossValidation,
   runFold,
   type FoldLosses,
 } from '../../../server/engine/cv';
-import { parseCsvText } from '../../../server/engine/csv';
+import { crossValidateAdaptive, crossValidateInWorkers } from '../../../server/engine-runner';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import { EngineInputError, type EngineTable, type FitSpec } from '../../../server/engine/types';
-import { expectClose } from './close';
+import { expectClose } from '../../support/numbers';
 
 function spec(overrides: Partial<FitSpec>): FitSpec {
   return {
@@ -66,8 +65,8 @@ describe('crossValidate (gaussian, one predictor, folds from a column)', () => {
   it('matches the closed-form fold errors, standardization learnt on training rows only', () => {
     LAMBDA.forEach((lambda, l) => {
       const perFold = [1, 2, 3].map((f) => closedFormFoldMse(f, lambda, 'training'));
-      expectClose(cv.mean[l], mean(perFold), 1e-6, `CV mse at lambda ${lambda}`);
-      expectClose(cv.standardError[l], sampleStandardDeviation(perFold) / Math.sqrt(3), 1e-6, `CV se at lambda ${lambda}`);
+      expectClose(`CV mse at lambda ${lambda}`, cv.mean[l], mean(perFold), 1e-6);
+      expectClose(`CV se at lambda ${lambda}`, cv.standardError[l], sampleStandardDeviation(perFold) / Math.sqrt(3), 1e-6);
     });
   });
 
@@ -185,7 +184,7 @@ describe('a term constant on a fold\'s training rows', () => {
     const planWith = planCrossValidation(withRare, sWith, fitPath(withRare, sWith));
     const a = runFold(withRare, sWith, planWith.foldIds, 0, s.lambda as number[]);
     const b = runFold(withoutRare, s, planWith.foldIds, 0, s.lambda as number[]);
-    a.losses.mse?.forEach((v, l) => expectClose(v, b.losses.mse?.[l] as number, 1e-6, `fold 1 mse at lambda ${l}`));
+    a.losses.mse?.forEach((v, l) => expectClose(`fold 1 mse at lambda ${l}`, v, b.losses.mse?.[l] as number, 1e-6));
     expect(a.statuses.every((st) => st === 'converged')).toBe(true);
   });
 });

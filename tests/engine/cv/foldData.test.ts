@@ -6,11 +6,11 @@
 import { mean } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { combineFolds, crossValidate, planCrossValidation, runFoldOnDesign } from '../../../server/engine/cv';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import type { FitSpec } from '../../../server/engine/types';
-import { expectClose } from './close';
+import { expectClose } from '../../support/numbers';
 
 describe('gaussian folds through the cross products of all rows', () => {
   // n = 90 rows, p = 6 columns: training folds of 60 rows are in the Gram form (n >= 2p).
@@ -35,8 +35,8 @@ describe('gaussian folds through the cross products of all rows', () => {
     // Direct: no shared data, so every fold builds its Gram from its training rows.
     const direct = combineFolds('gaussian', path.lambda, [0, 1, 2].map((k) => runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda)), plan.foldIds);
     path.lambda.forEach((lambda, l) => {
-      expectClose(cv.mean[l], direct.mean[l], 1e-8, `CV mse at lambda ${lambda}`);
-      expectClose(cv.standardError[l], direct.standardError[l], 1e-8, `CV se at lambda ${lambda}`);
+      expectClose(`CV mse at lambda ${lambda}`, cv.mean[l], direct.mean[l], 1e-8);
+      expectClose(`CV se at lambda ${lambda}`, cv.standardError[l], direct.standardError[l], 1e-8);
     });
   });
 });
@@ -80,7 +80,7 @@ describe('missing: impute learns the fill-in values on each fold\'s training row
 
   it('matches the closed form with training-row means', () => {
     LAMBDA.forEach((lambda, l) => {
-      expectClose(cv.mean[l], mean([1, 2, 3].map((f) => foldMse(f, lambda, 'training'))), 1e-8, `CV mse at lambda ${lambda}`);
+      expectClose(`CV mse at lambda ${lambda}`, cv.mean[l], mean([1, 2, 3].map((f) => foldMse(f, lambda, 'training'))), 1e-8);
     });
   });
 

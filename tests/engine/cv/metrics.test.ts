@@ -7,7 +7,7 @@ import {
   meanSquaredError,
   misclassificationRate,
 } from '../../../server/engine/cv/metrics';
-import { expectClose } from './close';
+import { expectClose } from '../../support/numbers';
 
 describe('gaussian held-out losses', () => {
   const y = [3, -1, 2.5, 7, 0];
@@ -15,16 +15,16 @@ describe('gaussian held-out losses', () => {
   const residuals = y.map((v, i) => v - eta[i]);
 
   it('mean squared error is the squared root-mean-square of the residuals (simple-statistics)', () => {
-    expectClose(meanSquaredError(y, eta), rootMeanSquare(residuals) ** 2, 1e-14, 'mse');
+    expectClose('mse', meanSquaredError(y, eta), rootMeanSquare(residuals) ** 2, 1e-14);
   });
   it('mean absolute error is the mean of |residual| (simple-statistics mean)', () => {
-    expectClose(meanAbsoluteError(y, eta), mean(residuals.map(Math.abs)), 1e-14, 'mae');
+    expectClose('mae', meanAbsoluteError(y, eta), mean(residuals.map(Math.abs)), 1e-14);
   });
 });
 
 describe('binomial held-out losses', () => {
   it('deviance at eta = 0 is 2 log 2 per row whatever the class (explicit formula -2 log 0.5)', () => {
-    expectClose(meanBinomialDeviance([0, 1, 1], [0, 0, 0]), 2 * Math.log(2), 1e-14, 'deviance');
+    expectClose('deviance', meanBinomialDeviance([0, 1, 1], [0, 0, 0]), 2 * Math.log(2), 1e-14);
   });
   it('deviance equals -2 [y log p + (1 - y) log(1 - p)] with p = 1/(1 + e^-eta) (explicit formula)', () => {
     const y = [1, 0, 1, 0];
@@ -34,10 +34,10 @@ describe('binomial held-out losses', () => {
         const p = 1 / (1 + Math.exp(-eta[i]));
         return s - 2 * (yi * Math.log(p) + (1 - yi) * Math.log(1 - p));
       }, 0) / y.length;
-    expectClose(meanBinomialDeviance(y, eta), expected, 1e-13, 'deviance');
+    expectClose('deviance', meanBinomialDeviance(y, eta), expected, 1e-13);
   });
   it('deviance stays finite for extreme linear predictors (-2 * -800 = 1600 for y=0, eta=800)', () => {
-    expectClose(meanBinomialDeviance([0, 1], [800, 800]), 1600 / 2, 1e-12, 'deviance');
+    expectClose('deviance', meanBinomialDeviance([0, 1], [800, 800]), 1600 / 2, 1e-12);
   });
   it('misclassification counts eta > 0 as class 1 (hand count: 2 of 5 wrong)', () => {
     expect(misclassificationRate([1, 0, 1, 0, 1], [0.3, -2, -0.1, 4, 9])).toBe(2 / 5);
@@ -55,13 +55,13 @@ describe('AUC (Mann-Whitney, ties count half)', () => {
     normal.forEach((c, k) => { for (let i = 0; i < c; i++) { y.push(0); s.push(k + 1); } });
     abnormal.forEach((c, k) => { for (let i = 0; i < c; i++) { y.push(1); s.push(k + 1); } });
     const auc = areaUnderRoc(y, s);
-    expectClose(auc, 0.893, 5e-4, 'AUC of Hanley & McNeil Table 1');
+    expectClose('AUC of Hanley & McNeil Table 1', auc, 0.893, 5e-4);
     // Explicit definition: P(score_pos > score_neg) + 0.5 P(tie), over all pairs.
     let pairs = 0;
     for (let a = 0; a < 5; a++) for (let b = 0; b < 5; b++) {
       pairs += abnormal[a] * normal[b] * (a > b ? 1 : a === b ? 0.5 : 0);
     }
-    expectClose(auc, pairs / (58 * 51), 1e-14, 'AUC by pair count');
+    expectClose('AUC by pair count', auc, pairs / (58 * 51), 1e-14);
   });
   it('is 1 for perfect ordering, 0 for reversed, 0.5 for all ties', () => {
     expect(areaUnderRoc([0, 0, 1, 1], [1, 2, 3, 4])).toBe(1);

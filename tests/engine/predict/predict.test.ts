@@ -1,11 +1,11 @@
 import { describe, it, expect } from 'vitest';
 import { buildDesign } from '../../../server/engine/design/build';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { predictPath, predictRows, type StoredModel } from '../../../server/engine/predict';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import { EngineInputError } from '../../../server/engine/types';
-import { expectClose } from '../cv/close';
+import { expectClose } from '../../support/numbers';
 
 // Training data: numeric x, categorical c with levels a, b, c (one indicator per level).
 const train = parseCsvText('y,x,c\n1,0.5,a\n0,1.5,b\n1,2.5,c\n0,3.5,a\n', 'train.csv');
@@ -26,16 +26,16 @@ describe('predictRows', () => {
     const { linearPredictor, response } = predictRows(fresh, model('gaussian'));
     const expected = [1 + 6 - 1, 1 - 2 + 0.5, 1 + 0.5];
     expected.forEach((e, i) => {
-      expectClose(linearPredictor[i], e, 1e-15, `eta row ${i + 1}`);
-      expectClose(response[i], e, 1e-15, `mean row ${i + 1}`);
+      expectClose(`eta row ${i + 1}`, linearPredictor[i], e, 1e-15);
+      expectClose(`mean row ${i + 1}`, response[i], e, 1e-15);
     });
   });
 
   it('gives the logistic probability 1 / (1 + exp(-eta)) for binomial', () => {
     const fresh = parseCsvText('x,c\n0,c\n0.25,a\n', 'new.csv');
     const { response } = predictRows(fresh, model('binomial', { intercept: -0.5 }));
-    expectClose(response[0], 1 / (1 + Math.exp(0.5)), 1e-15, 'p row 1');
-    expectClose(response[1], 1 / (1 + Math.exp(-(-0.5 + 0.5 + 0.5))), 1e-15, 'p row 2');
+    expectClose('p row 1', response[0], 1 / (1 + Math.exp(0.5)), 1e-15);
+    expectClose('p row 2', response[1], 1 / (1 + Math.exp(-(-0.5 + 0.5 + 0.5))), 1e-15);
   });
 
   it('names a missing column', () => {
@@ -63,7 +63,7 @@ describe('predictRows', () => {
     const fresh = parseCsvText('x,c\nNA,NA\n', 'new.csv');
     // x imputed by the mean of 1, 5, 3 = 3; c by its most frequent level "a": 0 + 3 + 10.
     const { linearPredictor } = predictRows(fresh, { family: 'gaussian', encoding: imputed.encoding, intercept: 0, coefficients: b });
-    expectClose(linearPredictor[0], 13, 1e-15, 'imputed row');
+    expectClose('imputed row', linearPredictor[0], 13, 1e-15);
   });
 
   it('rejects text in a column the fit used as numeric', () => {
@@ -94,7 +94,7 @@ describe('predictPath on the rows fitted', () => {
       const sumY = column.values.reduce((a, b) => a + b, 0);
       path.lambda.forEach((lambda, l) => {
         const { response: fitted } = predictPath(table, path, l);
-        expectClose(fitted.reduce((a, b) => a + b, 0), sumY, 1e-6, `${family} sum of fitted values at lambda ${lambda}`);
+        expectClose(`${family} sum of fitted values at lambda ${lambda}`, fitted.reduce((a, b) => a + b, 0), sumY, 1e-6);
       });
     });
   }

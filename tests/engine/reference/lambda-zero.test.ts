@@ -8,10 +8,11 @@
  * practice).
  */
 import { describe, expect, it } from 'vitest';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath, fitPathOnDesign } from '../../../server/engine/index';
 import type { FitSpec } from '../../../server/engine/types';
-import { designFrom, expectClose, expectDigits, readJson, readNumericCsv } from './helpers';
+import { designFrom, readJson, readNumericCsv } from './helpers';
+import { expectClose, expectDigits } from '../../support/numbers';
 
 interface NistFixture {
   predictors: Record<string, number[]>;

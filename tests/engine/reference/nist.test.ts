@@ -8,7 +8,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';
-import { designFrom, expectClose, expectDigits, readJson } from './helpers';
+import { designFrom, readJson } from './helpers';
+import { expectClose, expectDigits } from '../../support/numbers';
 
 interface NistFixture {
   dataset: string;

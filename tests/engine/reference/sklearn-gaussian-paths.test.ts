@@ -15,7 +15,8 @@
 import { describe, expect, it } from 'vitest';
 import { computeLambdaMax, fitPathOnDesign } from '../../../server/engine';
 import type { DesignMatrix, PathOptions, PathResult } from '../../../server/engine/types';
-import { designFrom, designFromRows, expectClose, readJson, readNumericCsv } from './helpers';
+import { designFrom, designFromRows, readJson, readNumericCsv } from './helpers';
+import { expectClose } from '../../support/numbers';
 import { compareObjective, comparePath, elasticNetAllowance, strictAllowance, summary, type PathCase } from './path-checks';
 
 interface GaussianCase extends PathCase {

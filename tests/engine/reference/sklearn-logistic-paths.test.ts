@@ -13,7 +13,8 @@
 import { describe, expect, it } from 'vitest';
 import { computeLambdaMax, fitPathOnDesign } from '../../../server/engine';
 import type { DesignMatrix, PathOptions } from '../../../server/engine/types';
-import { designFrom, expectClose, readJson, readNumericCsv } from './helpers';
+import { designFrom, readJson, readNumericCsv } from './helpers';
+import { expectClose } from '../../support/numbers';
 import { compareObjective, comparePath, elasticNetAllowance, strictAllowance, summary, type PathCase } from './path-checks';
 
 interface LogisticFixture {

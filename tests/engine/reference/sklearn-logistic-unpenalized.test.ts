@@ -7,7 +7,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';
-import { designFrom, expectClose, expectDigits, readJson, readNumericCsv } from './helpers';
+import { designFrom, readJson, readNumericCsv } from './helpers';
+import { expectClose, expectDigits } from '../../support/numbers';
 
 interface UnpenalizedFixture {
   source: string;

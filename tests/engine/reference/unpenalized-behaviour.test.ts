@@ -10,7 +10,8 @@
 import { describe, expect, it } from 'vitest';
 import { fitUnpenalized, refitSelected } from '../../../server/engine/unpenalized';
 import { EngineInputError } from '../../../server/engine/types';
-import { designFrom, expectClose, readJson, readNumericCsv } from './helpers';
+import { designFrom, readJson, readNumericCsv } from './helpers';
+import { expectClose } from '../../support/numbers';
 
 interface SeparationFixture {
   source: string;

@@ -11,7 +11,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { DEFAULT_MISSING_MARKERS } from '../../../shared/datasets';
 import { parseCsvFile, type ParsedFile, type Reader } from '../../../server/datasets/parse/parse-file';
 import { isQuoteFree } from '../../../server/datasets/parse/read-fast';
-import { scanCell, scanned } from '../../../server/engine/csv-scan';
+import { scanCell, scanned } from '../../../server/tabular/csv-scan';
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'lariat-fast-'));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { fitRequestSchema, type FitSpec } from '../../../shared/fits';
-import { parseCsvText } from '../../../server/engine/csv';
+import { parseCsvText } from '../../../server/tabular/csv';
 import { bytesToFloat64, bytesToUint8, float64ToBytes, uint8ToBytes } from '../../../server/fits/codec';
 import { predictRowsWithErrors } from '../../../server/fits/compute/predict-rows';
 import { splitHoldout } from '../../../server/fits/compute/table';

@@ -7,7 +7,7 @@
  * general reader's rule, so both readers give identical tables (tests/engine/cli/csv.test.ts).
  */
 import { scanCell, scanned } from './csv-scan';
-import { EngineInputError, type EngineColumn, type EngineTable } from './types';
+import { EngineInputError, type EngineColumn, type EngineTable } from '../engine/types';
 
 const COMMA = 44;
 const NEWLINE = 10;

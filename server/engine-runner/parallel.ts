@@ -8,10 +8,8 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../index';
-import { combineFolds } from './combine';
-import { planCrossValidation, runPlannedFold, type CvPlan } from './crossValidate';
-import type { FoldLosses } from './fold';
+import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { combineFolds, planCrossValidation, runPlannedFold, type CvPlan, type FoldLosses } from '../engine/cv';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 /**

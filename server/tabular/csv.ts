@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { parseQuoteFreeRows } from './csv-fast';
-import { EngineInputError, type EngineColumn, type EngineTable } from './types';
+import { EngineInputError, type EngineColumn, type EngineTable } from '../engine/types';
 
 const MISSING = new Set(['', 'na', 'n/a', 'nan', 'null', '?']);
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;

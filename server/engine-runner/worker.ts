@@ -3,7 +3,7 @@
  * and answers each with the fold's losses (or its error).
  */
 import { parentPort } from 'node:worker_threads';
-import { runFoldOnDesign } from './fold';
+import { runFoldOnDesign } from '../engine/cv';
 import type { WorkerPlan, WorkerReply, WorkerRequest } from './protocol';
 
 let shared: WorkerPlan | undefined;

@@ -1,7 +1,6 @@
 /** Messages between crossValidateInWorkers and its worker threads. */
-import type { DesignMatrix, PathOptions } from '../index';
-import type { FoldLosses } from './fold';
-import type { FoldShared } from './foldData';
+import type { DesignMatrix, PathOptions } from '../engine/index';
+import type { FoldLosses, FoldShared } from '../engine/cv';
 
 /** What a worker receives once and keeps for every fold it runs. */
 export interface WorkerPlan {

@@ -1,0 +1,176 @@
+import { newtonOnSupport } from '../polishNewton';
+import { blockConjugate } from '../penalty';
+import { sigmoid, softplus, type Problem, type WorkingSet } from '../problem';
+import { designGramNorm, designImage, designTranspose, fullImage, transposeTimes, workingTranspose } from './design';
+import { blockStep, normOf, scaleScope } from './dualSteps';
+import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory } from './role';
+
+/**
+ * Binomial (logistic) loss (1/n) sum [log(1 + exp(eta_i)) - y_i eta_i], eta = b0 + X b, design form
+ * only; the intercept is the working vector's last slot. Its dual (Ndiaye et al. 2017, JMLR 18):
+ *   D(theta) = -(1/n) sum [s log s + (1-s) log(1-s)] - sum_u P_u*(X_u'theta),  s = y - n theta in [0, 1].
+ * The curvature is at most 1/4, so the dual is 4n-strongly concave.
+ */
+export function binomialLoss(problem: Problem): LossRole {
+  const { n, y, yMean } = problem;
+  const thetaP = new Float64Array(n);
+  return {
+    family: 'binomial',
+    form: 'design',
+    intercept: true,
+    dualConcavity: 4 * n,
+    nullObjective: -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean)),
+    bind: (ws) => bind(problem, ws),
+    evaluate(coef, intercept): Evaluation {
+      const eta = fullImage(problem, coef, intercept);
+      const theta = new Float64Array(n);
+      let loss = 0;
+      for (let i = 0; i < n; i++) {
+        loss += softplus(eta[i]) - y[i] * eta[i];
+        theta[i] = (y[i] - sigmoid(eta[i])) / n;
+      }
+      const g = new Float64Array(problem.p);
+      transposeTimes(problem.x, n, problem.p, theta, g);
+      return { loss: loss / n, g, residual: { ycTheta: 0, theta } };
+    },
+    nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory),
+    dual: (projection) => dual(problem, projection, thetaP),
+    solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory),
+    negativeGradient(ws, active, w) {
+      const eta = new Float64Array(n).fill(w[ws.k]);
+      for (const a of active) {
+        const coef = w[a];
+        if (coef === 0) continue;
+        const off = ws.features[a] * n;
+        for (let i = 0; i < n; i++) eta[i] += coef * problem.x[off + i];
+      }
+      for (let i = 0; i < n; i++) eta[i] = y[i] - sigmoid(eta[i]);
+      return workingTranspose(problem, ws, eta);
+    },
+  };
+}
+
+function bind(problem: Problem, ws: WorkingSet): BoundLoss {
+  const { n, y } = problem;
+  const k = ws.k;
+  const residual = new Float64Array(n);
+  const theta = new Float64Array(n);
+  return {
+    imageSize: n,
+    image: (w, out) => designImage(problem, ws, w, out, w[k]),
+    value(img) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += softplus(img[i]) - y[i] * img[i];
+      return s / n;
+    },
+    gradient(img, _w, out) {
+      let sum = 0;
+      for (let i = 0; i < n; i++) {
+        residual[i] = sigmoid(img[i]) - y[i];
+        sum += residual[i];
+      }
+      designTranspose(problem, ws, residual, out, 1 / n);
+      out[k] = sum / n;
+    },
+    // The centred columns are orthogonal to the intercept's column of ones, so the largest
+    // eigenvalue of [1 X]'[1 X]/n is max(1, that of X'X/n); the logistic curvature is <= 1/4.
+    lipschitz: () => 0.25 * Math.max(1, designGramNorm(problem, ws)),
+    residual(img) {
+      for (let i = 0; i < n; i++) theta[i] = (y[i] - sigmoid(img[i])) / n;
+      return { ycTheta: 0, theta };
+    },
+  };
+}
+
+/**
+ * The intercept alone is logit(mean y); with unpenalized columns U, the same Newton loop as the
+ * polish (polishNewton.ts) on (b_U, b0) with every sign free and no penalty.
+ */
+function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemory): NullFit {
+  const { n, p } = problem;
+  const m = unpenalized.length;
+  const coef = new Float64Array(p);
+  const ym = Math.min(Math.max(problem.yMean, 1e-12), 1 - 1e-12);
+  let intercept = Math.log(ym / (1 - ym));
+  if (m > 0) {
+    const ws: WorkingSet = { blocks: new Int32Array(0), blockStart: new Int32Array(1), features: unpenalized, k: m, size: m + 1 };
+    const out = new Float64Array(m + 1);
+    out[m] = intercept;
+    const support = {
+      ws,
+      active: Array.from({ length: m }, (_, q) => q),
+      sign: new Int8Array(m).fill(FREE),
+      l1: new Float64Array(m),
+      l2: new Float64Array(m),
+      lambda: 0,
+    };
+    if (newtonOnSupport(problem, support, out, NULL_NEWTON_STEPS, memory).ok) {
+      for (let q = 0; q < m; q++) coef[unpenalized[q]] = out[q];
+      intercept = out[m];
+    }
+  }
+  const eta = fullImage(problem, coef, intercept);
+  const theta = new Float64Array(n);
+  for (let i = 0; i < n; i++) theta[i] = (problem.y[i] - sigmoid(eta[i])) / n;
+  const g = new Float64Array(p);
+  transposeTimes(problem.x, n, p, theta, g);
+  return { coef, intercept, g, theta };
+}
+
+/** Newton converges quadratically; 100 steps only bound a pathological start. */
+const NULL_NEWTON_STEPS = 100;
+
+/**
+ * The projected residual is centred (1'theta = 0, the intercept) and moved towards the anchor
+ * kappa theta_null (kappa < 1 keeps s strictly inside (0, 1) and every block strictly feasible:
+ * ||kappa X_u'theta_null|| <= kappa lambda_max w_u < lambda w_u) just far enough to be feasible.
+ */
+function dual(problem: Problem, d: DualProjection, thetaP: Float64Array): number {
+  const pen = problem.penalty;
+  const { lambda, blocks, a, uCols, delta } = d;
+  const { n, x, y } = problem;
+  const theta = d.residual.theta as Float64Array;
+  const m = uCols.length;
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += theta[i];
+  mean /= n;
+  for (let i = 0; i < n; i++) thetaP[i] = theta[i] - mean;
+  for (let b = 0; b < m; b++) {
+    const coef = delta[b] / n;
+    if (coef === 0) continue;
+    const off = uCols[b] * n;
+    for (let i = 0; i < n; i++) thetaP[i] -= coef * x[off + i];
+  }
+  const anchor = d.nullPoint.theta;
+  const kappa = lambda > 0 && anchor ? 0.5 * Math.min(1, lambda / d.nullPoint.lambdaMax) : 0;
+  let tau = 1;
+  for (let i = 0; i < n; i++) {
+    const base = kappa * (anchor ? anchor[i] : 0);
+    const e = n * (thetaP[i] - base);
+    if (e > 0) tau = Math.min(tau, (y[i] - n * base) / e);
+    else if (e < 0) tau = Math.min(tau, (y[i] - 1 - n * base) / e);
+  }
+  if (pen.alpha >= 1 && lambda > 0) {
+    for (let b = 0; b < blocks.length; b++) {
+      const u = blocks[b];
+      if (pen.weight[u] === 0) continue;
+      tau = Math.min(tau, blockStep(pen.start, pen.features, u, a, d.nullPoint.g, kappa, lambda * pen.weight[u]));
+    }
+  }
+  tau = Math.max(0, tau);
+  let entropy = 0;
+  for (let i = 0; i < n; i++) {
+    const base = kappa * (anchor ? anchor[i] : 0);
+    const s = y[i] - n * (base + tau * (thetaP[i] - base));
+    if (s > 0 && s < 1) entropy += s * Math.log(s) + (1 - s) * Math.log1p(-s);
+  }
+  scaleScope(pen.start, pen.features, blocks, a, tau, d.nullPoint.g, kappa);
+  let conj = 0;
+  if (pen.alpha < 1 && lambda > 0) {
+    for (let b = 0; b < blocks.length; b++) {
+      const u = blocks[b];
+      if (pen.weight[u] > 0) conj += blockConjugate(normOf(pen.start, pen.features, u, a), lambda, pen.weight[u], pen.alpha);
+    }
+  }
+  return -entropy / n - conj;
+}

@@ -1,0 +1,115 @@
+import type { Problem, WorkingSet } from '../problem';
+
+/** Products with the design shared by the losses' design forms. */
+
+/** out = offset + X_W w */
+export function designImage(problem: Problem, ws: WorkingSet, w: Float64Array, out: Float64Array, offset: number): void {
+  const { n, x } = problem;
+  out.fill(offset);
+  for (let b = 0; b < ws.k; b++) {
+    const coef = w[b];
+    if (coef === 0) continue;
+    const off = ws.features[b] * n;
+    for (let i = 0; i < n; i++) out[i] += coef * x[off + i];
+  }
+}
+
+/** out[b] = scale * x_{W_b}' v */
+export function designTranspose(problem: Problem, ws: WorkingSet, v: Float64Array, out: Float64Array, scale: number): void {
+  const { n, x } = problem;
+  for (let b = 0; b < ws.k; b++) {
+    const off = ws.features[b] * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    out[b] = scale * s;
+  }
+}
+
+/** eta = offset + X b over every column with b_j != 0. */
+export function fullImage(problem: Problem, coef: Float64Array, offset: number): Float64Array {
+  const { n, p, x } = problem;
+  const eta = new Float64Array(n).fill(offset);
+  for (let k = 0; k < p; k++) {
+    const beta = coef[k];
+    if (beta === 0) continue;
+    const off = k * n;
+    for (let i = 0; i < n; i++) eta[i] += beta * x[off + i];
+  }
+  return eta;
+}
+
+/** Largest eigenvalue of a k x k symmetric operator by 20 power iterations from a fixed start (deterministic). */
+export function powerIteration(k: number, multiply: (v: Float64Array, out: Float64Array) => void): number {
+  if (k === 0) return 0;
+  let v = new Float64Array(k).fill(1 / Math.sqrt(k));
+  let next = new Float64Array(k);
+  let estimate = 0;
+  for (let it = 0; it < 20; it++) {
+    multiply(v, next);
+    let norm = 0;
+    for (let i = 0; i < k; i++) norm += next[i] * next[i];
+    norm = Math.sqrt(norm);
+    if (norm === 0) return 0;
+    estimate = norm;
+    for (let i = 0; i < k; i++) next[i] /= norm;
+    [v, next] = [next, v];
+  }
+  return estimate;
+}
+
+/** Largest eigenvalue of X_W'X_W/n. */
+export function designGramNorm(problem: Problem, ws: WorkingSet): number {
+  const eta = new Float64Array(problem.n);
+  return powerIteration(ws.k, (v, out) => {
+    designImage(problem, ws, v, eta, 0);
+    designTranspose(problem, ws, eta, out, 1 / problem.n);
+  });
+}
+
+/**
+ * g = X'v, four columns per pass over v (fewer loads per product); each entry is the same
+ * left-to-right sum over rows as a plain dot product.
+ */
+export function transposeTimes(x: Float64Array, n: number, p: number, v: Float64Array, g: Float64Array): void {
+  let j = 0;
+  for (; j + 4 <= p; j += 4) {
+    const a0 = j * n;
+    const a1 = a0 + n;
+    const a2 = a1 + n;
+    const a3 = a2 + n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = v[i];
+      s0 += x[a0 + i] * t;
+      s1 += x[a1 + i] * t;
+      s2 += x[a2 + i] * t;
+      s3 += x[a3 + i] * t;
+    }
+    g[j] = s0;
+    g[j + 1] = s1;
+    g[j + 2] = s2;
+    g[j + 3] = s3;
+  }
+  for (; j < p; j++) {
+    const off = j * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    g[j] = s;
+  }
+}
+
+/** x_j'v / n for every working column. */
+export function workingTranspose(problem: Problem, ws: WorkingSet, v: Float64Array): Float64Array {
+  const { n, x } = problem;
+  const g = new Float64Array(ws.k);
+  for (let b = 0; b < ws.k; b++) {
+    const off = ws.features[b] * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    g[b] = s / n;
+  }
+  return g;
+}

@@ -1,0 +1,260 @@
+import { SemidefiniteSolver } from '../gram';
+import { blockConjugate } from '../penalty';
+import type { Problem, WorkingSet } from '../problem';
+import { SupportSystem } from '../supportSystem';
+import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeTimes, workingTranspose } from './design';
+import { normOf, scaleScope } from './dualSteps';
+import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
+
+/**
+ * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
+ * closed form), in two forms: the design form works on X; the Gram form on G = X'X/n and c = X'yc/n
+ * (docs/decisions/0011-gram-form.md says when each is used). Its dual (Fenchel; Ndiaye et al. 2017,
+ * JMLR 18, section 2): D(theta) = yc'theta - n/2 ||theta||^2 - sum_u P_u*(X_u'theta).
+ */
+export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRole {
+  const shared = {
+    family: 'gaussian' as const,
+    form,
+    intercept: false,
+    dualConcavity: problem.n,
+    nullObjective: problem.yy / (2 * problem.n),
+    nullFit: (unpenalized: Int32Array) => nullFit(problem, unpenalized),
+    dual: (projection: DualProjection) => dual(problem, projection),
+    solveOnSupport: (support: SupportProblem, out: Float64Array, _maxSteps: number, memory: SupportMemory) => ({
+      ok: solveOnSupport(problem, form, support, out, memory),
+      steps: 1,
+    }),
+  };
+  if (form === 'gram') {
+    return {
+      ...shared,
+      bind: (ws) => bindGram(problem, ws),
+      evaluate: (coef) => evaluateGram(problem, coef),
+      negativeGradient: (ws, active, w) => negativeGradientGram(problem, ws, active, w),
+    };
+  }
+  return {
+    ...shared,
+    bind: (ws) => bindDesign(problem, ws),
+    evaluate: (coef) => evaluateDesign(problem, coef),
+    negativeGradient(ws, active, w) {
+      const eta = new Float64Array(problem.n);
+      for (const a of active) {
+        const coef = w[a];
+        if (coef === 0) continue;
+        const off = ws.features[a] * problem.n;
+        for (let i = 0; i < problem.n; i++) eta[i] += coef * problem.x[off + i];
+      }
+      for (let i = 0; i < problem.n; i++) eta[i] = problem.y[i] - eta[i];
+      return workingTranspose(problem, ws, eta);
+    },
+  };
+}
+
+function bindDesign(problem: Problem, ws: WorkingSet): BoundLoss {
+  const { n, y } = problem;
+  const residual = new Float64Array(n);
+  return {
+    imageSize: n,
+    image: (w, out) => designImage(problem, ws, w, out, 0),
+    value(img) {
+      let s = 0;
+      for (let i = 0; i < n; i++) {
+        const r = y[i] - img[i];
+        s += r * r;
+      }
+      return s / (2 * n);
+    },
+    gradient(img, _w, out) {
+      for (let i = 0; i < n; i++) residual[i] = img[i] - y[i];
+      designTranspose(problem, ws, residual, out, 1 / n);
+    },
+    lipschitz: () => designGramNorm(problem, ws),
+    residual(img) {
+      let ycTheta = 0;
+      for (let i = 0; i < n; i++) ycTheta += (y[i] * (y[i] - img[i])) / n;
+      return { ycTheta, theta: null };
+    },
+  };
+}
+
+function bindGram(problem: Problem, ws: WorkingSet): BoundLoss {
+  const k = ws.k;
+  const g = new Float64Array(k * k);
+  const c = new Float64Array(k);
+  problem.gram.ensure(ws.features);
+  for (let b = 0; b < k; b++) {
+    const col = problem.gram.column(ws.features[b]);
+    c[b] = problem.c[ws.features[b]];
+    for (let a = 0; a < k; a++) g[b * k + a] = col[ws.features[a]];
+  }
+  const multiply = (w: Float64Array, out: Float64Array): void => {
+    out.fill(0);
+    for (let b = 0; b < k; b++) {
+      const coef = w[b];
+      if (coef === 0) continue;
+      const off = b * k;
+      for (let a = 0; a < k; a++) out[a] += coef * g[off + a];
+    }
+  };
+  return {
+    imageSize: k,
+    image: multiply,
+    value(img, w) {
+      let s = 0;
+      for (let b = 0; b < k; b++) s += w[b] * (0.5 * img[b] - c[b]);
+      return problem.yy / (2 * problem.n) + s;
+    },
+    gradient(img, _w, out) {
+      for (let b = 0; b < k; b++) out[b] = img[b] - c[b];
+    },
+    lipschitz: () => powerIteration(k, multiply),
+    residual(_img, w) {
+      let ycTheta = problem.yy / problem.n;
+      for (let b = 0; b < k; b++) ycTheta -= c[b] * w[b];
+      return { ycTheta, theta: null };
+    },
+  };
+}
+
+function evaluateDesign(problem: Problem, coef: Float64Array): Evaluation {
+  const { n, p, x, y } = problem;
+  const eta = fullImage(problem, coef, 0);
+  const theta = new Float64Array(n);
+  let loss = 0;
+  let ycTheta = 0;
+  for (let i = 0; i < n; i++) {
+    const r = y[i] - eta[i];
+    loss += r * r;
+    ycTheta += (y[i] * r) / n;
+    theta[i] = r / n;
+  }
+  const g = new Float64Array(p);
+  transposeTimes(x, n, p, theta, g);
+  return { loss: loss / (2 * n), g, residual: { ycTheta, theta: null } };
+}
+
+/** One product with the Gram columns of the non-zero coefficients. */
+function evaluateGram(problem: Problem, coef: Float64Array): Evaluation {
+  const { n, p } = problem;
+  const g = Float64Array.from(problem.c);
+  let cb = 0;
+  for (let k = 0; k < p; k++) {
+    const beta = coef[k];
+    if (beta === 0) continue;
+    cb += problem.c[k] * beta;
+    const col = problem.gram.column(k);
+    for (let j = 0; j < p; j++) g[j] -= col[j] * beta;
+  }
+  // b'Gb = b'(c - g)
+  let bGb = 0;
+  for (let k = 0; k < p; k++) if (coef[k] !== 0) bGb += coef[k] * (problem.c[k] - g[k]);
+  return { loss: problem.yy / (2 * n) - cb + 0.5 * bGb, g, residual: { ycTheta: problem.yy / n - cb, theta: null } };
+}
+
+/** Least squares on U through G_UU (centred columns, so the intercept is mean(y)). */
+function nullFit(problem: Problem, unpenalized: Int32Array): NullFit {
+  const { p } = problem;
+  const m = unpenalized.length;
+  const coef = new Float64Array(p);
+  if (m > 0) {
+    const matrix = new Float64Array(m * m);
+    for (let b = 0; b < m; b++) {
+      const col = problem.gram.column(unpenalized[b]);
+      for (let a = 0; a < m; a++) matrix[b * m + a] = col[unpenalized[a]];
+    }
+    const solution = new Float64Array(m);
+    const rhs = new Float64Array(m);
+    for (let b = 0; b < m; b++) rhs[b] = problem.c[unpenalized[b]];
+    new SemidefiniteSolver(matrix, m).solve(rhs, solution);
+    for (let b = 0; b < m; b++) coef[unpenalized[b]] = solution[b];
+  }
+  const g = Float64Array.from(problem.c);
+  for (let b = 0; b < m; b++) {
+    const col = problem.gram.column(unpenalized[b]);
+    const beta = coef[unpenalized[b]];
+    for (let j = 0; j < p; j++) g[j] -= col[j] * beta;
+  }
+  return { coef, intercept: 0, g, theta: null };
+}
+
+/**
+ * theta = tau theta_proj moves towards the anchor 0, which is always feasible; with alpha = 1 tau is
+ * the largest step keeping every ||X_u'theta|| <= lambda w_u, with alpha < 1 the conjugate is finite
+ * everywhere and tau = 1. D = tau A - n/2 tau^2 B - conj, A = yc'theta, B = ||theta||^2 (from the
+ * loss: ||yc - Xb||^2 / n^2 = 2 loss / n, minus what the projection removed).
+ */
+function dual(problem: Problem, d: DualProjection): number {
+  const pen = problem.penalty;
+  const { lambda, blocks, a } = d;
+  const { n } = problem;
+  const alpha = pen.alpha;
+  const A = d.residual.ycTheta - d.ycShift;
+  const B = (2 * d.loss) / n - d.normShift / n;
+  let tau = 1;
+  if (alpha >= 1 && lambda > 0) {
+    for (let b = 0; b < blocks.length; b++) {
+      const u = blocks[b];
+      if (pen.weight[u] === 0) continue;
+      const norm = normOf(pen.start, pen.features, u, a);
+      if (norm > lambda * pen.weight[u]) tau = Math.min(tau, (lambda * pen.weight[u]) / norm);
+    }
+  }
+  let conj = 0;
+  if (alpha < 1 && lambda > 0) {
+    for (let b = 0; b < blocks.length; b++) {
+      const u = blocks[b];
+      if (pen.weight[u] > 0) conj += blockConjugate(tau * normOf(pen.start, pen.features, u, a), lambda, pen.weight[u], alpha);
+    }
+  }
+  scaleScope(pen.start, pen.features, blocks, a, tau, null, 0);
+  return tau * A - (n / 2) * tau * tau * Math.max(B, 0) - conj;
+}
+
+/**
+ * (X_A'X_A/n + diag(l2)) b_A = X_A'yc/n - l1 s exactly, through the support system kept in the
+ * path's memory (extended a row at a time as supports change).
+ */
+function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: SupportProblem, out: Float64Array, memory: SupportMemory): boolean {
+  const { ws, active, sign, l1, l2 } = support;
+  memory.system ??= new SupportSystem(form === 'gram' ? (f, g) => problem.gram.column(f)[g] : columnProduct(problem));
+  const m = active.length;
+  const features = active.map((a) => ws.features[a]);
+  const shifts = active.map((a) => l2[a]);
+  const rhs = new Float64Array(m);
+  for (let q = 0; q < m; q++) {
+    const s = sign[active[q]];
+    rhs[q] = problem.c[features[q]] - (s === FREE ? 0 : l1[active[q]] * s);
+  }
+  const solution = new Float64Array(m);
+  if (!memory.system.solve(features, shifts, rhs, solution)) return false;
+  out.fill(0, 0, ws.k);
+  for (let q = 0; q < m; q++) out[active[q]] = solution[q];
+  return true;
+}
+
+/** Design form: the dot product of two columns over n (the same sum order as a Gram entry). */
+function columnProduct(problem: Problem): (f: number, g: number) => number {
+  const { n, x } = problem;
+  return (f, g) => {
+    let s = 0;
+    const a = f * n;
+    const b = g * n;
+    for (let i = 0; i < n; i++) s += x[a + i] * x[b + i];
+    return s / n;
+  };
+}
+
+function negativeGradientGram(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
+  const k = ws.k;
+  const g = new Float64Array(k);
+  for (let b = 0; b < k; b++) g[b] = problem.c[ws.features[b]];
+  for (const a of active) {
+    const coef = w[a];
+    if (coef === 0) continue;
+    const col = problem.gram.column(ws.features[a]);
+    for (let b = 0; b < k; b++) g[b] -= col[ws.features[b]] * coef;
+  }
+  return g;
+}
