@@ -52,9 +52,13 @@ function warningsOf(path: PathResult): string[] {
  */
 function cvNotes(path: PathResult, cv: CvResult | null): string[] {
   if (!cv || path.lambda.length < 2 || cv.minimum.index !== path.lambda.length - 1) return [];
-  return [
-    `the cross-validation minimum is at the smallest lambda of the path (${path.lambda[path.lambda.length - 1]}); a path reaching smaller lambdas (a larger --path-decades) may find a lower error`,
-  ];
+  const last = path.lambda[path.lambda.length - 1];
+  // When --max-terms ended the path (the engine's "path ended after ..." note), going deeper with
+  // --path-decades changes nothing: the term limit is what stops it.
+  if (path.notes.some((n) => n.startsWith('path ended after'))) {
+    return [`the cross-validation minimum is at the last lambda of the path (${last}), where --max-terms ended it; a larger --max-terms (or none) may find a lower error`];
+  }
+  return [`the cross-validation minimum is at the smallest lambda of the path (${last}); a path reaching smaller lambdas (a larger --path-decades) may find a lower error`];
 }
 
 export function fitOutput(path: PathResult, cv: CvResult | null, engineVersion: string): FitOutput {

@@ -41,8 +41,10 @@ export async function ensureDemoFit(db: Database, input: { workspaceId: string; 
 
   const versions = await listVersionRows(db, [input.datasetId]);
   const latest = versions[versions.length - 1];
+  // `notes` is left out: an empty note means "nothing to report", not an unknown value, so filling
+  // its 611 blanks with the most common note ("milk delivery late") would teach the demo a falsehood.
   const predictors = latest.columns
-    .filter((c) => !c.excluded && c.name !== OUTCOME && c.name !== 'top_grade' && ['numeric', 'binary', 'categorical'].includes(c.type))
+    .filter((c) => !c.excluded && c.name !== OUTCOME && c.name !== 'top_grade' && c.name !== 'notes' && ['numeric', 'binary', 'categorical'].includes(c.type))
     .map((c) => c.name);
   const spec: FitRequestInput = {
     predictors,

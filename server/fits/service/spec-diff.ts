@@ -1,7 +1,7 @@
 /** What changed in a version's spec against the previous version, field by field, in plain words. */
 import type { FitSpec, SpecChangeDto } from '../../../shared/fits';
 
-const FIELDS: (keyof FitSpec)[] = [
+const FIELDS = [
   'datasetVersionId',
   'predictors',
   'penalty',
@@ -16,7 +16,25 @@ const FIELDS: (keyof FitSpec)[] = [
   'holdout',
   'tolerance',
   'maxIterations',
-];
+] as const satisfies readonly (keyof FitSpec)[];
+
+/** The words the fit page's settings use for each field (src/features/fits/components/SpecSummary.tsx), not the spec's keys. */
+const LABELS: Record<(typeof FIELDS)[number], string> = {
+  datasetVersionId: 'Dataset version',
+  predictors: 'Predictors',
+  penalty: 'Penalty',
+  l1Share: 'L1 share',
+  groups: 'Groups',
+  standardize: 'Standardized',
+  path: 'Path',
+  penaltyWeights: 'Penalty weights',
+  cv: 'Cross-validation',
+  metric: 'Measure',
+  missing: 'Missing values',
+  holdout: 'Holdout',
+  tolerance: 'Tolerance',
+  maxIterations: 'Iteration limit',
+};
 
 /** JSON with object keys sorted, so key order never counts as a change. */
 function canonical(value: unknown): string {
@@ -50,7 +68,7 @@ export function specChanges(before: FitSpec, after: FitSpec): SpecChangeDto[] {
       out.push({ field, before: a, after: b, summary: 'A newer version of the dataset.' });
       continue;
     }
-    out.push({ field, before: a ?? null, after: b ?? null, summary: `${field}: ${canonical(a)} → ${canonical(b)}.` });
+    out.push({ field, before: a ?? null, after: b ?? null, summary: `${LABELS[field]}: ${canonical(a)} → ${canonical(b)}.` });
   }
   return out;
 }

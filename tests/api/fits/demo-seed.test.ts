@@ -35,5 +35,10 @@ describe('demo seed', () => {
     expect(fit.results!.cv!.folds).toBe(10);
     expect(fit.results!.evaluation.state).toBe('ready');
     expect(fit.results!.nonzero[fit.results!.chosen.index]).toBeGreaterThan(0);
+    // The free-text notes column (blank = nothing to report) is no predictor, so no blank note is
+    // filled with a made-up one; the numeric gaps are still filled with their means.
+    expect(fit.spec.predictors).not.toContain('notes');
+    expect(fit.results!.notes.join('\n')).not.toMatch(/most frequent level/);
+    expect(fit.results!.notes.join('\n')).toMatch(/"milk_ph": \d+ missing values set to the mean/);
   }, 120_000);
 });

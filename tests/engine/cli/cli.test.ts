@@ -142,6 +142,17 @@ describe('lariat fit (spawned CLI)', () => {
     expect(deep.notes.join('\n')).not.toContain('cross-validation minimum');
   });
 
+  it('points to --max-terms, not --path-decades, when the term limit ended the path at the CV minimum', () => {
+    const diabetes = fileURLToPath(new URL('../../../datasets/open/diabetes.csv', import.meta.url));
+    const out = fitJson('--data', diabetes, '--response', 'progression', '--penalty', 'elastic-net', '--l1-share', '0.5', '--max-terms', '8', '--folds', '5', '--seed', '3');
+    const notes = out.notes.join('\n');
+    // The error still falls where the limit stops the path (diabetes has 10 predictors, the limit is 8).
+    expect(notes).toContain('path ended after');
+    expect(out.cv?.minimum.index).toBe(out.lambda.length - 1);
+    expect(notes).toContain('where --max-terms ended it');
+    expect(notes).not.toContain('--path-decades');
+  });
+
   it('carries the statistical cautions, and names every solve that stopped at the iteration limit', () => {
     const ok = JSON.parse(cli('fit', '--data', 'data.csv', '--response', 'y', '--path-length', '4', '--folds', '0').stdout) as {
       cautions: string[];

@@ -61,6 +61,14 @@ describe('spec changes', () => {
     expect(changes[0].summary).toBe('Predictors: added d; removed b, c.');
     expect(specChanges(before, { ...before })).toEqual([]);
   });
+
+  it("names a changed field in the page's words, not by its key", () => {
+    const before = spec({ penalty: 'elastic-net', l1Share: 0.8 });
+    const [change] = specChanges(before, { ...before, l1Share: 0.5 });
+    expect(change.field).toBe('l1Share');
+    expect(change.summary).toBe('L1 share: 0.8 → 0.5.');
+    expect(specChanges(before, { ...before, maxIterations: 500 })[0].summary).toMatch(/^Iteration limit: /);
+  });
 });
 
 describe('progress', () => {
