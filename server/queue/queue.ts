@@ -131,9 +131,17 @@ export class JobQueue implements Queue {
       await this.boss.createQueue(name, policy);
       await this.boss.updateQueue(name, policy);
     })();
-    this.known.set(name, ready);
+    this.remember(name, ready);
     if (options.expireSeconds !== undefined) this.expiry.set(name, options.expireSeconds);
     await ready;
+  }
+
+  /** A queue being created; forgotten if that fails, so the next send or work tries again. */
+  private remember(name: string, ready: Promise<void>): void {
+    this.known.set(name, ready);
+    ready.catch(() => {
+      if (this.known.get(name) === ready) this.known.delete(name);
+    });
   }
 
   async send(name: string, data: object, options: SendOptions = {}): Promise<string | null> {
@@ -141,7 +149,7 @@ export class JobQueue implements Queue {
     if (!ready) {
       // A queue nobody defined yet in this process: created with pg-boss's defaults (work() elsewhere sets its policy).
       ready = this.boss.createQueue(name);
-      this.known.set(name, ready);
+      this.remember(name, ready);
     }
     await ready;
     const id = await this.boss.send(name, data, options.id ? { id: options.id } : {});
