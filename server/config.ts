@@ -32,7 +32,7 @@ const schema = z.object({
   LARIAT_DB_CONNECT_TIMEOUT_MS: z.coerce.number().int().positive().default(5000),
   LARIAT_SERVE_CLIENT: z.enum(['0', '1']).default('1'),
   LARIAT_STATE_DIR: z.string().default('.lariat'),
-  /** Fits queue (server/queue/boss.ts): a job whose worker stops its heartbeat is retried after this long. */
+  /** Fits queues (server/fits/jobs.ts fitQueues): a job whose worker stops its heartbeat is retried after this long. */
   LARIAT_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(60),
   LARIAT_QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(10),
   LARIAT_QUEUE_POLL_MS: z.coerce.number().int().min(50).default(1000),

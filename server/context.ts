@@ -1,6 +1,5 @@
 import type { Config } from './config';
 import type { Database } from './db/client';
-import type { FitJobSender } from './fits/jobs';
 import type { FakeSmtp } from './mail/fake-smtp';
 import type { Queue } from './queue/queue';
 
@@ -19,10 +18,8 @@ export interface AppContext {
   db: Database;
   /** Sends an e-mail through SMTP (nodemailer); set up by server/mail. */
   sendMail: (message: MailMessage) => Promise<void>;
-  /** The job queue (server/queue), shared by every feature. */
+  /** The process's one job queue (server/queue/queue.ts), shared by every feature (fits, e-mails...). */
   queue: Queue;
   /** The local fake SMTP server's captured messages (development and test only). */
   devMailbox?: FakeSmtp;
-  /** Sends fit jobs to the queue (server/queue/boss.ts); absent when no queue was started. */
-  fitJobs?: FitJobSender;
 }

@@ -5,14 +5,12 @@ import type { AppContext } from './context';
 import { connectDatabase } from './db/client';
 import { startFakeSmtp, type CapturedMessage, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer } from './mail/mailer';
-import { startQueue } from './queue/queue';
+import { queueSettings, startQueue } from './queue/queue';
 import { startWorkers } from './queue/workers';
 import { productionDatabaseProblems } from './security/production-checks';
 import { DEMO_ACCOUNT } from './seed/demo-account';
 import { outboxEnabled } from './dev/outbox';
-import { FIT_QUEUES } from './fits/jobs';
-import { JobQueue } from './queue/boss';
-import { queueSettings } from './worker/start';
+import { fitQueues } from './fits/jobs';
 
 const config = loadConfig();
 const database = connectDatabase(config.DATABASE_URL, 10, config.LARIAT_DB_CONNECT_TIMEOUT_MS);
@@ -36,10 +34,10 @@ if (!smtpUrl) {
   smtpUrl = `smtp://127.0.0.1:${devMailbox.port}`;
 }
 
-const queue = await startQueue(config.DATABASE_URL);
-// The API only sends fit jobs; `npm run worker` processes run them.
-const fitJobs = await JobQueue.start(queueSettings(config, config.DATABASE_URL), FIT_QUEUES);
-const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, queue, fitJobs };
+// One queue for every feature. The API only sends fit jobs (`npm run worker` processes run them) and
+// works the queues of startWorkers (e-mails).
+const queue = await startQueue(queueSettings(config), fitQueues(config));
+const ctx: AppContext = { config, db: database.db, sendMail: createMailer(smtpUrl, config.LARIAT_MAIL_FROM), devMailbox, queue };
 await startWorkers(ctx);
 const app = createApp(ctx);
 const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
@@ -61,7 +59,6 @@ const server = app.listen(config.LARIAT_PORT, config.LARIAT_HOST, () => {
 async function shutdown(): Promise<void> {
   server.close();
   await queue.stop();
-  await fitJobs.stop();
   await devMailbox?.close();
   await database.close();
   process.exit(0);

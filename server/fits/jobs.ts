@@ -4,6 +4,8 @@
  * lambda, evaluates it). fit-evaluate computes the refit and diagnostics for a newly chosen lambda.
  */
 import { createHash } from 'node:crypto';
+import type { Config } from '../config';
+import type { QueueOptions } from '../queue/queue';
 
 export const FIT_QUEUES = ['fit-path', 'fit-fold', 'fit-finish', 'fit-evaluate'] as const;
 export type FitQueue = (typeof FIT_QUEUES)[number];
@@ -32,7 +34,12 @@ export function jobId(...parts: (string | number)[]): string {
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-4${h.slice(13, 16)}-8${h.slice(17, 20)}-${h.slice(20, 32)}`;
 }
 
-/** What the API needs from the queue: sending. */
-export interface FitJobSender {
-  send(name: FitQueue, data: object, options?: { id?: string }): Promise<void>;
+/**
+ * The fits queues' policy, defined by every process that starts a queue (API, workers, tests): a
+ * failed step is retried at once, and a step whose worker stopped its heartbeat after
+ * LARIAT_JOB_EXPIRE_SECONDS (docs/decisions/0006-fits-storage-and-queue.md).
+ */
+export function fitQueues(config: Config): Record<FitQueue, QueueOptions> {
+  const policy: QueueOptions = { retryLimit: config.LARIAT_JOB_RETRIES, retryDelaySeconds: 0, retryBackoff: false, expireSeconds: config.LARIAT_JOB_EXPIRE_SECONDS };
+  return Object.fromEntries(FIT_QUEUES.map((name) => [name, policy])) as Record<FitQueue, QueueOptions>;
 }

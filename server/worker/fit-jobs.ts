@@ -18,7 +18,7 @@ import { columnsOfSpec, splitHoldout, type SplitTable } from '../fits/compute/ta
 import { jobId, type EvaluateJob, type FinishJob, type FitQueue, type FoldJob, type PathJob } from '../fits/jobs';
 import { keyMetrics } from '../fits/service/key-metrics';
 import type { FitStoredCv, FitStoredResults, FoldStoredLosses, StoredEvaluation } from '../fits/stored-types';
-import type { QueuedJob } from '../queue/boss';
+import type { QueuedJob } from '../queue/queue';
 import { TaskCancelled, type EngineRunner } from './engine-thread';
 import type { EngineTask } from './engine-protocol';
 import { cachedTable } from './table-cache';

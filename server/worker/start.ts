@@ -1,47 +1,42 @@
 /**
- * A fit worker inside a process: the queue loops (one per engine thread) over the fits queues,
- * finishing steps first so fits already under way end before new ones start.
+ * A fit worker inside a process: one queue loop per engine thread over the fits queues, finishing
+ * steps first so fits already under way end before new ones start.
  */
 import type { Config } from '../config';
 import type { Database } from '../db/client';
-import { FIT_QUEUES } from '../fits/jobs';
-import { JobQueue, workerName } from '../queue/boss';
+import { fitQueues } from '../fits/jobs';
+import { queueSettings, startQueue, workerName, type JobQueue, type Serving } from '../queue/queue';
 import { EngineThread } from './engine-thread';
 import { fitJobHandler } from './fit-jobs';
 
 export interface RunningWorker {
   queue: JobQueue;
   name: string;
+  /** Ends the worker's loops (a running step fails, to be retried), and the queue when the worker started it. */
   stop(): Promise<void>;
 }
 
-/** Queue settings from the configuration (shared by the API, which only sends, and the workers). */
-export function queueSettings(config: Config, url: string) {
-  return {
-    url,
-    expireSeconds: config.LARIAT_JOB_EXPIRE_SECONDS,
-    maintenanceSeconds: config.LARIAT_QUEUE_MAINTENANCE_SECONDS,
-    pollMs: config.LARIAT_QUEUE_POLL_MS,
-    retryLimit: config.LARIAT_JOB_RETRIES,
-  };
-}
-
+/** `queue`: the process's queue when it has one already (tests' in-process worker); else the worker starts its own. */
 export async function startFitWorker(config: Config, db: Database, options: { name?: string; queue?: JobQueue } = {}): Promise<RunningWorker> {
-  const queue = options.queue ?? (await JobQueue.start(queueSettings(config, config.DATABASE_URL), FIT_QUEUES));
+  const queue = options.queue ?? (await startQueue(queueSettings(config), fitQueues(config)));
   const name = options.name ?? workerName();
   const threads: EngineThread[] = [];
-  const deps = { db, name, retryLimit: config.LARIAT_JOB_RETRIES, send: (n: string, data: object, o?: { id?: string }) => queue.send(n, data, o) };
+  const deps = { db, name, retryLimit: config.LARIAT_JOB_RETRIES, send: (n: string, data: object, o?: { id?: string }) => queue.send(n, data, o).then(() => undefined) };
+  const loops: Serving[] = [];
   for (let s = 0; s < config.LARIAT_WORKER_THREADS; s++) {
     const thread = new EngineThread();
     threads.push(thread);
-    queue.work(['fit-finish', 'fit-evaluate', 'fit-fold', 'fit-path'], 1, fitJobHandler(deps, thread));
+    loops.push(queue.serve(['fit-finish', 'fit-evaluate', 'fit-fold', 'fit-path'], fitJobHandler(deps, thread)));
   }
   return {
     queue,
     name,
     async stop() {
+      // No new steps; the running ones fail when their thread closes, so pg-boss retries them elsewhere.
+      const ending = Promise.all(loops.map((l) => l.stop()));
       await Promise.all(threads.map((t) => t.close()));
-      await queue.stop();
+      await ending;
+      if (!options.queue) await queue.stop();
     },
   };
 }

@@ -6,13 +6,16 @@ import type { AppContext } from '../../server/context';
 import { connectDatabase } from '../../server/db/client';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { createMailer } from '../../server/mail/mailer';
-import { startQueue } from '../../server/queue/queue';
+import { fitQueues } from '../../server/fits/jobs';
+import { queueSettings, startQueue, type JobQueue } from '../../server/queue/queue';
 import { startWorkers } from '../../server/queue/workers';
 import { createTestDatabase } from './databases';
 
 export interface TestApp {
   app: express.Express;
   ctx: AppContext;
+  /** ctx.queue, with what a test's in-process fit worker needs. */
+  queue: JobQueue;
   mail: FakeSmtp;
   close(): Promise<void>;
 }
@@ -39,7 +42,8 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     ...env,
   });
   const handle = connectDatabase(database.url, 4);
-  const queue = await startQueue(database.url, { max: 2 });
+  // The process's one queue, as server/main.ts starts it (fits tests add a worker on it: tests/api/fits/support.ts).
+  const queue = await startQueue({ ...queueSettings(config, database.url), poolSize: 3 }, fitQueues(config));
   const ctx: AppContext = {
     config,
     db: handle.db,
@@ -52,6 +56,7 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
   const testApp: TestApp = {
     app,
     ctx,
+    queue,
     mail,
     async close() {
       // Work queued after a response (e-mails after a sign-up) finishes before the database goes.

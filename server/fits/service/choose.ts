@@ -43,5 +43,5 @@ export async function chooseLambda(ctx: AppContext, workspaceId: string, userId:
     await tx.insert(fitEvaluations).values({ fitId: fit.id, lambdaIndex: index, state: 'waiting' }).onConflictDoNothing();
     return true;
   });
-  if (queueEvaluation && ctx.fitJobs) await ctx.fitJobs.send('fit-evaluate', { fitId: fit.id, index }, { id: jobId('evaluate', fit.id, index) });
+  if (queueEvaluation) await ctx.queue.send('fit-evaluate', { fitId: fit.id, index }, { id: jobId('evaluate', fit.id, index) });
 }

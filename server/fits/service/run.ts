@@ -7,7 +7,7 @@ import { fitRequestSchema, type FitSpec, type FitSummaryDto } from '../../../sha
 import type { AppContext } from '../../context';
 import { listVersionRows } from '../../datasets/data/versions';
 import { fits, models } from '../../db/schema/index';
-import { badRequest, fromZod, HttpError } from '../../http/errors';
+import { badRequest, fromZod } from '../../http/errors';
 import { findFitSummary } from '../data';
 import { engineVersion } from '../engine-version';
 import { jobId } from '../jobs';
@@ -38,7 +38,6 @@ export async function runFit(ctx: AppContext, workspaceId: string, userId: strin
     );
   }
   checkSpecAgainstVersion(request, model, version);
-  if (!ctx.fitJobs) throw new HttpError(503, 'Fits cannot be run right now: the job queue is not running on this server.');
   const spec: FitSpec = { ...request, datasetVersionId: version.id, outcome: model.outcome, family: model.family };
   const progress: FitStoredProgress = { stage: 'waiting', lambdaIndex: 0, lambdaCount: null, foldsDone: 0, foldsTotal: spec.cv.kind === 'folds' ? spec.cv.folds : 0 };
   const fitId = await ctx.db.transaction(async (tx) => {
@@ -64,7 +63,7 @@ export async function runFit(ctx: AppContext, workspaceId: string, userId: strin
     return row.id;
   });
   try {
-    await ctx.fitJobs.send('fit-path', { fitId }, { id: jobId('path', fitId) });
+    await ctx.queue.send('fit-path', { fitId }, { id: jobId('path', fitId) });
   } catch (error) {
     await ctx.db
       .update(fits)

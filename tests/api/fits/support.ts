@@ -7,9 +7,7 @@ import { expect } from 'vitest';
 import type { UploadResultDto } from '../../../shared/datasets';
 import type { FitDetailDto, FitRequestInput, FitSummaryDto } from '../../../shared/fits';
 import type { ModelListItemDto } from '../../../shared/models';
-import { FIT_QUEUES } from '../../../server/fits/jobs';
-import { JobQueue } from '../../../server/queue/boss';
-import { queueSettings, startFitWorker, type RunningWorker } from '../../../server/worker/start';
+import { startFitWorker, type RunningWorker } from '../../../server/worker/start';
 import { startTestApp, type TestApp } from '../../support/app';
 import { withCsrf, type Session } from '../../support/session';
 import { apiBase, closeApp, upload } from '../datasets/support';
@@ -25,17 +23,15 @@ export const FAST_QUEUE_ENV = {
 };
 
 export interface FitsApp extends TestApp {
-  queue: JobQueue;
   workers: RunningWorker[];
   processes: ChildProcess[];
 }
 
 export async function startFitsApp(options: { inProcessWorker?: boolean } = {}): Promise<FitsApp> {
   const t = await startTestApp(FAST_QUEUE_ENV);
-  const queue = await JobQueue.start(queueSettings(t.ctx.config, t.ctx.config.DATABASE_URL), FIT_QUEUES);
-  t.ctx.fitJobs = queue;
-  const app: FitsApp = { ...t, queue, workers: [], processes: [] };
-  if (options.inProcessWorker !== false) app.workers.push(await startFitWorker(t.ctx.config, t.ctx.db, { name: 'in-process', queue }));
+  const app: FitsApp = { ...t, workers: [], processes: [] };
+  // On the test app's own queue, as one process runs one queue (server/queue/queue.ts).
+  if (options.inProcessWorker !== false) app.workers.push(await startFitWorker(t.ctx.config, t.ctx.db, { name: 'in-process', queue: t.queue }));
   return app;
 }
 
@@ -43,7 +39,6 @@ export async function closeFitsApp(app: FitsApp | undefined): Promise<void> {
   if (!app) return;
   for (const child of app.processes) if (child.exitCode === null) child.kill('SIGKILL');
   for (const w of app.workers) await w.stop();
-  if (app.workers.length === 0) await app.queue.stop();
   await closeApp(app);
 }
 

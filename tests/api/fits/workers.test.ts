@@ -50,6 +50,20 @@ async function foldRows(fitId: string) {
   return t.ctx.db.select({ fold: fitFolds.fold, worker: fitFolds.worker, attempt: fitFolds.attempt }).from(fitFolds).where(eq(fitFolds.fitId, fitId)).orderBy(fitFolds.fold);
 }
 
+/** Waits until a fold job of the fit is active (taken by a worker) and its fold is not stored yet. */
+async function foldInFlight(fitId: string, timeoutMs = 150_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const taken = await t.ctx.db.execute(
+      sql`SELECT 1 FROM pgboss.job j WHERE j.name = 'fit-fold' AND j.state = 'active' AND j.data->>'fitId' = ${fitId}
+          AND NOT EXISTS (SELECT 1 FROM ${fitFolds} f WHERE f.fit_id = ${fitId} AND f.fold = (j.data->>'fold')::int)`,
+    );
+    if (taken.rows.length > 0) return;
+    if (Date.now() > deadline) throw new Error(`no fold of fit ${fitId} in flight after ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
 beforeAll(async () => {
   t = await startFitsApp({ inProcessWorker: false });
   alice = await signUp(t.app);
@@ -79,6 +93,9 @@ describe('worker processes', () => {
     const queued = await runFit(alice, model.id, spec);
     // Wait until C has stored a fold and is working on the next one, then kill it without warning.
     await waitForFit(alice, queued.id, (f) => f.progress.stage === 'folds' && f.progress.foldsDone >= 1, 150_000);
+    // ...and C holds a fold job it has not stored yet: killed between storing a fold and taking the
+    // next one, C would leave no fold half done (the stored fold's job is retried but skipped).
+    await foldInFlight(queued.id);
     await stop(c, 'SIGKILL');
     const killedAt = await foldRows(queued.id);
     expect(killedAt.length).toBeLessThan(10);
