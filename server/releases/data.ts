@@ -14,6 +14,8 @@ export interface ReleaseRow {
   modelName: string;
   fitId: string;
   fitVersion: number;
+  /** The released lambda's index on the fit's path (use this, not the fit's current choice). */
+  lambdaIndex: number;
   number: number;
   notes: string;
   reviewId: string | null;
@@ -30,6 +32,7 @@ const releaseColumns = {
   modelName: models.name,
   fitId: releases.fitId,
   fitVersion: fits.version,
+  lambdaIndex: releases.lambdaIndex,
   number: releases.number,
   notes: releases.notes,
   reviewId: releases.reviewId,

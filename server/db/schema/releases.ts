@@ -29,6 +29,8 @@ export const reviews = pgTable(
       .notNull()
       .references(() => fits.id, { onDelete: 'cascade' }),
     state: text('state', { enum: REVIEW_STATES }).notNull().default('waiting'),
+    /** The fit's chosen lambda when the review was asked for: an approval covers that lambda only. */
+    lambdaIndex: integer('lambda_index').notNull(),
     /** What the requester asks the reviewers to look at. */
     note: text('note').notNull().default(''),
     requestedBy: uuid('requested_by').references(() => users.id, { onDelete: 'set null' }),
@@ -80,6 +82,8 @@ export const releases = pgTable(
     fitId: uuid('fit_id')
       .notNull()
       .references(() => fits.id, { onDelete: 'no action' }),
+    /** The lambda released (the approved one); later choices on the fit do not change a release. */
+    lambdaIndex: integer('lambda_index').notNull(),
     /** 1, 2, ... per model; the highest is the current release. */
     number: integer('number').notNull(),
     notes: text('notes').notNull(),
