@@ -122,15 +122,11 @@ export interface ReleaseEventDto {
 }
 
 // ---- consumer API -------------------------------------------------------------------------------
-/** POST /api/v1/models/:modelId/score with a JSON body. */
-export const scoreRequestSchema = z.strictObject({
-  rows: z
-    .array(z.record(z.string().max(500), z.union([z.number(), z.string().max(1000), z.null()])), { error: () => 'rows must be an array of objects (column name -> number, text or null).' })
-    .min(1, 'Send at least one row.')
-    .max(MAX_SCORE_ROWS, `At most ${MAX_SCORE_ROWS} rows per request.`),
-});
-export type ScoreRequest = z.infer<typeof scoreRequestSchema>;
-
+/**
+ * POST /api/v1/models/:modelId/score: JSON `{ "rows": [ { column: number | text | null } ] }` or a CSV
+ * body (Content-Type text/csv). The server checks the shape by hand (server/consumers/api/score.ts):
+ * at 10,000 rows a schema library's per-cell work costs more than the scoring itself.
+ */
 export interface ScoreRowDto {
   row: number;
   linearPredictor: number | null;
