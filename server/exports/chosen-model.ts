@@ -47,7 +47,7 @@ export async function loadChosenModel(db: Database, workspaceId: string, fitId: 
     results: r,
     index,
     lambda: r.lambda[index],
-    rule: at === undefined ? (fit.chosenRule ?? 'last') : 'manual',
+    rule: at === undefined || at === fit.chosenIndex ? (fit.chosenRule ?? 'last') : 'manual',
     intercept: r.intercept[index],
     standardizedIntercept: r.standardizedIntercept[index],
     coefficients: bytesToFloat64(row.coefficients).slice(index * p, (index + 1) * p),

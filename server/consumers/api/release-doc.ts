@@ -57,7 +57,8 @@ function encodingDto(m: ChosenModel): ReleaseDocumentDto['encoding'] {
 }
 
 export async function releaseDocument(db: Database, release: ReleaseRow): Promise<ReleaseDocumentDto> {
-  const m = await loadChosenModel(db, release.workspaceId, release.fitId);
+  // The lambda that was approved and released, even if the fit's chosen lambda moved since.
+  const m = await loadChosenModel(db, release.workspaceId, release.fitId, release.lambdaIndex);
   const { fit, results: r } = m;
   const [model] = await db.select().from(models).where(eq(models.id, release.modelId));
   const [evaluation] = await db

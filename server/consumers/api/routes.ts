@@ -61,7 +61,7 @@ export function consumerApiRouter(ctx: AppContext): Router {
     express.raw({ type: ['text/csv', 'application/csv'], limit: MAX_SCORE_BYTES }),
     async (req, res) => {
       const release = await visibleRelease(ctx, req);
-      const model = await loadChosenModel(ctx.db, release.workspaceId, release.fitId);
+      const model = await loadChosenModel(ctx.db, release.workspaceId, release.fitId, release.lambdaIndex);
       const needed = neededColumns(model);
       if (req.is('application/json')) {
         const { table, absent } = rowsFromJson(req.body, needed);

@@ -79,7 +79,7 @@ export async function createKey(db: Database, workspaceId: string, actor: Actor,
       actorUserId: actor.userId,
       actorLabel: actor.label,
       action: 'key.created',
-      targetType: 'api_key',
+      targetType: 'api-key',
       targetId: created.id,
       details: { name: input.name, scope: input.scope, modelIds, expiresAt: created.expiresAt.toISOString() },
       ip: actor.ip,
@@ -96,7 +96,7 @@ export async function revokeKey(db: Database, workspaceId: string, actor: Actor,
     if (!found) throw notFound('No such key in this workspace.');
     if (found.revokedAt) return found; // revoking twice changes nothing
     const [updated] = await tx.update(apiKeys).set({ revokedAt: new Date(), revokedBy: actor.userId }).where(eq(apiKeys.id, keyId)).returning();
-    await recordAudit(tx, { workspaceId, actorUserId: actor.userId, actorLabel: actor.label, action: 'key.revoked', targetType: 'api_key', targetId: keyId, details: { name: found.name }, ip: actor.ip });
+    await recordAudit(tx, { workspaceId, actorUserId: actor.userId, actorLabel: actor.label, action: 'key.revoked', targetType: 'api-key', targetId: keyId, details: { name: found.name }, ip: actor.ip });
     return updated;
   });
   const [dto] = await toDtos(db, [row]);
