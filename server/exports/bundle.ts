@@ -1,6 +1,6 @@
 /**
  * The reproducibility bundle of a fit: everything needed to run it again outside the app: the spec,
- * the dataset version and its SHA-256 (download it from the cleaned CSV link and compare), the engine
+ * the dataset version and the SHA-256 of its uploaded file (compare it with the original download), the engine
  * version and seed, and the command line of Lariat's CLI (docs/cli.md) that re-runs the path and the
  * folds. Spec settings the CLI has no option for (holdout split, missing-value fill, a CV measure other
  * than the default) are listed under `notCoveredByCli`, so nobody mistakes the command for the whole
@@ -15,7 +15,18 @@ export interface ReproBundle {
   formatVersion: 1;
   fit: { id: string; version: number; modelId: string; modelName: string };
   spec: FitSpec;
-  dataset: { id: string; name: string; version: number; versionId: string; sha256: string; downloadPath: string; fileName: string };
+  dataset: {
+    id: string;
+    name: string;
+    version: number;
+    versionId: string;
+    /** SHA-256 of the file as uploaded (GET originalPath gives those bytes). */
+    sha256: string;
+    originalPath: string;
+    /** The table as the fit read it (after the version's column settings): what the command reads. */
+    downloadPath: string;
+    fileName: string;
+  };
   engineVersion: string;
   seed: number | null;
   chosen: { index: number; lambda: number; rule: string };
@@ -77,6 +88,7 @@ export function reproBundle(m: ChosenModel, modelName: string): ReproBundle {
       version: fit.datasetVersionNumber,
       versionId: fit.datasetVersionId,
       sha256: fit.datasetSha256,
+      originalPath: `/api/workspaces/${fit.workspaceId}/datasets/${fit.datasetId}/versions/${fit.datasetVersionNumber}/original`,
       downloadPath: `/api/workspaces/${fit.workspaceId}/datasets/${fit.datasetId}/versions/${fit.datasetVersionNumber}/cleaned.csv`,
       fileName,
     },
