@@ -24,10 +24,10 @@ export interface PmmlModel {
 
 export function parsePmml(xml: string): PmmlModel {
   const parser = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '', parseAttributeValue: false, parseTagValue: false });
-  const root = parser.parse(xml) as { PMML: Attrs & Record<string, unknown> };
+  const root = parser.parse(xml) as { PMML: Record<string, unknown> };
   const pmml = root.PMML;
-  const dict = pmml.DataDictionary as { DataField: (Attrs & { Value?: Attrs | Attrs[] }) | (Attrs & { Value?: Attrs | Attrs[] })[] };
-  const model = pmml.RegressionModel as Attrs & { MiningSchema: { MiningField: Attrs | Attrs[] }; RegressionTable: unknown; Output?: { OutputField: Attrs | Attrs[] } };
+  const dict = pmml.DataDictionary as unknown as { DataField: (Attrs & { Value?: Attrs | Attrs[] }) | (Attrs & { Value?: Attrs | Attrs[] })[] };
+  const model = pmml.RegressionModel as unknown as Attrs & { MiningSchema: { MiningField: Attrs | Attrs[] }; RegressionTable: unknown; Output?: { OutputField: Attrs | Attrs[] } };
   const fields = new Map(list(dict.DataField).map((f) => [f.name, { optype: f.optype, values: list(f.Value).map((v) => v.value) }]));
   const replacement = new Map(list(model.MiningSchema.MiningField).flatMap((m) => (m.missingValueReplacement !== undefined ? [[m.name, m.missingValueReplacement] as [string, string]] : [])));
   const tables = list(model.RegressionTable as (Attrs & { NumericPredictor?: Attrs | Attrs[]; CategoricalPredictor?: Attrs | Attrs[] })[]).map((t) => ({
