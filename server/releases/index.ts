@@ -1,1 +1,2 @@
 export { currentRelease, listCurrentReleases, listModelReleases, findRelease, type ReleaseRow } from './data';
+export { onReleasePublished } from './announce';
