@@ -1,2 +1,1 @@
 export { currentRelease, listCurrentReleases, listModelReleases, findRelease, type ReleaseRow } from './data';
-export { onReleasePublished } from './announce';
