@@ -12,10 +12,10 @@ import express, { Router, type Request } from 'express';
 import { MAX_SCORE_BYTES } from '../../../shared/consumers';
 import type { AppContext } from '../../context';
 import { models } from '../../db/schema/index';
-import { loadChosenModel } from '../../exports/chosen-model';
 import { HttpError, notFound } from '../../http/errors';
 import { currentRelease, listCurrentReleases, type ReleaseRow } from '../../releases/index';
 import { HIDDEN_MODEL, requestKey, requireApiKey, requireModelInScope, scopedModelIds } from '../keys/authenticate';
+import { releasedModel } from './model-cache';
 import { openApiDocument } from './openapi';
 import { releaseDocument } from './release-doc';
 import { neededColumns, rowsFromCsv, rowsFromJson, scoreTable } from './score';
@@ -35,6 +35,11 @@ async function visibleRelease(ctx: AppContext, req: Request): Promise<ReleaseRow
 
 export function consumerApiRouter(ctx: AppContext): Router {
   const router = Router();
+  // Start of the server's work on a request, for the Server-Timing header of scoring answers.
+  router.use((_req, res, next) => {
+    res.locals.startedAt = performance.now();
+    next();
+  });
   router.get('/openapi.json', (_req, res) => {
     res.json(openApiDocument(ctx.config.publicUrl));
   });
@@ -61,17 +66,22 @@ export function consumerApiRouter(ctx: AppContext): Router {
     express.raw({ type: ['text/csv', 'application/csv'], limit: MAX_SCORE_BYTES }),
     async (req, res) => {
       const release = await visibleRelease(ctx, req);
-      const model = await loadChosenModel(ctx.db, release.workspaceId, release.fitId, release.lambdaIndex);
+      const model = await releasedModel(ctx.db, release.workspaceId, release.fitId, release.lambdaIndex);
       const needed = neededColumns(model);
+      let answer;
       if (req.is('application/json')) {
         const { table, absent } = rowsFromJson(req.body, needed);
-        res.json(scoreTable(model, release, table, absent));
+        answer = scoreTable(model, release, table, absent);
       } else if (req.is(['text/csv', 'application/csv'])) {
         if (!Buffer.isBuffer(req.body) || req.body.length === 0) throw new HttpError(400, 'The CSV body is empty.', 'body');
-        res.json(scoreTable(model, release, rowsFromCsv(req.body, needed)));
+        answer = scoreTable(model, release, rowsFromCsv(req.body, needed));
       } else {
         throw new HttpError(415, 'Send the rows as application/json ({"rows": [...]}) or as text/csv.', 'Content-Type');
       }
+      const text = JSON.stringify(answer);
+      // W3C Server Timing: the server's own time, from the request's arrival to the answer's text.
+      res.set('Server-Timing', `app;dur=${(performance.now() - (res.locals.startedAt as number)).toFixed(1)}`);
+      res.type('application/json').send(text);
     },
   );
   return router;
