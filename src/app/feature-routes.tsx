@@ -1,5 +1,6 @@
 import type { RouteObject } from 'react-router';
 import { accountRoutes } from '@/features/account/routes';
+import { consumersRoutes } from '@/features/consumers/routes';
 import { datasetsRoutes } from '@/features/datasets/routes';
 import { fitsRoutes } from '@/features/fits/routes';
 import { modelsRoutes } from '@/features/models/routes';
@@ -15,4 +16,5 @@ export const workspaceFeatureRoutes: RouteObject[] = [
   ...modelsRoutes,
   ...fitsRoutes,
   ...accountRoutes,
+  ...consumersRoutes,
 ];

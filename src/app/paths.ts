@@ -31,6 +31,7 @@ export const paths = {
     fit: { path: '/w/:workspaceId/fits/:fitId', getHref: (workspaceId: string, fitId: string) => `/w/${workspaceId}/fits/${fitId}` },
     reviews: { path: '/w/:workspaceId/reviews', getHref: (workspaceId: string) => `/w/${workspaceId}/reviews` },
     releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },
+    consumers: { path: '/w/:workspaceId/consumers', getHref: (workspaceId: string) => `/w/${workspaceId}/consumers` },
     members: { path: '/w/:workspaceId/members', getHref: (workspaceId: string) => `/w/${workspaceId}/members` },
     outbox: { path: '/w/:workspaceId/outbox', getHref: (workspaceId: string) => `/w/${workspaceId}/outbox` },
     account: { path: '/w/:workspaceId/account', getHref: (workspaceId: string) => `/w/${workspaceId}/account` },

@@ -14,6 +14,7 @@ import { CertificateTable } from '../tables/CertificateTable';
 import { CoefficientTable } from '../tables/CoefficientTable';
 import { ApplyPanel } from './ApplyPanel';
 import { EvaluationPanel } from './EvaluationPanel';
+import { ExportPanel } from './ExportPanel';
 import { LambdaChooser } from './LambdaChooser';
 
 export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit: FitDetailDto; results: FitResultsDto; workspaceId: string; canChoose: boolean }) {
@@ -74,6 +75,7 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
         </section>
       )}
       <ApplyPanel workspaceId={workspaceId} fitId={fit.id} binomial={fit.family === 'binomial'} />
+      <ExportPanel workspaceId={workspaceId} fitId={fit.id} />
     </div>
   );
 }
