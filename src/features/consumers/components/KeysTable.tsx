@@ -45,11 +45,14 @@ export function KeysTable({ workspaceId }: { workspaceId: string }) {
         <caption className="sr-only">API keys</caption>
         <thead>
           <tr>
-            {['Name', 'Starts with', 'May read', 'State', 'Expires', 'Last used', ''].map((h) => (
+            {['Name', 'Starts with', 'May read', 'State', 'Expires', 'Last used'].map((h) => (
               <th key={h} scope="col" className="pb-2 pr-3 font-bold">
                 {h}
               </th>
             ))}
+            <th scope="col" className="pb-2">
+              <span className="sr-only">Actions</span>
+            </th>
           </tr>
         </thead>
         <tbody>
