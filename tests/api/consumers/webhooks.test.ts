@@ -8,6 +8,7 @@
 import { createHmac } from 'node:crypto';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { CreatedWebhookDto, ReleaseEventDto, WebhookDeliveryDto } from '../../../shared/consumers';
 import { onReleasePublished } from '../../../server/consumers/webhooks/notify';
@@ -156,3 +157,42 @@ describe('deliveries', () => {
     expect(history.body).toHaveLength(1);
   }, 60_000);
 });
+
+describe('through the real review and release routes', () => {
+  it('a release published after an approved review, then a restore: one signed delivery each, and a key scores the released fit', async () => {
+    const hook = (await register({ url: `${receiverUrl}?flow=1`, modelId: f.gaussian.modelId })).body as CreatedWebhookDto;
+    received.length = 0;
+    const reviewer = await inviteAndJoin(f.t, f.admin, uniqueEmail('reviewer'), 'reviewer');
+    const asked = await withCsrf(f.admin.agent.post(`${apiBase(f.admin)}/fits/${f.gaussian.id}/reviews`), f.admin.csrf).send({ note: 'please check' });
+    expect(asked.status, asked.text).toBe(201);
+    const decided = await withCsrf(reviewer.agent.post(`${apiBase(f.admin)}/reviews/${asked.body.id}/decision`), reviewer.csrf).send({ decision: 'approve' });
+    expect(decided.status, decided.text).toBe(200);
+    const published = await withCsrf(f.admin.agent.post(`${apiBase(f.admin)}/models/${f.gaussian.modelId}/releases`), f.admin.csrf).send({ fitId: f.gaussian.id, notes: 'first for consumers' });
+    expect(published.status, published.text).toBe(201);
+    // Restore the earlier release (number 1, from the deliveries test above).
+    const list = await f.admin.agent.get(`${apiBase(f.admin)}/models/${f.gaussian.modelId}/releases`);
+    const first = (list.body as { id: string; number: number }[]).find((r) => r.number === 1)!;
+    const restored = await withCsrf(f.admin.agent.post(`${apiBase(f.admin)}/releases/${first.id}/restore`), f.admin.csrf).send({ notes: 'back again' });
+    expect(restored.status, restored.text).toBe(201);
+
+    const bodies = await until('two deliveries to the flow hook', async () => {
+      const mine = received.filter((r) => r.url === '/lariat-hook?flow=1');
+      return mine.length >= 2 ? mine : undefined;
+    });
+    await new Promise((r) => setTimeout(r, 1500)); // nothing more arrives
+    const mine = received.filter((r) => r.url === '/lariat-hook?flow=1');
+    expect(mine).toHaveLength(2);
+    const events = bodies.map((b) => JSON.parse(b.body) as ReleaseEventDto);
+    expect(events.map((e) => e.release.id).sort()).toEqual([published.body.id, restored.body.id].sort());
+    for (const b of mine) {
+      const expected = `v1=${createHmac('sha256', hook.secret).update(`${String(b.headers['x-lariat-timestamp'])}.${b.body}`).digest('hex')}`;
+      expect(b.headers['x-lariat-signature']).toBe(expected);
+    }
+    const key = (await withCsrf(f.admin.agent.post(`${apiBase(f.admin)}/keys`), f.admin.csrf).send({ name: 'flow', scope: 'workspace' })).body as { key: string };
+    const doc = await request(f.t.app).get(`/api/v1/models/${f.gaussian.modelId}/release`).set('Authorization', `Bearer ${key.key}`);
+    expect(doc.status).toBe(200);
+    expect(doc.body.release.id).toBe(restored.body.id);
+    expect(doc.body.fit.id).toBe(f.gaussian.id);
+  }, 60_000);
+});
+
