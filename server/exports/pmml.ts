@@ -34,6 +34,7 @@ export function fitToPmml(m: ChosenModel, modelName: string, exportedAt = new Da
   out.push(`  <Header description="${esc(`${modelName}, version ${fit.version}, at lambda ${num(m.lambda)} (${m.rule})`)}">`);
   out.push(`    <Application name="Lariat" version="${esc(fit.engineVersion)}"/>`);
   out.push(`    <Annotation>${esc(`Fit ${fit.id}; dataset SHA-256 ${fit.datasetSha256}; coefficients on the original scale (standardization folded in).`)}</Annotation>`);
+  out.push('    <Annotation>A category not seen when fitting adds 0 here; Lariat itself refuses such a row.</Annotation>');
   for (const line of CAUTION_LINES) out.push(`    <Annotation>${esc(line)}</Annotation>`);
   out.push(`    <Timestamp>${exportedAt.toISOString()}</Timestamp>`);
   out.push('  </Header>');
