@@ -96,7 +96,13 @@ export function compareFits(list: Finished[]): ComparisonDto {
   const fits = list.map(comparedFit);
   const names: string[] = [];
   const seen = new Set<string>();
-  for (const f of list) for (const t of f.results.terms) if (!seen.has(t)) seen.add(t) && names.push(t);
+  for (const f of list) {
+    for (const t of f.results.terms) {
+      if (seen.has(t)) continue;
+      seen.add(t);
+      names.push(t);
+    }
+  }
   const coefs = list.map((f) => chosenCoefficients(f.results));
   const terms: ComparedTermDto[] = names.map((term) => ({
     term,

@@ -78,7 +78,7 @@ export async function sendNoticeMail(ctx: AppContext, noticeId: string): Promise
       '',
       `Open it in Lariat: ${base}${row.notice.link}`,
       '',
-      `You get this e-mail as a member of the workspace "${row.workspaceName}". Turn these e-mails off on your account page: ${base}/w/${row.notice.workspaceId}/account`,
+      `You get this e-mail as a member of the workspace "${row.workspaceName}". Choose which e-mails you get on the Reviews page: ${base}/w/${row.notice.workspaceId}/reviews#mail`,
     ].join('\n'),
   });
 }
