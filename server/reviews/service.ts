@@ -40,9 +40,9 @@ async function requireReview(ctx: AppContext, workspaceId: string, reviewId: str
 
 /** Why `actor` may not decide this review, or null when they may. */
 function cannotDecide(row: ReviewRow, actor: Actor): string | null {
-  if (!DECIDERS.includes(actor.role)) return `Deciding needs the role reviewer or admin in this workspace; yours is ${actor.role}.`;
   if (row.review.requestedBy === actor.user.id) return 'You asked for this review: someone else decides it.';
   if (row.fitCreatedBy === actor.user.id) return 'You ran this fit: someone else decides on it.';
+  if (!DECIDERS.includes(actor.role)) return `Deciding needs the role reviewer or admin in this workspace; yours is ${actor.role}.`;
   return null;
 }
 

@@ -124,8 +124,9 @@ function ReviewedCoefficients({ fit, review, onComment }: { fit: FitDetailDto; r
               <td className="text-right">{row.stability === null ? '—' : formatShare(row.stability)}</td>
               <td className="text-right">
                 {onComment && (
-                  <button type="button" className="text-xs font-bold text-lariat-800 underline dark:text-lariat-200" onClick={() => onComment(row.term)} aria-label={`Comment on ${row.term}`}>
+                  <button type="button" className="text-xs font-bold text-lariat-800 underline dark:text-lariat-200" onClick={() => onComment(row.term)}>
                     {commented.has(row.term) ? 'Comment again' : 'Comment'}
+                    <span className="sr-only"> on {row.term}</span>
                   </button>
                 )}
               </td>
