@@ -59,7 +59,7 @@ beforeAll(async () => {
   const run = await api.post(`${base}/models/${modelId}/fits`, { headers, data: { predictors: ['x1', 'x2', 'g'], penalty: 'lasso', path: { kind: 'automatic', pathLength: 12 }, cv: { kind: 'folds', folds: 4, seed: 3 } } });
   expect(run.status()).toBe(202);
   fitId = ((await run.json()) as { id: string }).id;
-  const deadline = Date.now() + 100_000;
+  const deadline = Date.now() + 150_000;
   for (;;) {
     const fit = (await (await api.get(`${base}/fits/${fitId}`)).json()) as { status: string };
     if (fit.status === 'finished') break;
@@ -67,7 +67,7 @@ beforeAll(async () => {
     await new Promise((r) => setTimeout(r, 300));
   }
   fs.mkdirSync(SHOTS, { recursive: true });
-}, 180_000);
+}, 240_000);
 afterAll(async () => {
   await browser?.close();
 });
@@ -156,7 +156,7 @@ describe('review and release in the browser', () => {
     const fit = (await (await api.get(`/api/workspaces/${workspaceId}/fits/${fitId}`)).json()) as { modelId: string };
     const run = await api.post(`/api/workspaces/${workspaceId}/models/${fit.modelId}/fits`, { headers, data: { predictors: ['x1', 'x2', 'g', 'n1', 'n2'], penalty: 'lasso', path: { kind: 'automatic', pathLength: 12 }, cv: { kind: 'folds', folds: 4, seed: 3 } } });
     const second = ((await run.json()) as { id: string }).id;
-    const deadline = Date.now() + 100_000;
+    const deadline = Date.now() + 150_000;
     while (((await (await api.get(`/api/workspaces/${workspaceId}/fits/${second}`)).json()) as { status: string }).status !== 'finished') {
       if (Date.now() > deadline) throw new Error('second fit did not finish');
       await new Promise((r) => setTimeout(r, 300));
