@@ -3,7 +3,7 @@
  * one job per notice, so a mail relay hiccup is retried and never loses or repeats anyone else's e-mail.
  * The e-mail honours the person's opt-out at the time it is sent.
  */
-import { eq } from 'drizzle-orm';
+import { and, eq, isNull } from 'drizzle-orm';
 import type { WorkspaceRole } from '../../shared/members';
 import type { MailPreferencesDto, NoticeKind } from '../../shared/reviews';
 import type { AppContext } from '../context';
@@ -40,16 +40,24 @@ export async function addNotices(db: Executor, n: { workspaceId: string; kind: N
   return rows.map((r) => r.id);
 }
 
-/** After the transaction committed: one queued e-mail per notice. */
+/**
+ * After the transaction committed: one queued job per change of state, carrying its notices. One job
+ * rather than one per person keeps the queue short; each notice records when its e-mail went out, so
+ * a job retried after a relay hiccup sends only the e-mails still missing.
+ */
 export async function queueNoticeMails(ctx: AppContext, noticeIds: string[]): Promise<void> {
-  for (const noticeId of noticeIds) {
-    try {
-      await ctx.queue.send(NOTICE_MAIL_JOB, { noticeId });
-    } catch (error) {
-      // The change is stored and the in-app notice exists; only this e-mail is lost.
-      reportUnexpected(error, 'queueing a notice e-mail');
-    }
+  if (noticeIds.length === 0) return;
+  try {
+    await ctx.queue.send(NOTICE_MAIL_JOB, { noticeIds });
+  } catch (error) {
+    // The change is stored and the in-app notices exist; only these e-mails are lost.
+    reportUnexpected(error, 'queueing notice e-mails');
   }
+}
+
+/** The queued job: every notice's e-mail not sent yet. Throws on the first relay error (retried). */
+export async function sendNoticeMails(ctx: AppContext, noticeIds: string[]): Promise<void> {
+  for (const noticeId of noticeIds) await sendNoticeMail(ctx, noticeId);
 }
 
 export async function mailPreferencesOf(db: Executor, userId: string): Promise<MailPreferencesDto> {
@@ -57,17 +65,21 @@ export async function mailPreferencesOf(db: Executor, userId: string): Promise<M
   return { reviewRequested: row?.reviewRequested ?? true, reviewDecided: row?.reviewDecided ?? true, releasePublished: row?.releasePublished ?? true };
 }
 
-/** The queued job: the notice's e-mail, unless the person opted out. Throws on a relay error (retried). */
-export async function sendNoticeMail(ctx: AppContext, noticeId: string): Promise<void> {
+/** One notice's e-mail, unless already sent or the person opted out. Throws on a relay error. */
+async function sendNoticeMail(ctx: AppContext, noticeId: string): Promise<void> {
   const [row] = await ctx.db
     .select({ notice: notices, email: users.email, workspaceName: workspaces.name })
     .from(notices)
     .innerJoin(users, eq(users.id, notices.userId))
     .innerJoin(workspaces, eq(workspaces.id, notices.workspaceId))
-    .where(eq(notices.id, noticeId));
-  if (!row) return; // the person or workspace is gone
+    .where(and(eq(notices.id, noticeId), isNull(notices.mailedAt)));
+  if (!row) return; // already mailed, or the person or workspace is gone
+  const markMailed = () => ctx.db.update(notices).set({ mailedAt: new Date() }).where(eq(notices.id, noticeId));
   const prefs = await mailPreferencesOf(ctx.db, row.notice.userId);
-  if (!prefs[PREFERENCE_OF[row.notice.kind]]) return;
+  if (!prefs[PREFERENCE_OF[row.notice.kind]]) {
+    await markMailed();
+    return;
+  }
   const base = ctx.config.publicUrl;
   await ctx.sendMail({
     to: row.email,
@@ -81,5 +93,6 @@ export async function sendNoticeMail(ctx: AppContext, noticeId: string): Promise
       `You get this e-mail as a member of the workspace "${row.workspaceName}". Choose which e-mails you get on the Reviews page: ${base}/w/${row.notice.workspaceId}/reviews#mail`,
     ].join('\n'),
   });
+  await markMailed();
 }
 

@@ -1,7 +1,7 @@
 /** Every feature's queue workers, registered once per process (server/main.ts, tests' apps). Each area adds one line. */
 import { INVITATION_MAIL_JOB, sendInvitationMail } from '../accounts/invitations';
 import type { AppContext } from '../context';
-import { NOTICE_MAIL_JOB, sendNoticeMail } from '../notices/notify';
+import { NOTICE_MAIL_JOB, sendNoticeMails } from '../notices/notify';
 import { startWebhookWorker } from '../consumers/webhooks/deliver';
 
 export async function startWorkers(ctx: AppContext): Promise<void> {
@@ -9,5 +9,5 @@ export async function startWorkers(ctx: AppContext): Promise<void> {
   await ctx.queue.work<{ invitationId: string }>(INVITATION_MAIL_JOB, (data) => sendInvitationMail(ctx, data.invitationId), { retryLimit: 8, retryDelaySeconds: 2 });
   await startWebhookWorker(ctx);
   // Review and release notices: the same retry rule as invitations.
-  await ctx.queue.work<{ noticeId: string }>(NOTICE_MAIL_JOB, (data) => sendNoticeMail(ctx, data.noticeId), { retryLimit: 8, retryDelaySeconds: 2 });
+  await ctx.queue.work<{ noticeIds: string[] }>(NOTICE_MAIL_JOB, (data) => sendNoticeMails(ctx, data.noticeIds), { retryLimit: 8, retryDelaySeconds: 2 });
 }

@@ -137,6 +137,8 @@ export const notices = pgTable(
     link: text('link').notNull(),
     createdAt: createdAt(),
     readAt: timestamp('read_at', { withTimezone: true }),
+    /** When its e-mail went out (or was skipped by the person's opt-out): a retried job skips it. */
+    mailedAt: timestamp('mailed_at', { withTimezone: true }),
   },
   (t) => [index('notices_user_idx').on(t.userId, t.createdAt)],
 );
