@@ -96,6 +96,7 @@ const ERROR_TEXT: Record<number, string> = {
   413: 'Too many rows or too large a body.',
   415: 'Send application/json or text/csv.',
   422: 'The CSV lacks a column the release uses.',
+  429: 'Too many requests for this key this minute, or too many refused keys from this address (see Retry-After).',
 };
 const modelId = { name: 'modelId', in: 'path', required: true, schema: uuid };
 
@@ -116,7 +117,7 @@ export function openApiDocument(serverUrl: string) {
         get: {
           operationId: 'listReleasedModels',
           summary: 'Released models visible to this key, each with its current release.',
-          responses: { '200': { description: 'The models.', content: { 'application/json': { schema: ref('ReleasedModelList') } } }, ...errors([401]) },
+          responses: { '200': { description: 'The models.', content: { 'application/json': { schema: ref('ReleasedModelList') } } }, ...errors([401, 429]) },
         },
       },
       '/models/{modelId}/release': {
@@ -124,7 +125,7 @@ export function openApiDocument(serverUrl: string) {
           operationId: 'getCurrentRelease',
           summary: 'The current release of a model: coefficients, encoding, standardization, lambda, metrics, spec, checksum, engine version.',
           parameters: [modelId],
-          responses: { '200': { description: 'The release document.', content: { 'application/json': { schema: ref('ReleaseDocument') } } }, ...errors([401, 404]) },
+          responses: { '200': { description: 'The release document.', content: { 'application/json': { schema: ref('ReleaseDocument') } } }, ...errors([401, 404, 429]) },
         },
       },
       '/models/{modelId}/score': {
@@ -140,7 +141,7 @@ export function openApiDocument(serverUrl: string) {
               'text/csv': { schema: { type: 'string', description: 'A header row naming the columns, then one line per row.' } },
             },
           },
-          responses: { '200': { description: 'One result per row, in order.', content: { 'application/json': { schema: ref('ScoreResponse') } } }, ...errors([400, 401, 404, 413, 415, 422]) },
+          responses: { '200': { description: 'One result per row, in order.', content: { 'application/json': { schema: ref('ScoreResponse') } } }, ...errors([400, 401, 404, 413, 415, 422, 429]) },
         },
       },
       '/openapi.json': {

@@ -17,6 +17,7 @@ import { currentRelease, listCurrentReleases, type ReleaseRow } from '../../rele
 import { HIDDEN_MODEL, requestKey, requireApiKey, requireModelInScope, scopedModelIds } from '../keys/authenticate';
 import { releasedModel } from './model-cache';
 import { openApiDocument } from './openapi';
+import { perKeyLimit, refusedKeyLimit } from './rate-limit';
 import { releaseDocument } from './release-doc';
 import { neededColumns, rowsFromCsv, rowsFromJson, scoreTable } from './score';
 
@@ -43,7 +44,11 @@ export function consumerApiRouter(ctx: AppContext): Router {
   router.get('/openapi.json', (_req, res) => {
     res.json(openApiDocument(ctx.config.publicUrl));
   });
-  const key = requireApiKey(ctx);
+  const authenticate = requireApiKey(ctx);
+  const refused = refusedKeyLimit(ctx.config);
+  const perKey = perKeyLimit(ctx.config);
+  // Refused keys counted per address first; then the key; then its own request budget.
+  const key = Router().use(refused, authenticate, perKey);
   router.get('/models', key, async (req, res) => {
     const k = requestKey(req);
     const scope = await scopedModelIds(ctx, k);
