@@ -1,7 +1,8 @@
 /**
  * A fit through review and release in the browser: the analyst asks for a review; the reviewer opens
  * the link in the captured e-mail, comments on one coefficient and approves; the analyst, told by
- * e-mail, releases the approved fit with release notes; the admin reads the audit log. The team and
+ * e-mail, releases the approved fit with release notes; the admin reads the audit log; a consumer key
+ * then scores rows with the same predictions as the fit's own predictions download. The team and
  * the fit are set up over the API (the fits' own browser test covers those pages); axe-core runs on
  * every page this feature adds.
  */
@@ -148,6 +149,28 @@ describe('review and release in the browser', () => {
     expect(csv.status()).toBe(200);
     expect((await csv.text()).split('\n').filter((l) => l.includes(',release.published,'))).toHaveLength(1);
     await checkA11y(admin, 'releases page with the audit log (admin)');
+  });
+
+  it('a consumer key then scores rows over HTTP with the same predictions as the fit\'s own predictions', async () => {
+    const made = await adminContext.request.post(`/api/workspaces/${workspaceId}/keys`, { data: { name: 'Dashboard', scope: 'workspace', expiresInDays: 30 }, headers: await csrfHeader(adminContext) });
+    expect(made.status(), await made.text()).toBe(201);
+    const { key } = (await made.json()) as { key: string };
+    const fit = (await (await analystContext.request.get(`/api/workspaces/${workspaceId}/fits/${fitId}`)).json()) as { modelId: string; datasetVersion: { id: string } };
+    const [header, ...lines] = regressionCsv(150, 2).trim().split('\n');
+    const names = header.split(',');
+    const rows = lines.slice(0, 25).map((line) => Object.fromEntries(line.split(',').map((v, k) => [names[k], names[k] === 'g' || names[k] === 'yes' ? v : Number(v)])));
+    const scored = await reviewerContext.request.post(`/api/v1/models/${fit.modelId}/score`, { data: { rows }, headers: { Authorization: `Bearer ${key}` } });
+    expect(scored.status(), await scored.text()).toBe(200);
+    const body = (await scored.json()) as { rows: { row: number; linearPredictor: number | null; error: string | null }[]; fitId: string };
+    expect(body.fitId).toBe(fitId);
+    const csv = await (await analystContext.request.get(`/api/workspaces/${workspaceId}/fits/${fitId}/predictions?datasetVersionId=${fit.datasetVersion.id}`)).text();
+    const predicted = csv.split('\n').filter((l) => l && !l.startsWith('#')).slice(1).map((l) => Number(l.split(',')[1]));
+    for (let i = 0; i < rows.length; i++) {
+      const a = body.rows[i].linearPredictor!;
+      const b = predicted[i];
+      expect(body.rows[i].error).toBeNull();
+      expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(a), Math.abs(b)));
+    }
   });
 
   it('compares the released version with a second one through a shareable link', async () => {
