@@ -5,6 +5,7 @@ import express from 'express';
 import type { AppContext } from './context';
 import { errorHandler, notFound } from './http/errors';
 import { apiRouter } from './routes/index';
+import { consumerApiRouter } from './consumers/api/routes';
 import { securityHeaders } from './security/headers';
 
 /** The Express app: JSON API under /api, and the built client (dist/client) for everything else. */
@@ -15,6 +16,8 @@ export function createApp(ctx: AppContext): express.Express {
   app.set('trust proxy', ctx.config.trustProxy);
   app.use(securityHeaders(ctx.config));
   app.use(cookieParser());
+  // The consumer API (key-authenticated, own body limits) before the session API's JSON parser.
+  app.use('/api/v1', consumerApiRouter(ctx));
   app.use('/api', express.json({ limit: '1mb', strict: true }), apiRouter(ctx));
   app.use('/api', (_req, _res, next) => next(notFound('No such API route.')));
 

@@ -41,6 +41,13 @@ const schema = z.object({
   LARIAT_WORKER_THREADS: z.coerce.number().int().min(1).max(64).default(1),
   /** CPU priority of fit workers (0 = as the API, 19 = lowest): the API stays responsive beside them. */
   LARIAT_WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
+  /**
+   * Webhooks: host names or addresses (comma-separated) that may be called although they are private
+   * or loopback (a receiver on the same network; the tests' local receiver). Default none.
+   */
+  LARIAT_WEBHOOK_ALLOWED_HOSTS: z.string().default(''),
+  /** First retry of a failed webhook delivery after this many seconds, then doubling (pg-boss backoff). */
+  LARIAT_WEBHOOK_RETRY_SECONDS: z.coerce.number().int().min(1).default(30),
 });
 
 export type Config = z.infer<typeof schema> & { publicUrl: string; sessionSecret: string; trustProxy: boolean | number | string };

@@ -13,6 +13,11 @@
  * Exempt from (2), not from (1): sign-in, sign-up and password-reset request (no session exists to
  * abuse yet; they are rate limited), and the endpoints that carry an e-mailed secret token
  * (sign-up complete, password-reset complete, invitation accept): an attacker cannot forge a request without that token.
+ * Not cookie-authenticated at all: the consumer API under /api/v1 (server/consumers/api/routes.ts) is
+ * mounted before this middleware and reads only an `Authorization: Bearer` API key, never a cookie.
+ * CSRF works by making a browser send its cookies; a browser never adds an Authorization header on its
+ * own, so a forged cross-site request carries no key. The /v1 pattern below only documents that: a
+ * session cookie sent to /api/v1 is ignored there.
  */
 import { createHmac } from 'node:crypto';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
@@ -29,6 +34,7 @@ const EXEMPT = [
   /^\/auth\/sign-up(\/complete)?\/?$/,
   /^\/auth\/password-reset\/(request|complete)\/?$/,
   /^\/invitations\/[^/]+\/accept\/?$/,
+  /^\/v1\//,
 ];
 
 /** The CSRF token of one session: derived, so it needs no storage and dies with the session. */

@@ -48,6 +48,8 @@ export interface FitStoredResults {
   rowsDropped: number;
   holdoutRows: number;
   notes: string[];
+  /** Per term: standardized x = (x - center) / scale (absent on fits stored before it was kept). */
+  standardization?: { centers: number[]; scales: number[] } | null;
 }
 
 export type FoldStoredLosses = Partial<Record<CvMetric, number[]>> & { statuses: string[] };

@@ -4,6 +4,10 @@ import { datasetsApi } from '../datasets/routes/index';
 import type { AppContext } from '../context';
 import { devOutboxRouter } from '../dev/outbox';
 import { fitsRouter } from '../fits/routes';
+import { releasesRouter } from '../releases/routes';
+import { reviewsRouter } from '../reviews/routes';
+import { consumersAdminRouter } from '../consumers/routes';
+import { exportsRouter } from '../exports/routes';
 import { authRouter } from './auth';
 import { invitationsRouter } from './invitations';
 import { workspacesRouter } from './workspaces';
@@ -21,5 +25,9 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(devOutboxRouter(ctx));
   router.use(datasetsApi(ctx));
   router.use(fitsRouter(ctx));
+  router.use(reviewsRouter(ctx));
+  router.use(releasesRouter(ctx));
+  router.use(exportsRouter(ctx));
+  router.use(consumersAdminRouter(ctx));
   return router;
 }

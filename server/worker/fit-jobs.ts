@@ -148,6 +148,7 @@ async function runPathStep(deps: FitWorkerDeps, thread: EngineRunner, job: PathJ
       rowsDropped: out.rowsDropped,
       holdoutRows: tables.holdout?.nRows ?? 0,
       notes: out.notes,
+      standardization: out.standardization,
     };
     const stored = await db
       .update(fits)

@@ -1,8 +1,11 @@
 import type { RouteObject } from 'react-router';
 import { accountRoutes } from '@/features/account/routes';
+import { consumersRoutes } from '@/features/consumers/routes';
 import { datasetsRoutes } from '@/features/datasets/routes';
 import { fitsRoutes } from '@/features/fits/routes';
 import { modelsRoutes } from '@/features/models/routes';
+import { releasesRoutes } from '@/features/releases/routes';
+import { reviewsRoutes } from '@/features/reviews/routes';
 
 /**
  * Routes that features add inside a workspace (children of /w/:workspaceId, so every page here has
@@ -14,5 +17,8 @@ export const workspaceFeatureRoutes: RouteObject[] = [
   ...datasetsRoutes,
   ...modelsRoutes,
   ...fitsRoutes,
+  ...reviewsRoutes,
+  ...releasesRoutes,
   ...accountRoutes,
+  ...consumersRoutes,
 ];

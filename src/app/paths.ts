@@ -30,7 +30,11 @@ export const paths = {
     },
     fit: { path: '/w/:workspaceId/fits/:fitId', getHref: (workspaceId: string, fitId: string) => `/w/${workspaceId}/fits/${fitId}` },
     reviews: { path: '/w/:workspaceId/reviews', getHref: (workspaceId: string) => `/w/${workspaceId}/reviews` },
+    review: { path: '/w/:workspaceId/reviews/:reviewId', getHref: (workspaceId: string, reviewId: string) => `/w/${workspaceId}/reviews/${reviewId}` },
+    /** Links to a comparison: `fits` in order, the first is the baseline. */
+    compare: { path: '/w/:workspaceId/compare', getHref: (workspaceId: string, fitIds: string[] = []) => `/w/${workspaceId}/compare${fitIds.length ? `?fits=${fitIds.join(',')}` : ''}` },
     releases: { path: '/w/:workspaceId/releases', getHref: (workspaceId: string) => `/w/${workspaceId}/releases` },
+    consumers: { path: '/w/:workspaceId/consumers', getHref: (workspaceId: string) => `/w/${workspaceId}/consumers` },
     members: { path: '/w/:workspaceId/members', getHref: (workspaceId: string) => `/w/${workspaceId}/members` },
     outbox: { path: '/w/:workspaceId/outbox', getHref: (workspaceId: string) => `/w/${workspaceId}/outbox` },
     account: { path: '/w/:workspaceId/account', getHref: (workspaceId: string) => `/w/${workspaceId}/account` },

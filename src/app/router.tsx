@@ -22,8 +22,7 @@ const acceptInvitation = () =>
   import('@/features/members/components/AcceptInvitationPage').then((m) => ({ Component: m.AcceptInvitationPage }));
 const newWorkspace = () => import('@/features/workspaces/components/NewWorkspacePage').then((m) => ({ Component: m.NewWorkspacePage }));
 const members = () => import('@/features/members/components/MembersPage').then((m) => ({ Component: m.MembersPage }));
-const reviews = () => import('@/features/reviews/components/ReviewsEmptyPage').then((m) => ({ Component: m.ReviewsEmptyPage }));
-const releases = () => import('@/features/releases/components/ReleasesEmptyPage').then((m) => ({ Component: m.ReleasesEmptyPage }));
+const compare = () => import('./routes/CompareRoute').then((m) => ({ Component: m.CompareRoute }));
 const outbox = () => import('./routes/OutboxRoute').then((m) => ({ Component: m.OutboxRoute }));
 
 export function createAppRouter() {
@@ -54,8 +53,7 @@ export function createAppRouter() {
               children: [
                 { index: true, element: <WorkspaceIndex /> },
                 ...workspaceFeatureRoutes,
-                { path: paths.workspace.reviews.path, lazy: reviews },
-                { path: paths.workspace.releases.path, lazy: releases },
+                { path: paths.workspace.compare.path, lazy: compare },
                 { path: paths.workspace.members.path, lazy: members },
                 { path: paths.workspace.outbox.path, lazy: outbox },
                 { path: '*', element: <NotFoundPage inShell /> },

@@ -46,8 +46,8 @@ describe('accounts', () => {
     const nav = page.getByRole('navigation', { name: 'Workspace' });
     const areas: [string, RegExp][] = [
       ['Models', /No models yet/],
-      ['Reviews', /Reviews are coming/],
-      ['Releases', /Releases are coming/],
+      ['Reviews', /No reviews here yet/],
+      ['Releases', /No releases yet/],
     ];
     for (const [area, emptyState] of areas) {
       await nav.getByRole('link', { name: area }).click();

@@ -2,3 +2,5 @@
 export * from './auth';
 export * from './datasets';
 export * from './fits';
+export * from './releases';
+export * from './consumers';

@@ -24,6 +24,8 @@ export interface PathOutput {
   rowsFitted: number;
   rowsDropped: number;
   notes: string[];
+  /** Standardization learnt from the rows fitted, per term (scale 1 without standardization). */
+  standardization: { centers: number[]; scales: number[] } | null;
   /** Cross-validation folds the plan makes (0 without CV). */
   folds: number;
 }
@@ -79,6 +81,7 @@ export function runPath(table: EngineTable, spec: FitSpec, onLambda?: (done: num
     rowsFitted: prepared.built.rows.length,
     rowsDropped: table.nRows - prepared.built.rows.length,
     notes: path.notes,
+    standardization: path.centers && path.scales ? { centers: Array.from(path.centers), scales: Array.from(path.scales) } : null,
     folds,
   };
 }

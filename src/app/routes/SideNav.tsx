@@ -8,6 +8,7 @@ const AREAS = [
   { label: 'Reviews', href: paths.workspace.reviews.getHref },
   { label: 'Releases', href: paths.workspace.releases.getHref },
   { label: 'Members', href: paths.workspace.members.getHref },
+  { label: 'API keys', href: paths.workspace.consumers.getHref },
 ] as const;
 
 const LINK =

@@ -8,6 +8,11 @@
  * authorization) or a made-up target id (404 from the handler, a different message from the
  * workspace's "not a member" 404). The second part checks the CSRF header on every state-changing
  * route, also from the router.
+ *
+ * Consumer API keys are callers too: `key` (a workspace-wide key of the probed workspace) and
+ * `other-key` (a key of another workspace). On every session route a key caller is exactly a stranger
+ * (401: a key never works as a session); the consumer routes under /api/v1 answer only to keys, so
+ * every session caller gets 401 there (a session never works as a key).
  */
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -17,13 +22,17 @@ import { apiRoutes, isStateChanging, routeKey, type ApiRoute } from '../../suppo
 import { inviteAndJoin, signIn, signUp, uniqueEmail, type Session } from '../../support/session';
 import { closeApp, upload } from '../datasets/support';
 
-type Caller = WorkspaceRole | 'other' | 'stranger';
-const CALLERS: Caller[] = ['admin', 'analyst', 'reviewer', 'viewer', 'other', 'stranger'];
+type SessionCaller = WorkspaceRole | 'other' | 'stranger';
+type KeyCaller = 'key' | 'other-key';
+type Caller = SessionCaller | KeyCaller;
+const CALLERS: Caller[] = ['admin', 'analyst', 'reviewer', 'viewer', 'other', 'stranger', 'key', 'other-key'];
+const KEY_CALLERS: readonly Caller[] = ['key', 'other-key'];
 const NOT_MEMBER = 'No such workspace, or you are not a member of it.';
 const MADE_UP = '00000000-0000-4000-8000-000000000000';
 
 interface Row {
-  status: Record<Caller, number>;
+  /** Key callers default to the stranger's status (a key is no session). */
+  status: Record<SessionCaller, number> & Partial<Record<KeyCaller, number>>;
   /** Sign the caller in afresh for this probe (the request ends its session). */
   fresh?: boolean;
   body?: unknown;
@@ -31,7 +40,7 @@ interface Row {
 
 /** A workspace route: the listed roles get `ok`, other members 403, another workspace 404, a stranger 401. */
 function ws(allowed: WorkspaceRole[], ok: number): Row {
-  const status = { other: 404, stranger: 401 } as Record<Caller, number>;
+  const status = { other: 404, stranger: 401 } as Record<SessionCaller, number>;
   for (const role of ['admin', 'analyst', 'reviewer', 'viewer'] as const) status[role] = allowed.includes(role) ? ok : 403;
   return { status };
 }
@@ -41,6 +50,10 @@ const editors: WorkspaceRole[] = ['admin', 'analyst'];
 const personal = (ok: number): Row => ({ status: { admin: ok, analyst: ok, reviewer: ok, viewer: ok, other: ok, stranger: 401 } });
 /** Anyone, signed in or not. */
 const open = (ok: number): Row => ({ status: { admin: ok, analyst: ok, reviewer: ok, viewer: ok, other: ok, stranger: ok } });
+/** Consumer API: every session caller 401; the key callers get what is given. */
+const consumer = (key: number, otherKey: number): Row => ({
+  status: { admin: 401, analyst: 401, reviewer: 401, viewer: 401, other: 401, stranger: 401, key, 'other-key': otherKey },
+});
 
 const W = '/api/workspaces/:workspaceId';
 const V = `${W}/datasets/:datasetId/versions/:number`;
@@ -92,11 +105,45 @@ const TABLE: Record<string, Row> = {
   [`POST ${W}/fits/:fitId/choice`]: ws(editors, 400),
   [`GET ${W}/fits/:fitId/predictions`]: ws(all, 400),
   [`POST ${W}/fits/:fitId/predictions`]: ws(all, 404),
+  // Reviews, releases, notices, the audit log (issue 11).
+  [`GET ${W}/reviews`]: ws(all, 200),
+  [`POST ${W}/fits/:fitId/reviews`]: ws(editors, 404),
+  [`GET ${W}/reviews/:reviewId`]: ws(all, 404),
+  [`POST ${W}/reviews/:reviewId/comments`]: ws(['admin', 'analyst', 'reviewer'], 404),
+  [`POST ${W}/reviews/:reviewId/decision`]: ws(['admin', 'reviewer'], 404),
+  [`POST ${W}/reviews/:reviewId/withdraw`]: ws(editors, 404),
+  [`GET ${W}/comparisons`]: ws(all, 400),
+  [`GET ${W}/notices`]: ws(all, 200),
+  [`POST ${W}/notices/read`]: ws(all, 200),
+  'GET /api/me/mail-preferences': personal(200),
+  'PUT /api/me/mail-preferences': personal(400),
+  [`GET ${W}/releases`]: ws(all, 200),
+  [`GET ${W}/models/:modelId/releases`]: ws(all, 404),
+  [`POST ${W}/models/:modelId/releases`]: ws(editors, 404),
+  [`POST ${W}/releases/:releaseId/restore`]: ws(editors, 404),
+  [`GET ${W}/audit`]: ws(['admin'], 200),
+  [`GET ${W}/audit.csv`]: ws(['admin'], 200),
+  [`GET ${W}/fits/:fitId/exports/coefficients.csv`]: ws(all, 404),
+  [`GET ${W}/fits/:fitId/exports/model.pmml`]: ws(all, 404),
+  [`GET ${W}/fits/:fitId/exports/bundle.json`]: ws(all, 404),
+  [`GET ${W}/fits/:fitId/exports/fit.json`]: ws(all, 404),
+  [`GET ${W}/keys`]: ws(['admin'], 200),
+  [`POST ${W}/keys`]: ws(['admin'], 400),
+  [`POST ${W}/keys/:keyId/revoke`]: ws(['admin'], 404),
+  [`GET ${W}/webhooks`]: ws(['admin'], 200),
+  [`POST ${W}/webhooks`]: ws(['admin'], 400),
+  [`DELETE ${W}/webhooks/:webhookId`]: ws(['admin'], 404),
+  [`GET ${W}/webhooks/:webhookId/deliveries`]: ws(['admin'], 404),
+  'GET /api/v1/openapi.json': { ...open(200), status: { ...open(200).status, key: 200, 'other-key': 200 } },
+  'GET /api/v1/models': consumer(200, 200),
+  'GET /api/v1/models/:modelId/release': consumer(404, 404),
+  'POST /api/v1/models/:modelId/score': consumer(404, 404),
 };
 
 let t: TestApp;
 let routes: ApiRoute[];
-const sessions = {} as Record<Exclude<Caller, 'stranger'>, Session>;
+const sessions = {} as Record<Exclude<SessionCaller, 'stranger'>, Session>;
+const keys = {} as Record<KeyCaller, string>;
 let workspaceId = '';
 let datasetId = '';
 
@@ -107,6 +154,11 @@ beforeAll(async () => {
   workspaceId = sessions.admin.workspaceId;
   for (const role of ['analyst', 'reviewer', 'viewer'] as const) sessions[role] = await inviteAndJoin(t, sessions.admin, uniqueEmail(role), role);
   sessions.other = await signUp(t.app);
+  for (const [caller, session] of [['key', sessions.admin], ['other-key', sessions.other]] as const) {
+    const made = await session.agent.post(`/api/workspaces/${session.workspaceId}/keys`).set('X-Lariat-CSRF', session.csrf).send({ name: `matrix ${caller}`, scope: 'workspace' });
+    if (made.status !== 201) throw new Error(`fixture key: ${made.status} ${made.text}`);
+    keys[caller] = (made.body as { key: string }).key;
+  }
   const uploaded = await upload(sessions.admin, 'id,score\n1,2.5\n2,3.5\n3,1.0\n', 'matrix.csv', { name: 'Matrix' });
   if (uploaded.status !== 201) throw new Error(`fixture upload: ${uploaded.status} ${uploaded.text}`);
   datasetId = (uploaded.body as { datasetId: string }).datasetId;
@@ -130,9 +182,10 @@ function urlOf(route: ApiRoute): string {
 async function probe(route: ApiRoute, caller: Caller, row: Row): Promise<request.Response> {
   const url = urlOf(route);
   const method = route.method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete';
-  if (caller === 'stranger') {
-    // A CSRF pair of its own, so the stranger reaches authentication (and gets its 401).
+  if (caller === 'stranger' || caller === 'key' || caller === 'other-key') {
+    // A CSRF pair of its own, so the stranger (or a key holder) reaches authentication (and gets its 401).
     let req = request(t.app)[method](url);
+    if (caller !== 'stranger') req = req.set('Authorization', `Bearer ${keys[caller]}`);
     if (isStateChanging(route)) req = req.set('Cookie', 'lariat_csrf=stranger').set('X-Lariat-CSRF', 'stranger');
     return isStateChanging(route) ? req.send((row.body ?? {}) as object) : req;
   }
@@ -155,7 +208,7 @@ describe('route-by-role matrix (from the router)', () => {
       if (!row) continue;
       for (const caller of CALLERS) {
         const res = await probe(route, caller, row);
-        const expected = row.status[caller];
+        const expected = row.status[caller] ?? (KEY_CALLERS.includes(caller) ? row.status.stranger : undefined);
         if (res.status !== expected) wrong.push(`${routeKey(route)} as ${caller}: expected ${expected}, got ${res.status} ${res.text.slice(0, 160)}`);
         // Another workspace gets exactly the "no such workspace" answer: nothing about what is inside.
         if (caller === 'other' && route.path.startsWith(W) && res.status === 404 && res.body?.error?.message !== NOT_MEMBER) {
@@ -180,7 +233,8 @@ const CSRF_EXEMPT = new Set([
 describe('CSRF on every state-changing route (from the router)', () => {
   it('refuses a missing header, another session\'s token and a foreign Origin', async () => {
     const wrong: string[] = [];
-    const changing = routes.filter(isStateChanging);
+    // The consumer API reads no cookie, so there is no session for a forged request to ride (csrf.ts).
+    const changing = routes.filter((r) => isStateChanging(r) && !r.path.startsWith('/api/v1/'));
     expect(changing.length).toBeGreaterThan(10);
     for (const route of changing) {
       const url = urlOf(route);

@@ -13,6 +13,7 @@ import { CertificateTable } from '../tables/CertificateTable';
 import { CoefficientTable } from '../tables/CoefficientTable';
 import { ApplyPanel } from './ApplyPanel';
 import { EvaluationPanel } from './EvaluationPanel';
+import { ExportPanel } from './ExportPanel';
 import { LambdaChooser } from './LambdaChooser';
 
 /** In-page links: the workspace is long, and readers come back for one part. */
@@ -82,6 +83,7 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
         </section>
       )}
       <ApplyPanel workspaceId={workspaceId} fitId={fit.id} binomial={fit.family === 'binomial'} />
+      <ExportPanel workspaceId={workspaceId} fitId={fit.id} />
     </div>
   );
 }

@@ -1,0 +1,1 @@
+ALTER TABLE "notices" ADD COLUMN "mailed_at" timestamp with time zone;

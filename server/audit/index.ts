@@ -1,0 +1,1 @@
+export { recordAudit, type AuditEventInput } from './record';

@@ -1,0 +1,1 @@
+export { currentRelease, listCurrentReleases, listModelReleases, findRelease, type ReleaseRow } from './data';
