@@ -99,7 +99,7 @@ describe('row-wise prediction', () => {
     const out = predictRowsWithErrors(table, { family: 'binomial', encoding, intercept: 0.5, coefficients: [2, 0, -1] });
     expect(out.linearPredictor[0]).toBe(4.5);
     expect(out.probability![0]).toBeCloseTo(1 / (1 + Math.exp(-4.5)), 14);
-    expect(out.errors).toEqual([null, 'column "x" is missing', 'column "x": "zz" is not a number', 'column "g": category "c" was not seen when fitting']);
+    expect(out.errors).toEqual([null, 'column "x" is blank (this fit left out rows with blanks, so it has no fill value)', 'column "x": "zz" is not a number', 'column "g": category "c" was not seen when fitting']);
     expect(Number.isNaN(out.linearPredictor[1])).toBe(true);
   });
   it('fills a gap with the stored imputation value', () => {
