@@ -92,6 +92,11 @@ describe('fits in the browser', () => {
     await expectVisible(page.locator('[data-column="milk_fat_pct"]'));
     // The outcome cannot be its own predictor.
     expect(await page.getByLabel(`Use ${OUTCOME} as a predictor`).isDisabled()).toBe(true);
+    // The mostly blank notes column is not ticked by default, and the form says so and counts the rows kept.
+    expect(await page.getByLabel('Use notes as a predictor').isChecked()).toBe(false);
+    const rowsNote = page.getByTestId('predictor-rows-note');
+    await expectVisible(rowsNote.getByText(/Not ticked by default .*notes, \d+ of \d+ cells blank/));
+    await expectVisible(rowsNote.getByText(/Rows the fit will use: /));
     // Leave the sensor columns out: filter by a name pattern, then remove the shown ones.
     const before = await chosenCount();
     await page.getByLabel('Find columns').fill('sensor_*');
@@ -134,6 +139,7 @@ describe('fits in the browser', () => {
   });
 
   it('reads the charts and tables of the results workspace', async () => {
+    await expectVisible(page.getByTestId('rows-used').getByText(/Rows fitted: [\d,]+ of [\d,]+/));
     await expectVisible(page.getByRole('heading', { name: 'Read results with care' }));
     const cv = page.locator('figure[data-chart="cv"]');
     await expectVisible(cv.getByRole('heading', { name: 'Cross-validation' }));
