@@ -104,7 +104,7 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
         values[i] = Number.isNaN(v) ? mean : v;
       }
       if (count === 0) throw new EngineInputError(`column "${column.name}" has no values in the rows used`, column.name);
-      if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing values set to the mean ${mean}`);
+      if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the mean ${Number(mean.toPrecision(6))}`);
       const term = addColumn(values, column.name, -1);
       // Under 'impute' every predictor keeps its fill value, not only those with gaps in training:
       // a blank cell in a table scored later is filled the same way.
@@ -127,7 +127,7 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
       if (code < 0) imputed++;
       codes[i] = code < 0 ? mode : code;
     }
-    if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing values set to the most frequent level "${column.levels[mode]}"`);
+    if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the most frequent level "${column.levels[mode]}"`);
     const levels: string[] = [];
     const levelTerms: number[] = [];
     column.levels.forEach((level, k) => {

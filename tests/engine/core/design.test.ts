@@ -63,6 +63,8 @@ describe('buildDesign', () => {
     const n = 4;
     expect(built.design.terms).toEqual(['a', 'colour=red', 'colour=green']);
     expect(built.design.x[1]).toBeCloseTo(100 / 3, 12);
+    // The note rounds the fill value to 6 significant digits (the design keeps it exact).
+    expect(built.notes).toContain('column "a": 1 missing value set to the mean 33.3333');
     expect([...built.design.x.subarray(2 * n, 3 * n)]).toEqual([0, 1, 1, 1]);
     const enc = built.encoding.columns.find((c) => c.column === 'colour');
     expect(enc && enc.kind === 'categorical' ? enc.imputeLevel : undefined).toBe('green');
@@ -82,7 +84,7 @@ describe('buildDesign', () => {
     const z = byName.get('z');
     expect(z && z.kind === 'numeric' ? z.imputeValue : undefined).toBe(4);
     // Only z had gaps: the notes name it alone.
-    expect(built.notes.filter((note) => note.includes('missing values set to'))).toHaveLength(1);
+    expect(built.notes.filter((note) => note.includes(' set to the mean'))).toHaveLength(1);
     // Without imputation no fill values are kept (a blank is an error when scoring).
     const dropped = buildDesign(table, { response: 'y', predictors: ['x'], missing: 'drop', family: 'gaussian' });
     const xd = dropped.encoding.columns[0];
