@@ -73,6 +73,8 @@ describe('a binomial fit chosen by AUC', () => {
     expect(d.auc).toBeGreaterThan(0.8);
     expect(d.calibration.reduce((n, b) => n + b.count, 0)).toBe(d.rowCount);
     expect(d.positiveClass).toBe('yes');
+    // The confusion table names both levels, not "not yes".
+    expect(d.negativeClass).toBe('no');
   });
 });
 
