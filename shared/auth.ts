@@ -138,6 +138,8 @@ export interface MeDto {
   memberships: MembershipSummaryDto[];
   /** Echo this in the X-Lariat-CSRF header on every state-changing request. */
   csrfToken: string;
+  /** Whether GET /api/dev/outbox exists on this server (so the client asks for it only then). */
+  devOutbox: boolean;
 }
 
 /** GET /api/auth/sessions: one signed-in browser of the person. */

@@ -390,6 +390,8 @@ export interface BinomialDiagnosticsDto {
   observed: (0 | 1)[];
   /** The level counted as 1, when the outcome is text. */
   positiveClass: string | null;
+  /** The level counted as 0, when the outcome is text (absent in fits stored before it was added). */
+  negativeClass?: string | null;
 }
 export const DIAGNOSTIC_SAMPLE = 2000;
 export const ROC_POINTS = 200;

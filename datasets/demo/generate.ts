@@ -7,8 +7,9 @@
  *   - top_grade (yes/no): whether the vat's cheese passed top-grade inspection.
  * Of the 44 numeric candidate predictors only a handful drive the outcomes (listed in TRUE_EFFECTS);
  * the rest are noise, some of it correlated with the real drivers. Three categorical predictors
- * (milk_supplier, starter_culture, shift) form natural groups. A vat id column is an identifier and
- * a notes column is free text, so the intake's type inference has something to exclude.
+ * (milk_supplier, starter_culture, shift) form natural groups. A vat id column is an identifier, so
+ * the intake's type inference has something to exclude; a notes column holds a few short remarks
+ * (inferred as categorical) and is blank in about half the rows, where blank means "nothing to report".
  *
  * Seeded and deterministic: `npm run demo:generate` rewrites datasets/demo/harbour-creamery-vats.csv
  * byte for byte.

@@ -25,6 +25,7 @@ import { loadSession, requireSession, sessionUser } from '../auth/middleware';
 import { createRateLimits } from '../auth/rate-limits';
 import { listLiveSessions, revokeOtherSessions, revokeSession, startSession } from '../auth/sessions';
 import type { AppContext } from '../context';
+import { outboxEnabled } from '../dev/outbox';
 import { parseBody } from './parse-body';
 
 export function authRouter(ctx: AppContext): Router {
@@ -32,7 +33,7 @@ export function authRouter(ctx: AppContext): Router {
   const limits = createRateLimits(ctx.config);
 
   async function me(user: UserDto, csrfToken: string): Promise<MeDto> {
-    return { user: toUserDto(user), memberships: await membershipSummaries(ctx.db, user.id), csrfToken };
+    return { user: toUserDto(user), memberships: await membershipSummaries(ctx.db, user.id), csrfToken, devOutbox: outboxEnabled(ctx.config) };
   }
 
   // The same answer whether or not the address has an account; its owner is told by e-mail.

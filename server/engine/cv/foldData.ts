@@ -31,6 +31,8 @@ export function imputedPredictors(table: EngineTable, built: BuiltDesign): Imput
     built.rows.forEach((row, i) => {
       if (column.kind === 'numeric' ? Number.isNaN(column.values[row]) : column.codes[row] < 0) rows.push(i);
     });
+    // A stored fill value for a column without gaps in these rows (kept for scoring new tables).
+    if (rows.length === 0) continue;
     out.push({ kind: enc.kind, terms: enc.kind === 'numeric' ? [enc.term] : enc.terms, rows: Int32Array.from(rows) });
   }
   return out;

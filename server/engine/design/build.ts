@@ -104,9 +104,12 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
         values[i] = Number.isNaN(v) ? mean : v;
       }
       if (count === 0) throw new EngineInputError(`column "${column.name}" has no values in the rows used`, column.name);
-      if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing values set to the mean ${mean}`);
+      if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the mean ${Number(mean.toPrecision(6))}`);
       const term = addColumn(values, column.name, -1);
-      if (term >= 0) encoding.push({ column: column.name, kind: 'numeric', term, ...(imputed > 0 ? { imputeValue: mean } : {}) });
+      // Under 'impute' every predictor keeps its fill value, not only those with gaps in training:
+      // a blank cell in a table scored later is filled the same way.
+      const fill = spec.missing === 'impute' || imputed > 0;
+      if (term >= 0) encoding.push({ column: column.name, kind: 'numeric', term, ...(fill ? { imputeValue: mean } : {}) });
       return;
     }
     const counts = new Int32Array(column.levels.length);
@@ -124,7 +127,7 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
       if (code < 0) imputed++;
       codes[i] = code < 0 ? mode : code;
     }
-    if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing values set to the most frequent level "${column.levels[mode]}"`);
+    if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the most frequent level "${column.levels[mode]}"`);
     const levels: string[] = [];
     const levelTerms: number[] = [];
     column.levels.forEach((level, k) => {
@@ -137,7 +140,8 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
       }
     });
     if (levelTerms.length > 0) {
-      encoding.push({ column: column.name, kind: 'categorical', levels, terms: levelTerms, ...(imputed > 0 ? { imputeLevel: column.levels[mode] } : {}) });
+      const fill = spec.missing === 'impute' || imputed > 0;
+      encoding.push({ column: column.name, kind: 'categorical', levels, terms: levelTerms, ...(fill ? { imputeLevel: column.levels[mode] } : {}) });
     }
   });
 

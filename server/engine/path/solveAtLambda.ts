@@ -126,7 +126,7 @@ export function solveAtLambda(
   return {
     status,
     stoppedBy,
-    message: describe(status, gap, tolerance, iterations, stoppedBy),
+    message: describeSolve(status, gap, tolerance, iterations, stoppedBy),
     gap,
     tolerance,
     iterations,
@@ -143,14 +143,16 @@ const RULE_WORDS: Record<StopRule, string> = {
   'numerical-failure': 'on a numerical failure',
 };
 
-function describe(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number, stoppedBy: StopRule): string {
+const iterationWords = (n: number) => `${n} iteration${n === 1 ? '' : 's'}`;
+
+export function describeSolve(status: SolveInfo['status'], gap: number, tolerance: number, iterations: number, stoppedBy: StopRule): string {
   if (status === 'converged') {
-    return `converged ${RULE_WORDS[stoppedBy]}: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterations} iterations`;
+    return `converged ${RULE_WORDS[stoppedBy]}: relative duality gap ${gap.toExponential(2)} <= ${tolerance} after ${iterationWords(iterations)}`;
   }
   if (status === 'iteration-limit') {
     return `stopped at the iteration limit (${iterations}) with relative duality gap ${gap.toExponential(2)} > tolerance ${tolerance}`;
   }
-  return `numerical failure (non-finite values) after ${iterations} iterations`;
+  return `numerical failure (non-finite values) after ${iterationWords(iterations)}`;
 }
 
 function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {

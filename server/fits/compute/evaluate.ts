@@ -65,7 +65,7 @@ export function evaluateAt(input: EvaluateInput): StoredEvaluation {
   const diagnostics =
     spec.family === 'gaussian'
       ? gaussianDiagnostics(yEval, eta, rows)
-      : binomialDiagnostics(yEval, eta, rows, input.encoding.responseLevels?.[1] ?? null);
+      : binomialDiagnostics(yEval, eta, rows, input.encoding.responseLevels ?? null);
   return { refit, diagnostics, holdout };
 }
 
@@ -182,7 +182,7 @@ function gaussianDiagnostics(y: Float64Array, eta: Float64Array, rows: 'fitted' 
   };
 }
 
-function binomialDiagnostics(y: Float64Array, eta: Float64Array, rows: 'fitted' | 'holdout', positiveClass: string | null): BinomialDiagnosticsDto {
+function binomialDiagnostics(y: Float64Array, eta: Float64Array, rows: 'fitted' | 'holdout', levels: [string, string] | null): BinomialDiagnosticsDto {
   const n = y.length;
   const prob = Float64Array.from(eta, (e) => 1 / (1 + Math.exp(-e)));
   const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => prob[b] - prob[a] || a - b);
@@ -219,6 +219,7 @@ function binomialDiagnostics(y: Float64Array, eta: Float64Array, rows: 'fitted' 
     calibration: bins.filter((b) => b.count > 0).map((b) => ({ meanPredicted: b.sum / b.count, observedShare: b.ones / b.count, count: b.count })),
     probabilities: sample.map((i) => prob[i]),
     observed: sample.map((i) => (y[i] === 1 ? 1 : 0)),
-    positiveClass,
+    positiveClass: levels?.[1] ?? null,
+    negativeClass: levels?.[0] ?? null,
   };
 }

@@ -1,6 +1,6 @@
 /**
  * Applying a stored fit to a table row by row: the linear predictor b0 + x'b (and the class-1
- * probability for binomial), or a plain error for the row (a missing value with no stored fill, an
+ * probability for binomial), or a plain error for the row (a blank cell with no stored fill, an
  * unseen category, text where the fit had numbers). A column the fit needs that is absent from the
  * table is an error for the whole table (EngineInputError naming it).
  */
@@ -51,7 +51,7 @@ export function predictRowsWithErrors(
         }
         if (Number.isNaN(v)) {
           if (enc.imputeValue === undefined) {
-            fail(i, `column "${enc.column}" is missing`);
+            fail(i, `column "${enc.column}" is blank (this fit left out rows with blanks, so it has no fill value)`);
             continue;
           }
           v = enc.imputeValue;
@@ -64,7 +64,7 @@ export function predictRowsWithErrors(
     for (let i = 0; i < n; i++) {
       const level = cellText(column, i) ?? enc.imputeLevel;
       if (level === undefined) {
-        fail(i, `column "${enc.column}" is missing`);
+        fail(i, `column "${enc.column}" is blank (this fit left out rows with blanks, so it has no fill value)`);
         continue;
       }
       const term = termOfLevel.get(level);

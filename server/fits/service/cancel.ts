@@ -9,7 +9,7 @@ export async function cancelFit(db: Database, workspaceId: string, userName: str
   const fit = await requireFit(db, workspaceId, fitId);
   const updated = await db
     .update(fits)
-    .set({ status: 'cancelled', message: `Cancelled by ${userName}.`, finishedAt: sql`now()` })
+    .set({ status: 'cancelled', message: `This fit was cancelled by ${userName}.`, finishedAt: sql`now()` })
     .where(and(eq(fits.id, fit.id), inArray(fits.status, ['waiting', 'running'])))
     .returning({ id: fits.id });
   if (updated.length === 0) throw conflict(`This fit has already ended (${fit.status}); only a waiting or running fit can be cancelled.`, 'status');

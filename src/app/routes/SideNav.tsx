@@ -1,5 +1,6 @@
 import { NavLink } from 'react-router';
 import { useOutbox } from '@/features/dev/api/outbox';
+import { useMe } from '@/lib/session';
 import { paths } from '../paths';
 
 const AREAS = [
@@ -16,9 +17,9 @@ const LINK =
 
 export function SideNav({ workspaceId }: { workspaceId: string }) {
   // The outbox exists only when the server is asked to show captured e-mail (LARIAT_DEV_OUTBOX=1,
-  // never in production); otherwise the endpoint answers 404 and the link stays hidden. Each
-  // person sees their own mail there.
-  const outbox = useOutbox();
+  // never in production); /auth/me says whether it does, so it is not requested (a 404) otherwise.
+  // Each person sees their own mail there.
+  const outbox = useOutbox(useMe().data?.devOutbox === true);
   return (
     <nav aria-label="Workspace">
       <ul className="space-y-1">

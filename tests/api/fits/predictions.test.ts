@@ -73,6 +73,8 @@ describe('a binomial fit chosen by AUC', () => {
     expect(d.auc).toBeGreaterThan(0.8);
     expect(d.calibration.reduce((n, b) => n + b.count, 0)).toBe(d.rowCount);
     expect(d.positiveClass).toBe('yes');
+    // The confusion table names both levels, not "not yes".
+    expect(d.negativeClass).toBe('no');
   });
 });
 
@@ -99,7 +101,7 @@ describe('predictions', () => {
     const needed = new Set(binomial.results!.coefficients[binomial.results!.chosen.index].terms.map((j) => binomial.results!.terms[j].split('=')[0]));
     // Row 2 lacks x1: an error only if the fit uses x1 (it carries the signal, so it does).
     expect(needed.has('x1')).toBe(true);
-    expect(rows[1].error).toBe('column "x1" is missing');
+    expect(rows[1].error).toBe('column "x1" is blank (this fit left out rows with blanks, so it has no fill value)');
     expect(rows[2].error).toMatch(/column "g": category "purple" was not seen when fitting/);
     expect(rows[3].error).toMatch(/column "x2": "abc" is not a number/);
     for (const i of [0, 4]) {

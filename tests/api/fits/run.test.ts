@@ -133,6 +133,7 @@ describe('running a fit', () => {
     await new Promise((r) => setTimeout(r, 1500));
     const after = (await alice.agent.get(`${apiBase(alice)}/fits/${queued.id}`)).body as FitDetailDto;
     expect(after.status).toBe('cancelled');
+    expect(after.message).toMatch(/^This fit was cancelled by .+\.$/);
     expect(after.results).toBeNull();
     const again = await post(alice, `/fits/${queued.id}/cancel`, {});
     expect(again.status).toBe(409);

@@ -33,6 +33,10 @@ describe('development outbox', () => {
       const admin = await signUp(off.app);
       const res = await admin.agent.get('/api/dev/outbox');
       expect(res.status).toBe(404);
+      // The client learns this from /auth/me and does not ask (no console 404 on every page).
+      expect((await admin.agent.get('/api/auth/me')).body.devOutbox).toBe(false);
+      const onUser = await signUp(on.app);
+      expect((await onUser.agent.get('/api/auth/me')).body.devOutbox).toBe(true);
     } finally {
       await off.close();
     }

@@ -63,9 +63,32 @@ describe('buildDesign', () => {
     const n = 4;
     expect(built.design.terms).toEqual(['a', 'colour=red', 'colour=green']);
     expect(built.design.x[1]).toBeCloseTo(100 / 3, 12);
+    // The note rounds the fill value to 6 significant digits (the design keeps it exact).
+    expect(built.notes).toContain('column "a": 1 missing value set to the mean 33.3333');
     expect([...built.design.x.subarray(2 * n, 3 * n)]).toEqual([0, 1, 1, 1]);
     const enc = built.encoding.columns.find((c) => c.column === 'colour');
     expect(enc && enc.kind === 'categorical' ? enc.imputeLevel : undefined).toBe('green');
+  });
+
+  it('with imputation, keeps a fill value for every predictor, also those without gaps in training', () => {
+    const table: EngineTable = {
+      nRows: 4,
+      columns: [num('y', [1, 2, 3, 5]), num('x', [1, 2, 3, 6]), cat('g', [0, 1, 1, 0], ['a', 'b']), num('z', [2, Number.NaN, 4, 6])],
+    };
+    const built = buildDesign(table, { response: 'y', predictors: ['x', 'g', 'z'], missing: 'impute', family: 'gaussian' });
+    const byName = new Map(built.encoding.columns.map((c) => [c.column, c]));
+    const x = byName.get('x');
+    expect(x && x.kind === 'numeric' ? x.imputeValue : undefined).toBe(3);
+    const g = byName.get('g');
+    expect(g && g.kind === 'categorical' ? g.imputeLevel : undefined).toBe('a');
+    const z = byName.get('z');
+    expect(z && z.kind === 'numeric' ? z.imputeValue : undefined).toBe(4);
+    // Only z had gaps: the notes name it alone.
+    expect(built.notes.filter((note) => note.includes(' set to the mean'))).toHaveLength(1);
+    // Without imputation no fill values are kept (a blank is an error when scoring).
+    const dropped = buildDesign(table, { response: 'y', predictors: ['x'], missing: 'drop', family: 'gaussian' });
+    const xd = dropped.encoding.columns[0];
+    expect(xd.kind === 'numeric' ? xd.imputeValue : 'categorical').toBeUndefined();
   });
 
   it('maps a two-level categorical binomial response to 0/1 in level order and says so', () => {

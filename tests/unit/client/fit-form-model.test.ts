@@ -1,7 +1,7 @@
 /** The fit form's own rules: parsing lambdas and weights, and the checks that need the dataset. */
 import { describe, expect, it } from 'vitest';
 import type { ColumnSchema } from '@shared/datasets';
-import { categoricalGroups, datasetIssues, parseLambdas, parseWeights, unavailableReason } from '@/features/models/components/fitFormModel';
+import { categoricalGroups, datasetIssues, defaultLeftOut, defaultsFromColumns, parseLambdas, parseWeights, rowsKept, unavailableReason } from '@/features/models/components/fitFormModel';
 
 function column(name: string, type: ColumnSchema['type'], distinct: number | null, excluded = false): ColumnSchema {
   return { name, position: 0, type, inferredType: type, reason: '', excluded, overridden: false, summary: { count: 100, missing: 0, distinct } };
@@ -37,5 +37,23 @@ describe('fit form rules', () => {
   it('starts the group editor with one group per chosen categorical predictor', () => {
     expect(categoricalGroups(columns, ['x', 'shift'])).toEqual({ shift: ['shift'] });
     expect(categoricalGroups(columns, ['x'])).toEqual({});
+  });
+
+  it('leaves the outcome, excluded columns, another model\'s outcome and mostly-blank columns out of the default predictors, saying why', () => {
+    const withBlanks = (c: ColumnSchema, missing: number): ColumnSchema => ({ ...c, summary: { ...c.summary, missing } });
+    const cols = [...columns, column('grade', 'binary', 2), withBlanks(column('notes', 'categorical', 4), 51), withBlanks(column('z', 'numeric', 90), 20)];
+    expect(defaultsFromColumns(cols, 'y', ['grade', 'y']).predictors).toEqual(['x', 'shift', 'fold', 'z']);
+    expect(defaultLeftOut(cols, 'y', ['grade'])).toEqual([
+      { name: 'grade', reason: 'the outcome of another model on this dataset' },
+      { name: 'notes', reason: '51 of 100 cells blank' },
+    ]);
+  });
+
+  it('counts the rows a fit keeps from the blank counts: exact with one gappy column or gap filling, else a range', () => {
+    const withBlanks = (c: ColumnSchema, missing: number): ColumnSchema => ({ ...c, summary: { ...c.summary, missing } });
+    const cols = [withBlanks(column('y', 'numeric', 90), 3), withBlanks(column('a', 'numeric', 90), 10), withBlanks(column('b', 'numeric', 90), 40), column('c', 'numeric', 90)];
+    expect(rowsKept(cols, 'y', ['c'], 'drop', 100)).toEqual({ least: 97, most: 97 });
+    expect(rowsKept(cols, 'y', ['a', 'b', 'c'], 'drop', 100)).toEqual({ least: 47, most: 60 });
+    expect(rowsKept(cols, 'y', ['a', 'b', 'c'], 'impute', 100)).toEqual({ least: 97, most: 97 });
   });
 });

@@ -69,6 +69,14 @@ describe('spec changes', () => {
     expect(change.summary).toBe('L1 share: 0.8 → 0.5.');
     expect(specChanges(before, { ...before, maxIterations: 500 })[0].summary).toMatch(/^Iteration limit: /);
   });
+  it('describes object fields in plain words, not JSON', () => {
+    const before = spec({ cv: { kind: 'folds', folds: 5, seed: 1 } });
+    const summaries = specChanges(before, { ...before, cv: { kind: 'folds', folds: 10, seed: 1 }, path: { kind: 'explicit', lambdas: [1, 0.5] }, holdout: { share: 0.2, seed: 3 } }).map((c) => c.summary);
+    expect(summaries).toContain('Cross-validation: 5 folds, seed 1 → 10 folds, seed 1.');
+    expect(summaries).toContain('Holdout: none → 20% of the rows, seed 3.');
+    expect(summaries.find((s) => s.startsWith('Path:'))).toMatch(/→ 2 listed lambdas \(1, 0\.5\)\.$/);
+    for (const s of summaries) expect(s).not.toMatch(/[{}"]/);
+  });
 });
 
 describe('progress', () => {
@@ -99,7 +107,7 @@ describe('row-wise prediction', () => {
     const out = predictRowsWithErrors(table, { family: 'binomial', encoding, intercept: 0.5, coefficients: [2, 0, -1] });
     expect(out.linearPredictor[0]).toBe(4.5);
     expect(out.probability![0]).toBeCloseTo(1 / (1 + Math.exp(-4.5)), 14);
-    expect(out.errors).toEqual([null, 'column "x" is missing', 'column "x": "zz" is not a number', 'column "g": category "c" was not seen when fitting']);
+    expect(out.errors).toEqual([null, 'column "x" is blank (this fit left out rows with blanks, so it has no fill value)', 'column "x": "zz" is not a number', 'column "g": category "c" was not seen when fitting']);
     expect(Number.isNaN(out.linearPredictor[1])).toBe(true);
   });
   it('fills a gap with the stored imputation value', () => {

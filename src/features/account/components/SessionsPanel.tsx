@@ -1,10 +1,11 @@
+import { formatWhen } from '@/lib/dates';
 import { Button } from '@/components/Button';
 import { Loading } from '@/components/Loading';
 import { Notice } from '@/components/Notice';
 import { useSessions } from '../api/sessions';
 import { useSignOutOthers } from '../api/sign-out-others';
 
-const when = (iso: string) => new Date(iso).toLocaleString();
+const when = formatWhen;
 
 /** Where you are signed in, and a button to end every session but this one. */
 export function SessionsPanel() {

@@ -1,7 +1,9 @@
 /**
  * POST .../datasets/uploads?ingest=<id> with XMLHttpRequest (fetch has no upload progress), while
  * GET .../ingests/<id> is polled for the server's parsing and storing progress
- * (docs/decisions/0004-upload-progress.md).
+ * (docs/decisions/0004-upload-progress.md). Polling starts once the file is sent: the server
+ * registers the id as it starts reading the request, so an earlier poll could ask before it knows
+ * the id (a 404); while sending, the browser's own transfer progress is what there is to show.
  */
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { IngestProgressDto, UploadResultDto } from '@shared/datasets';
@@ -22,8 +24,13 @@ export interface UploadHandle {
   abort(): void;
 }
 
-
-export function uploadDataset(workspaceId: string, file: File, fields: UploadFields, onTransfer: (loaded: number, total: number) => void): UploadHandle {
+export function uploadDataset(
+  workspaceId: string,
+  file: File,
+  fields: UploadFields,
+  onTransfer: (loaded: number, total: number) => void,
+  onSent: () => void = () => undefined,
+): UploadHandle {
   const ingestId = crypto.randomUUID();
   const xhr = new XMLHttpRequest();
   const form = new FormData();
@@ -31,6 +38,7 @@ export function uploadDataset(workspaceId: string, file: File, fields: UploadFie
   form.append('file', file, file.name); // after the fields: the server reads them first
   const result = new Promise<UploadResultDto>((resolve, reject) => {
     xhr.upload.onprogress = (e) => onTransfer(e.loaded, e.lengthComputable ? e.total : file.size);
+    xhr.upload.onload = () => onSent();
     xhr.onload = () => {
       const body = JSON.parse(xhr.responseText || '{}') as UploadResultDto & { error?: { message: string; field?: string } };
       if (xhr.status >= 200 && xhr.status < 300) resolve(body);

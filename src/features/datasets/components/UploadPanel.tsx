@@ -32,8 +32,10 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
   const [dragging, setDragging] = useState(false);
   const [handle, setHandle] = useState<UploadHandle | null>(null);
   const [transfer, setTransfer] = useState(0);
+  // The server's progress is asked for only once the file is sent (see uploadDataset).
+  const [sent, setSent] = useState(false);
   const [outcome, setOutcome] = useState<{ error?: string; result?: UploadResultDto } | null>(null);
-  const progress = useIngestProgress(workspaceId, handle?.ingestId ?? null, handle !== null);
+  const progress = useIngestProgress(workspaceId, handle?.ingestId ?? null, handle !== null && sent);
 
   const choose = (f: File | undefined) => {
     setOutcome(null);
@@ -49,7 +51,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
   const start = async () => {
     if (!file) return;
     const markers = missing.split(',').map((m) => m.trim());
-    const h = uploadDataset(workspaceId, file, { name: datasetId ? undefined : name, datasetId, missing: markers.join(','), headerRow: firstRowIsData ? 'no' : undefined }, (loaded, total) => setTransfer(loaded / Math.max(1, total)));
+    const h = uploadDataset(workspaceId, file, { name: datasetId ? undefined : name, datasetId, missing: markers.join(','), headerRow: firstRowIsData ? 'no' : undefined }, (loaded, total) => setTransfer(loaded / Math.max(1, total)), () => setSent(true));
     setHandle(h);
     try {
       const result = await h.result;
@@ -61,6 +63,7 @@ export function UploadPanel({ workspaceId, uploadLimitBytes, datasetId }: Props)
     } finally {
       setHandle(null);
       setTransfer(0);
+      setSent(false);
     }
   };
 

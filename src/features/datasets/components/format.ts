@@ -5,9 +5,7 @@ export function formatBytes(bytes: number): string {
   return `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 }
 
-export function formatWhen(iso: string): string {
-  return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+export { formatWhen } from '@/lib/dates';
 
 /** Up to 4 significant digits, without trailing noise. */
 export function formatStat(x: number | undefined): string {

@@ -1,3 +1,4 @@
+import { formatWhen } from '@/lib/dates';
 import { Button } from '@/components/Button';
 import { EmptyState } from '@/components/EmptyState';
 import { Loading } from '@/components/Loading';
@@ -33,7 +34,7 @@ export function OutboxPage() {
             <article aria-label={m.subject}>
               <h2 className="font-bold">{m.subject || '(no subject)'}</h2>
               <p className="text-xs text-slate-600 dark:text-slate-400">
-                To {m.to.join(', ')} · {new Date(m.receivedAt).toLocaleString()}
+                To {m.to.join(', ')} · {formatWhen(m.receivedAt)}
               </p>
               <p className="mt-3 whitespace-pre-wrap text-sm text-slate-800 dark:text-slate-200">
                 <LinkifiedText text={m.text} />

@@ -12,7 +12,9 @@ export function BinomialDiagnostics({ d }: { d: BinomialDiagnosticsDto }) {
   const calibration = useMemo(() => d.calibration.map((b) => ({ x: b.meanPredicted, y: b.observedShare })), [d.calibration]);
   const c = useMemo(() => confusionAt(d.probabilities, d.observed, threshold), [d, threshold]);
   const total = c.truePositive + c.falsePositive + c.trueNegative + c.falseNegative;
+  // The outcome's own level names; 1 / 0 for a numeric outcome (older fits stored only the 1 level).
   const yes = d.positiveClass ?? '1';
+  const no = d.negativeClass ?? (d.positiveClass === null ? '0' : `not ${d.positiveClass}`);
   return (
     <div className="space-y-3">
       <dl className="flex flex-wrap gap-6 text-sm">
@@ -38,7 +40,7 @@ export function BinomialDiagnostics({ d }: { d: BinomialDiagnosticsDto }) {
             <tr>
               <td />
               <th scope="col" className="px-3 py-1 text-left">Predicted {yes}</th>
-              <th scope="col" className="px-3 py-1 text-left">Predicted not {yes}</th>
+              <th scope="col" className="px-3 py-1 text-left">Predicted {no}</th>
             </tr>
           </thead>
           <tbody className="font-mono">
@@ -48,7 +50,7 @@ export function BinomialDiagnostics({ d }: { d: BinomialDiagnosticsDto }) {
               <td className="px-3 py-1">{countFormat.format(c.falseNegative)}</td>
             </tr>
             <tr>
-              <th scope="row" className="px-3 py-1 text-left font-sans">Observed not {yes}</th>
+              <th scope="row" className="px-3 py-1 text-left font-sans">Observed {no}</th>
               <td className="px-3 py-1">{countFormat.format(c.falsePositive)}</td>
               <td className="px-3 py-1">{countFormat.format(c.trueNegative)}</td>
             </tr>

@@ -49,7 +49,7 @@ export function FitPage() {
             <strong>This fit failed.</strong> {f.message ?? 'No reason was recorded.'}
           </Notice>
         )}
-        {f.status === 'cancelled' && <Notice>This fit was cancelled{f.message ? `: ${f.message}` : '.'}</Notice>}
+        {f.status === 'cancelled' && <Notice>{f.message ?? 'This fit was cancelled.'}</Notice>}
         <SpecSummary fit={f} workspaceId={workspaceId} />
         {f.status === 'finished' && f.results && <ResultsWorkspace fit={f} results={f.results} workspaceId={workspaceId} canChoose={canRun} />}
       </div>

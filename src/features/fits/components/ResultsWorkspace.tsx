@@ -6,6 +6,7 @@
 import type { FitDetailDto, FitResultsDto } from '@shared/fits';
 import { Cautions } from '@/components/Cautions';
 import { Notice } from '@/components/Notice';
+import { countFormat } from '@/lib/numbers';
 import { CvChart } from '../charts/CvChart';
 import { PathChart } from '../charts/PathChart';
 import { useChooseLambda } from '../api/choose-lambda';
@@ -40,6 +41,7 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
           {results.cv?.unconvergedFolds.length ? ` or in folds ${results.cv.unconvergedFolds.map((f) => f + 1).join(', ')}` : ''}. Their results are not certified; see the solver certificates below.
         </Notice>
       )}
+      <RowsUsed rowsFitted={results.rowsFitted} rowsDropped={results.rowsDropped} />
       <nav aria-label="Parts of the results" className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
         {JUMPS.map(([id, label]) => (
           <a key={id} href={`#${id}`} className="font-bold text-lariat-800 underline dark:text-lariat-200">
@@ -77,13 +79,22 @@ export function ResultsWorkspace({ fit, results, workspaceId, canChoose }: { fit
               <li key={n}>{n}</li>
             ))}
           </ul>
-          <p className="mt-2 text-xs text-slate-600 dark:text-slate-400">
-            {results.rowsFitted} rows fitted{results.rowsDropped ? `, ${results.rowsDropped} left out for missing values` : ''}.
-          </p>
         </section>
       )}
       <ApplyPanel workspaceId={workspaceId} fitId={fit.id} binomial={fit.family === 'binomial'} />
       <ExportPanel workspaceId={workspaceId} fitId={fit.id} />
     </div>
+  );
+}
+
+/** Rows fitted and left out, at the top: a fit that lost many rows to blanks must not look like a fit on all of them. */
+function RowsUsed({ rowsFitted, rowsDropped }: { rowsFitted: number; rowsDropped: number }) {
+  const total = rowsFitted + rowsDropped;
+  const many = rowsDropped > 0.2 * total;
+  return (
+    <p className={`text-base ${many ? 'font-bold text-amber-800 dark:text-amber-200' : 'text-slate-800 dark:text-slate-200'}`} data-testid="rows-used">
+      Rows fitted: {countFormat.format(rowsFitted)} of {countFormat.format(total)}
+      {rowsDropped > 0 ? ` (${countFormat.format(rowsDropped)} left out for a missing value)` : ' (none left out)'}.
+    </p>
   );
 }

@@ -1,3 +1,4 @@
+import { formatDay } from '@/lib/dates';
 import { useState } from 'react';
 import { ROLE_LABELS, WORKSPACE_ROLES, type MemberDto, type WorkspaceRole } from '@shared/members';
 import { Button } from '@/components/Button';
@@ -46,7 +47,7 @@ export function MemberRow({ member, isSelf, canManage, onChangeRole, onRemove, b
           ROLE_LABELS[member.role]
         )}
       </td>
-      <td className="px-4 py-3 text-slate-700 dark:text-slate-300">{new Date(member.joinedAt).toLocaleDateString()}</td>
+      <td className="px-4 py-3 text-slate-700 dark:text-slate-300">{formatDay(member.joinedAt)}</td>
       {canManage && (
         <td className="px-4 py-3 text-right">
           {manage &&

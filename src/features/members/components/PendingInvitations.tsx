@@ -1,3 +1,4 @@
+import { formatDay } from '@/lib/dates';
 import { ROLE_LABELS } from '@shared/members';
 import { Button } from '@/components/Button';
 import { Loading } from '@/components/Loading';
@@ -29,7 +30,7 @@ export function PendingInvitations({ workspaceId }: { workspaceId: string }) {
                 <strong className="font-bold">{inv.email}</strong> as {ROLE_LABELS[inv.role]}
                 <span className="block text-xs text-slate-600 dark:text-slate-400">
                   {inv.invitedByName ? `Invited by ${inv.invitedByName}, ` : ''}
-                  link valid until {new Date(inv.expiresAt).toLocaleDateString()}
+                  link valid until {formatDay(inv.expiresAt)}
                 </span>
               </span>
               <Button

@@ -12,7 +12,7 @@ import {
   MISSING_POLICY_LABELS,
   type FitRequestInput,
 } from '@shared/fits';
-import { FieldError, FormSection, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
+import { FormSection, LabeledField, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
 
 interface Props {
   form: UseFormReturn<FitRequestInput>;
@@ -51,46 +51,54 @@ export function CvSection({ form, columns, family, extra }: Props) {
       </div>
       {kind === 'folds' && (
         <div className="flex flex-wrap gap-4">
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Folds</span>
-            <input type="number" className={`${INPUT} w-24`} {...form.register('cv.folds', { setValueAs: optionalNumber })} />
-            <FieldError message={err('cv.folds')} />
-          </label>
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Seed</span>
-            <input type="number" className={`${INPUT} w-32`} {...form.register('cv.seed', { setValueAs: optionalNumber })} />
-            <FieldError message={err('cv.seed')} />
-          </label>
+          <LabeledField id="fit-folds" label="Folds" error={err('cv.folds')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" className={`${INPUT} w-24`} {...form.register('cv.folds', { setValueAs: optionalNumber })} />
+              </>
+            )}
+          </LabeledField>
+          <LabeledField id="fit-seed" label="Seed" error={err('cv.seed')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" className={`${INPUT} w-32`} {...form.register('cv.seed', { setValueAs: optionalNumber })} />
+              </>
+            )}
+          </LabeledField>
         </div>
       )}
       {kind === 'column' && (
-        <label className="block space-y-1 text-sm">
-          <span className="block font-bold">Fold column</span>
-          <select className={INPUT} {...form.register('cv.column')}>
-            <option value="">Choose a column</option>
-            {foldColumns.map((c) => (
-              <option key={c.name} value={c.name}>
-                {c.name}
-              </option>
-            ))}
-          </select>
-          <span className="block text-xs text-slate-600 dark:text-slate-400">Whole-number fold ids; the column is not used as a predictor.</span>
-          <FieldError message={err('cv.column')} />
-        </label>
+        <LabeledField id="fit-fold-column" label="Fold column" error={err('cv.column')} className="block">
+          {(a) => (
+            <>
+              <select {...a} className={INPUT} {...form.register('cv.column')}>
+                <option value="">Choose a column</option>
+                {foldColumns.map((c) => (
+                  <option key={c.name} value={c.name}>
+                    {c.name}
+                  </option>
+                ))}
+              </select>
+              <span className="block text-xs text-slate-600 dark:text-slate-400">Whole-number fold ids; the column is not used as a predictor.</span>
+            </>
+          )}
+        </LabeledField>
       )}
       <div className="flex flex-wrap gap-4">
-        <label className="space-y-1 text-sm">
-          <span className="block font-bold">Measure</span>
-          <select className={INPUT} disabled={kind === 'none'} {...form.register('metric', { setValueAs: (v) => (v === '' ? undefined : v) })}>
-            <option value="">Default ({CV_METRIC_LABELS[CV_METRICS_BY_FAMILY[family][0]]})</option>
-            {CV_METRICS_BY_FAMILY[family].map((m) => (
-              <option key={m} value={m}>
-                {CV_METRIC_LABELS[m]}
-              </option>
-            ))}
-          </select>
-          <FieldError message={err('metric')} />
-        </label>
+        <LabeledField id="fit-measure" label="Measure" error={err('metric')}>
+          {(a) => (
+            <>
+              <select {...a} className={INPUT} disabled={kind === 'none'} {...form.register('metric', { setValueAs: (v) => (v === '' ? undefined : v) })}>
+                <option value="">Default ({CV_METRIC_LABELS[CV_METRICS_BY_FAMILY[family][0]]})</option>
+                {CV_METRICS_BY_FAMILY[family].map((m) => (
+                  <option key={m} value={m}>
+                    {CV_METRIC_LABELS[m]}
+                  </option>
+                ))}
+              </select>
+            </>
+          )}
+        </LabeledField>
         <label className="space-y-1 text-sm">
           <span className="block font-bold">Missing values</span>
           <select className={INPUT} {...form.register('missing')}>
@@ -112,19 +120,23 @@ export function CvSection({ form, columns, family, extra }: Props) {
       </label>
       {holdout !== undefined && (
         <div className="flex flex-wrap gap-4 pl-6">
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Share held out</span>
-            <input type="number" step="0.05" className={`${INPUT} w-24`} {...form.register('holdout.share', { setValueAs: optionalNumber })} />
-            <span className="block text-xs text-slate-600 dark:text-slate-400">
-              {MIN_HOLDOUT_SHARE} to {MAX_HOLDOUT_SHARE}
-            </span>
-            <FieldError message={err('holdout.share')} />
-          </label>
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Holdout seed</span>
-            <input type="number" className={`${INPUT} w-32`} {...form.register('holdout.seed', { setValueAs: optionalNumber })} />
-            <FieldError message={err('holdout.seed')} />
-          </label>
+          <LabeledField id="fit-share-held-out" label="Share held out" error={err('holdout.share')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" step="0.05" className={`${INPUT} w-24`} {...form.register('holdout.share', { setValueAs: optionalNumber })} />
+                <span className="block text-xs text-slate-600 dark:text-slate-400">
+                  {MIN_HOLDOUT_SHARE} to {MAX_HOLDOUT_SHARE}
+                </span>
+              </>
+            )}
+          </LabeledField>
+          <LabeledField id="fit-holdout-seed" label="Holdout seed" error={err('holdout.seed')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" className={`${INPUT} w-32`} {...form.register('holdout.seed', { setValueAs: optionalNumber })} />
+              </>
+            )}
+          </LabeledField>
         </div>
       )}
     </FormSection>

@@ -15,10 +15,11 @@ import { Notice } from '@/components/Notice';
 import { applyServerError } from '@/lib/forms';
 import { countFormat } from '@/lib/numbers';
 import { CvSection } from './CvSection';
-import { datasetIssues, unavailableReason } from './fitFormModel';
+import { datasetIssues, defaultLeftOut, unavailableReason } from './fitFormModel';
 import { FieldError, FormSection, errorAt, setAndValidate } from './fitFormParts';
 import { PathSection } from './PathSection';
 import { PenaltySection } from './PenaltySection';
+import { PredictorRowsNote } from './PredictorRowsNote';
 import { WeightsSection } from './WeightsSection';
 
 const SERVER_FIELDS = ['predictors', 'penalty', 'l1Share', 'groups', 'standardize', 'path', 'path.lambdas', 'path.pathLength', 'path.pathDecades', 'path.maxTerms', 'penaltyWeights', 'cv', 'cv.folds', 'cv.seed', 'cv.column', 'metric', 'missing', 'holdout', 'holdout.share', 'tolerance', 'maxIterations'] as const;
@@ -28,10 +29,12 @@ interface Props {
   outcome: string;
   family: FitFamily;
   defaults: FitRequestInput;
+  /** Outcomes of the workspace's other models on this dataset (left unticked by default). */
+  otherOutcomes?: string[];
   onSubmit: (values: FitRequestInput) => Promise<unknown>;
 }
 
-export function FitForm({ version, outcome, family, defaults, onSubmit }: Props) {
+export function FitForm({ version, outcome, family, defaults, otherOutcomes = [], onSubmit }: Props) {
   const form = useForm<FitRequestInput>({ resolver: zodResolver(fitRequestSchema) as never, defaultValues: defaults, mode: 'onChange' });
   const { errors } = form.formState;
   const values = form.watch();
@@ -67,6 +70,14 @@ export function FitForm({ version, outcome, family, defaults, onSubmit }: Props)
           }}
         />
         <FieldError message={errorAt(errors, extra, 'predictors')} />
+        <PredictorRowsNote
+          columns={columns}
+          outcome={outcome}
+          predictors={values.predictors ?? []}
+          missing={values.missing}
+          rowCount={version.rowCount}
+          leftOut={defaultLeftOut(columns, outcome, otherOutcomes)}
+        />
       </FormSection>
       <PenaltySection form={form} columns={columns} extra={extra} />
       <PathSection form={form} extra={extra} />

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import { DEFAULT_PATH_LENGTH, MAX_PATH_DECADES, MIN_PATH_DECADES, type FitRequestInput } from '@shared/fits';
 import { parseLambdas } from './fitFormModel';
-import { FieldError, FormSection, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
+import { FormSection, LabeledField, INPUT, errorAt, optionalNumber, setAndValidate } from './fitFormParts';
 
 /** The lambda path: Lariat's automatic log-spaced path (length, decades, term limit) or the analyst's own list. */
 export function PathSection({ form, extra }: { form: UseFormReturn<FitRequestInput>; extra: Record<string, string> }) {
@@ -29,39 +29,47 @@ export function PathSection({ form, extra }: { form: UseFormReturn<FitRequestInp
       </div>
       {kind === 'automatic' ? (
         <div className="grid gap-3 sm:grid-cols-3">
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Number of lambdas</span>
-            <input type="number" className={`${INPUT} w-28`} {...form.register('path.pathLength', { setValueAs: optionalNumber })} />
-            <FieldError message={err('path.pathLength')} />
-          </label>
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Decades below the largest lambda</span>
-            <input type="number" step="0.5" placeholder="Lariat's default" className={`${INPUT} w-32`} {...form.register('path.pathDecades', { setValueAs: optionalNumber })} />
-            <span className="block text-xs text-slate-600 dark:text-slate-400">
-              {MIN_PATH_DECADES} to {MAX_PATH_DECADES}; empty for the default.
-            </span>
-            <FieldError message={err('path.pathDecades')} />
-          </label>
-          <label className="space-y-1 text-sm">
-            <span className="block font-bold">Stop after this many terms</span>
-            <input type="number" placeholder="no limit" className={`${INPUT} w-28`} {...form.register('path.maxTerms', { setValueAs: optionalNumber })} />
-            <FieldError message={err('path.maxTerms')} />
-          </label>
+          <LabeledField id="fit-number-of-lambdas" label="Number of lambdas" error={err('path.pathLength')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" className={`${INPUT} w-28`} {...form.register('path.pathLength', { setValueAs: optionalNumber })} />
+              </>
+            )}
+          </LabeledField>
+          <LabeledField id="fit-decades-below-the-largest-lambda" label="Decades below the largest lambda" error={err('path.pathDecades')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" step="0.5" placeholder="Lariat's default" className={`${INPUT} w-32`} {...form.register('path.pathDecades', { setValueAs: optionalNumber })} />
+                <span className="block text-xs text-slate-600 dark:text-slate-400">
+                  {MIN_PATH_DECADES} to {MAX_PATH_DECADES}; empty for the default.
+                </span>
+              </>
+            )}
+          </LabeledField>
+          <LabeledField id="fit-stop-after-this-many-terms" label="Stop after this many terms" error={err('path.maxTerms')}>
+            {(a) => (
+              <>
+                <input {...a} type="number" placeholder="no limit" className={`${INPUT} w-28`} {...form.register('path.maxTerms', { setValueAs: optionalNumber })} />
+              </>
+            )}
+          </LabeledField>
         </div>
       ) : (
-        <label className="block space-y-1 text-sm">
-          <span className="block font-bold">Lambdas, largest first</span>
-          <input
-            className={`${INPUT} w-full`}
-            value={lambdaText}
-            placeholder="e.g. 1, 0.5, 0.1, 0.05"
-            onChange={(e) => {
-              setLambdaText(e.target.value);
-              setAndValidate(form, 'path', { kind: 'explicit', lambdas: parseLambdas(e.target.value) });
-            }}
-          />
-          <FieldError message={err('path.lambdas') ?? firstLambdaError(errors)} />
-        </label>
+        <LabeledField id="fit-lambdas-largest-first" label="Lambdas, largest first" error={err('path.lambdas') ?? firstLambdaError(errors)} className="block">
+          {(a) => (
+            <>
+              <input {...a}
+                className={`${INPUT} w-full`}
+                value={lambdaText}
+                placeholder="e.g. 1, 0.5, 0.1, 0.05"
+                onChange={(e) => {
+                  setLambdaText(e.target.value);
+                  setAndValidate(form, 'path', { kind: 'explicit', lambdas: parseLambdas(e.target.value) });
+                }}
+              />
+            </>
+          )}
+        </LabeledField>
       )}
     </FormSection>
   );

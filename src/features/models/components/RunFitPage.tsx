@@ -12,6 +12,7 @@ import { useCurrentWorkspace } from '@/lib/workspace-context';
 import { useLatestVersion } from '../api/dataset-version';
 import { useFitSpec } from '../api/fit-spec';
 import { useModel } from '../api/model';
+import { useModels } from '../api/models';
 import { useRunFit } from '../api/run-fit';
 import { FitForm } from './FitForm';
 import { defaultsFromColumns, defaultsFromSpec } from './fitFormModel';
@@ -26,13 +27,16 @@ export function RunFitPage() {
   const version = useLatestVersion(workspaceId, model.data?.datasetId);
   const previous = useFitSpec(workspaceId, from);
   const run = useRunFit(workspaceId, modelId);
+  const models = useModels(workspaceId);
   if (role !== 'admin' && role !== 'analyst') return <Notice tone="error">Only analysts and admins run fits.</Notice>;
-  if (model.isPending || version.isPending || (from && previous.isPending)) return <Loading label="Loading the model and its dataset…" />;
+  if (model.isPending || version.isPending || models.isPending || (from && previous.isPending)) return <Loading label="Loading the model and its dataset…" />;
   const error = model.error ?? version.error ?? previous.error;
   if (error) return <Notice tone="error">{error.message}</Notice>;
   const m = model.data!;
   const v = version.data!;
-  const defaults = previous.data ? defaultsFromSpec(previous.data.spec, v.columns) : defaultsFromColumns(v.columns, m.outcome);
+  // Another model's outcome on the same dataset is a result too: not a default predictor here.
+  const otherOutcomes = (models.data ?? []).filter((x) => x.datasetId === m.datasetId && x.id !== m.id).map((x) => x.outcome);
+  const defaults = previous.data ? defaultsFromSpec(previous.data.spec, v.columns) : defaultsFromColumns(v.columns, m.outcome, otherOutcomes);
   const next = (m.versions[0]?.version ?? 0) + 1;
   return (
     <>
@@ -55,6 +59,7 @@ export function RunFitPage() {
         outcome={m.outcome}
         family={m.family}
         defaults={defaults}
+        otherOutcomes={otherOutcomes}
         onSubmit={async (values) => {
           const fit = await run.mutateAsync({ ...values, datasetVersionId: v.id });
           navigate(paths.workspace.fit.getHref(workspaceId, fit.id));

@@ -13,15 +13,66 @@ export function unavailableReason(c: ColumnSchema, outcome: string, foldColumn: 
   return null;
 }
 
-export function defaultsFromColumns(columns: ColumnSchema[], outcome: string): FitRequestInput {
+/**
+ * A column with more than this share of blanks is not ticked by default: with the default
+ * "leave out rows" policy it would silently cost the fit that share of the rows.
+ */
+export const DEFAULT_MAX_BLANK_SHARE = 0.2;
+
+export interface LeftOutColumn {
+  name: string;
+  reason: string;
+}
+
+/**
+ * Usable columns the default predictor set leaves out, and why: the outcome of another model on this
+ * dataset (itself a result, so it would explain this outcome after the fact) and columns with many
+ * blanks. The analyst can still tick them; the form lists them beside the predictors.
+ */
+export function defaultLeftOut(columns: ColumnSchema[], outcome: string, otherOutcomes: string[] = []): LeftOutColumn[] {
+  const others = new Set(otherOutcomes.filter((o) => o !== outcome));
+  const out: LeftOutColumn[] = [];
+  for (const c of columns) {
+    if (unavailableReason(c, outcome, null) !== null) continue;
+    if (others.has(c.name)) out.push({ name: c.name, reason: 'the outcome of another model on this dataset' });
+    else if (c.summary.count > 0 && c.summary.missing / c.summary.count > DEFAULT_MAX_BLANK_SHARE) {
+      out.push({ name: c.name, reason: `${c.summary.missing} of ${c.summary.count} cells blank` });
+    }
+  }
+  return out;
+}
+
+export function defaultsFromColumns(columns: ColumnSchema[], outcome: string, otherOutcomes: string[] = []): FitRequestInput {
+  const leftOut = new Set(defaultLeftOut(columns, outcome, otherOutcomes).map((c) => c.name));
   return {
-    predictors: columns.filter((c) => unavailableReason(c, outcome, null) === null).map((c) => c.name),
+    predictors: columns.filter((c) => unavailableReason(c, outcome, null) === null && !leftOut.has(c.name)).map((c) => c.name),
     penalty: 'lasso',
     standardize: true,
     path: { kind: 'automatic', pathLength: DEFAULT_PATH_LENGTH },
     cv: { kind: 'folds', folds: DEFAULT_FOLDS, seed: DEFAULT_SEED },
     missing: 'drop',
   };
+}
+
+/**
+ * How many rows a fit with these predictors and this missing-value policy keeps, from the column
+ * summaries' blank counts: exact when only the outcome matters (gap filling) or one column has
+ * blanks; otherwise a range (blanks in different columns may fall in the same rows or not).
+ */
+export function rowsKept(
+  columns: ColumnSchema[],
+  outcome: string,
+  predictors: string[],
+  missing: 'drop' | 'impute' | undefined,
+  rowCount: number,
+): { least: number; most: number } {
+  const byName = new Map(columns.map((c) => [c.name, c]));
+  const blanks = (name: string) => byName.get(name)?.summary.missing ?? 0;
+  const names = missing === 'impute' ? [outcome] : [outcome, ...predictors];
+  const counts = names.map(blanks).filter((m) => m > 0);
+  const most = rowCount - Math.max(0, ...counts);
+  const least = Math.max(0, rowCount - counts.reduce((a, b) => a + b, 0));
+  return { least, most };
 }
 
 /** A previous version's spec as the form's values (what the analyst changes for the next version). */

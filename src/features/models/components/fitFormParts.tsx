@@ -71,3 +71,27 @@ export function setAndValidate<K extends Path<FitRequestInput>>(form: UseFormRet
   form.setValue(name, value, { shouldDirty: true });
   void form.trigger();
 }
+
+/** What a control needs to be tied to its label and error: id, aria-invalid, aria-describedby. */
+export interface ControlA11y {
+  id: string;
+  'aria-invalid': true | undefined;
+  'aria-describedby': string | undefined;
+}
+
+/**
+ * A labelled control with its error outside the <label> (so the message is not part of the control's
+ * name) and tied to it by aria-describedby, with aria-invalid while it is wrong — the L1 share pattern.
+ */
+export function LabeledField({ id, label, error, className = '', children }: { id: string; label: string; error?: string; className?: string; children: (a11y: ControlA11y) => ReactNode }) {
+  const errorId = `${id}-error`;
+  return (
+    <div className={`space-y-1 text-sm ${className}`}>
+      <label htmlFor={id} className="block font-bold">
+        {label}
+      </label>
+      {children({ id, 'aria-invalid': error ? true : undefined, 'aria-describedby': error ? errorId : undefined })}
+      <FieldError id={errorId} message={error} />
+    </div>
+  );
+}

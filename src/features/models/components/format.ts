@@ -1,4 +1,2 @@
-/** Display formats for the models pages. */
-export function formatWhen(iso: string): string {
-  return new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
-}
+/** Display formats for the models pages (dates: the shared format). */
+export { formatWhen } from '@/lib/dates';
