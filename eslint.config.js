@@ -46,7 +46,7 @@ export default tseslint.config(
     },
   },
   {
-    // server/engine is pure functions on arrays (README, docs/decisions/0013-no-io-in-engine.md): no file, thread,
+    // server/engine is pure functions on arrays (README, docs/decisions/0017-no-io-in-engine.md): no file, thread,
     // process or network access. Reading files lives in server/tabular, threads in server/engine-runner.
     files: ['server/engine/**/*.ts'],
     rules: {

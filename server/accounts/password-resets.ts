@@ -21,7 +21,7 @@ export const RESET_MINUTES = 60;
 
 /**
  * Answers at once and looks the address up afterwards (afterResponse): the answer, and the time it
- * takes, are the same whether or not the address has an account (decision 10).
+ * takes, are the same whether or not the address has an account (decision 9).
  */
 export function requestPasswordReset(ctx: AppContext, email: string): void {
   afterResponse('password-reset request', async () => {

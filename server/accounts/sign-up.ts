@@ -1,5 +1,5 @@
 /**
- * Sign-up in two steps (docs/decisions/0010-sign-up-and-reset-without-enumeration.md):
+ * Sign-up in two steps (docs/decisions/0009-sign-up-and-reset-without-enumeration.md):
  * 1. `requestSignUp` hashes the password (the same work for every address), and after the answer
  *    is sent either stores a pending sign-up and e-mails its link, or tells the owner of an existing
  *    account that someone tried. The answer never depends on which.

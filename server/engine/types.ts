@@ -171,7 +171,7 @@ export interface PathOptions {
   crossProducts?: CrossProducts;
   /**
    * Lasso and elastic net: finish each solve with the active-set polish (exact solve on the support,
-   * core/polish.ts, docs/decisions/0010-active-set-polish.md); default true. false leaves FISTA alone (for comparisons and tests).
+   * core/polish.ts, docs/decisions/0014-active-set-polish.md); default true. false leaves FISTA alone (for comparisons and tests).
    */
   polish?: boolean;
 }

@@ -37,7 +37,7 @@ export function jobId(...parts: (string | number)[]): string {
 /**
  * The fits queues' policy, defined by every process that starts a queue (API, workers, tests): a
  * failed step is retried at once, and a step whose worker stopped its heartbeat after
- * LARIAT_JOB_EXPIRE_SECONDS (docs/decisions/0006-fits-storage-and-queue.md).
+ * LARIAT_JOB_EXPIRE_SECONDS (docs/decisions/0018-fits-storage-and-queue.md).
  */
 export function fitQueues(config: Config): Record<FitQueue, QueueOptions> {
   const policy: QueueOptions = { retryLimit: config.LARIAT_JOB_RETRIES, retryDelaySeconds: 0, retryBackoff: false, expireSeconds: config.LARIAT_JOB_EXPIRE_SECONDS };

@@ -1,6 +1,6 @@
 /**
  * The job queue: pg-boss on Lariat's own PostgreSQL, ONE instance per process, shared by every
- * feature (docs/decisions/0013-one-job-queue.md, 0006-fits-storage-and-queue.md). A feature names its
+ * feature (docs/decisions/0020-one-job-queue.md, 0018-fits-storage-and-queue.md). A feature names its
  * queue, sends plain JSON data (never secrets: jobs sit in the pgboss tables), and works it:
  *
  *   await ctx.queue.work<{ id: string }>('thing-mail', (data) => mailThing(ctx, data.id), { retryLimit: 8, retryDelaySeconds: 2 });

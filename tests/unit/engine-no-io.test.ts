@@ -1,5 +1,5 @@
 /**
- * The lint rule that keeps server/engine free of I/O (docs/decisions/0013-no-io-in-engine.md): a
+ * The lint rule that keeps server/engine free of I/O (docs/decisions/0017-no-io-in-engine.md): a
  * file there importing node: I/O modules, threads or the rest of the server is an error; the same
  * imports in the runner are allowed.
  */

@@ -92,7 +92,7 @@ export const passwordResets = pgTable('password_resets', {
 });
 
 /**
- * A sign-up waiting for its e-mailed link (decision 10): the account exists only once the link is
+ * A sign-up waiting for its e-mailed link (decision 9): the account exists only once the link is
  * used, so the sign-up answer is the same whether or not the address already has an account.
  */
 export const signUpRequests = pgTable('sign_up_requests', {

@@ -97,7 +97,7 @@ export const MAX_GRAM_COLUMNS = 2000;
 /**
  * Gram form for gaussian fits when n is well above p (n >= 2p: one Gram column, p products of
  * length n, is then cheaper to reuse than to recompute n-long residual products every iteration)
- * and p <= MAX_GRAM_COLUMNS, unless overridden (docs/decisions/0011-gram-form.md).
+ * and p <= MAX_GRAM_COLUMNS, unless overridden (docs/decisions/0015-gram-form.md).
  */
 export function usesGram(options: PathOptions, n: number, p: number): boolean {
   if (!GRAM_FAMILIES.has(options.family)) return false;

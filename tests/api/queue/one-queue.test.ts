@@ -1,5 +1,5 @@
 /**
- * The process's one job queue (server/queue/queue.ts, docs/decisions/0013-one-job-queue.md): each
+ * The process's one job queue (server/queue/queue.ts, docs/decisions/0020-one-job-queue.md): each
  * queue keeps its own retry policy on the same pg-boss instance. E-mail-style queues retry after a
  * delay that doubles (pg-boss v10: attempt n waits between d * 2^(n-1) and twice that); fit queues
  * retry at once; a job that outlives its expiry is kept alive by the heartbeat, not retried.

@@ -9,7 +9,7 @@ import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRo
 /**
  * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
  * closed form), in two forms: the design form works on X; the Gram form on G = X'X/n and c = X'yc/n
- * (docs/decisions/0011-gram-form.md says when each is used). Its dual (Fenchel; Ndiaye et al. 2017,
+ * (docs/decisions/0015-gram-form.md says when each is used). Its dual (Fenchel; Ndiaye et al. 2017,
  * JMLR 18, section 2): D(theta) = yc'theta - n/2 ||theta||^2 - sum_u P_u*(X_u'theta).
  */
 export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRole {

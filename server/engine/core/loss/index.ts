@@ -1,6 +1,6 @@
 /**
  * The loss registry: family and form -> the loss role (role.ts). Adding a family is one file beside
- * these and one line here (docs/decisions/0009-loss-role.md).
+ * these and one line here (docs/decisions/0013-loss-role.md).
  */
 import type { Family } from '../../types';
 import type { Problem } from '../problem';
