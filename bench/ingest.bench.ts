@@ -5,47 +5,15 @@
  * < 1 GB. `BENCH_INGEST_ROWS` makes it smaller.
  */
 import fs from 'node:fs';
-import http from 'node:http';
 import path from 'node:path';
 import { generateCsv } from './ingest/generate';
 import { startServer } from './ingest/server';
+import { uploadFile } from './ingest/upload';
 import { signUp } from './ingest/session';
 
 const TARGET_MB_S = 20;
 const TARGET_PEAK_MIB = 1024;
 
-function uploadFile(url: string, s: { cookie: string; csrf: string; workspaceId: string }, filePath: string): Promise<{ status: number; body: string }> {
-  const boundary = 'lariat-bench-boundary';
-  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${path.basename(filePath)}"\r\nContent-Type: text/csv\r\n\r\n`);
-  const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
-  const target = new URL(`${url}/api/workspaces/${s.workspaceId}/datasets/uploads`);
-  return new Promise((resolve, reject) => {
-    const req = http.request(
-      {
-        host: target.hostname,
-        port: target.port,
-        path: target.pathname,
-        method: 'POST',
-        headers: {
-          'Content-Type': `multipart/form-data; boundary=${boundary}`,
-          'Content-Length': String(head.length + fs.statSync(filePath).size + tail.length),
-          Cookie: s.cookie,
-          'X-Lariat-CSRF': s.csrf,
-        },
-      },
-      (res) => {
-        let body = '';
-        res.on('data', (c: Buffer) => (body += c.toString()));
-        res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
-      },
-    );
-    req.on('error', reject);
-    req.write(head);
-    const file = fs.createReadStream(filePath, { highWaterMark: 1 << 20 });
-    file.pipe(req, { end: false });
-    file.on('end', () => req.end(tail));
-  });
-}
 
 export async function run(): Promise<void> {
   const rows = Number(process.env.BENCH_INGEST_ROWS ?? 1_000_000);
