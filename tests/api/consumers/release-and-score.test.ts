@@ -146,7 +146,7 @@ describe('scoring', () => {
     expect(body.rows.map((r) => r.error)).toEqual([
       null,
       'column "x1" is absent from this row',
-      'column "x1" is missing',
+      'column "x1" is blank (this fit left out rows with blanks, so it has no fill value)',
       'column "g": category "purple" was not seen when fitting',
       'column "x2": "abc" is not a number',
       null,
