@@ -3,8 +3,9 @@ import { Button } from '@/components/Button';
 import { Notice } from '@/components/Notice';
 import { useKeys } from '../api/keys';
 import { useRevokeKey } from '../api/revoke-key';
+import { formatWhen } from '@/lib/dates';
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : 'never');
+const when = (iso: string | null) => (iso ? formatWhen(iso) : 'never');
 
 function KeyRow({ workspaceId, k }: { workspaceId: string; k: ApiKeyDto }) {
   const revoke = useRevokeKey(workspaceId);

@@ -5,6 +5,7 @@ import { Notice } from '@/components/Notice';
 import { useDeliveries } from '../api/deliveries';
 import { useRemoveWebhook } from '../api/remove-webhook';
 import { useWebhooks } from '../api/webhooks';
+import { formatWhen } from '@/lib/dates';
 
 function DeliveryHistory({ workspaceId, webhookId }: { workspaceId: string; webhookId: string }) {
   const deliveries = useDeliveries(workspaceId, webhookId);
@@ -15,11 +16,11 @@ function DeliveryHistory({ workspaceId, webhookId }: { workspaceId: string; webh
     <ul className="space-y-2 text-sm">
       {deliveries.data.map((d) => (
         <li key={d.id} className="rounded border border-slate-200 p-2 dark:border-slate-800">
-          <span className="font-bold">{DELIVERY_STATE_LABELS[d.state]}</span> · {d.event} · {new Date(d.createdAt).toLocaleString()}
+          <span className="font-bold">{DELIVERY_STATE_LABELS[d.state]}</span> · {d.event} · {formatWhen(d.createdAt)}
           <ol className="mt-1 list-decimal pl-5">
             {d.attempts.map((a) => (
               <li key={a.at}>
-                {new Date(a.at).toLocaleTimeString()}: {a.status === null ? 'no answer' : `HTTP ${a.status}`}
+                {formatWhen(a.at)}: {a.status === null ? 'no answer' : `HTTP ${a.status}`}
                 {a.error ? ` (${a.error})` : ''}, {a.ms} ms
               </li>
             ))}
@@ -41,7 +42,7 @@ function WebhookRow({ workspaceId, hook }: { workspaceId: string; hook: WebhookD
           <p className="text-xs text-slate-700 dark:text-slate-300">
             {hook.model ? `Releases of ${hook.model.name}` : 'Releases of every model'}
             {hook.description ? ` · ${hook.description}` : ''}
-            {hook.removedAt ? ` · removed ${new Date(hook.removedAt).toLocaleString()}` : ''}
+            {hook.removedAt ? ` · removed ${formatWhen(hook.removedAt)}` : ''}
           </p>
         </div>
         <div className="flex gap-2">

@@ -1,5 +1,6 @@
 /** The audit log (admins): the latest changes of state, and the whole log as CSV. */
 import { auditCsvUrl, useAuditLog } from '../api/audit';
+import { formatWhen } from '@/lib/dates';
 
 export function AuditLogPanel({ workspaceId }: { workspaceId: string }) {
   const log = useAuditLog(workspaceId, true);
@@ -27,7 +28,7 @@ export function AuditLogPanel({ workspaceId }: { workspaceId: string }) {
         <tbody>
           {(log.data ?? []).slice(0, 50).map((e) => (
             <tr key={e.id} className="border-t border-slate-100 dark:border-slate-800">
-              <td className="px-2 py-1">{new Date(e.at).toLocaleString()}</td>
+              <td className="px-2 py-1">{formatWhen(e.at)}</td>
               <td className="px-2">{e.actor.label || e.actor.userId || e.actor.apiKeyId}</td>
               <td className="px-2 font-mono">{e.action}</td>
               <td className="px-2">

@@ -17,6 +17,7 @@ import { useReleases } from '../api/releases';
 import { useRestoreRelease } from '../api/restore-release';
 import { AuditLogPanel } from './AuditLogPanel';
 import { PublishReleaseForm } from './PublishReleaseForm';
+import { formatWhen } from '@/lib/dates';
 
 export function ReleasesPage() {
   const { workspaceId, role } = useCurrentWorkspace();
@@ -70,7 +71,7 @@ function ModelReleases({ workspaceId, list, canRestore }: { workspaceId: string;
                 version {r.fitVersion}
               </Link>
               <span className="text-slate-500">
-                lambda position {r.lambdaIndex + 1} · by {r.releasedBy.name ?? 'a former member'} on {new Date(r.releasedAt).toLocaleString()}
+                lambda position {r.lambdaIndex + 1} · by {r.releasedBy.name ?? 'a former member'} on {formatWhen(r.releasedAt)}
               </span>
               {r.restoredFrom && <span className="text-slate-500">· restores release {r.restoredFrom.number}</span>}
               {r.reviewId && (

@@ -5,6 +5,7 @@ import { Button } from '@/components/Button';
 import { SelectField, TextField } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { useAddComment } from '../api/add-comment';
+import { formatWhen } from '@/lib/dates';
 
 interface Props {
   workspaceId: string;
@@ -27,7 +28,7 @@ export function CommentsPanel({ workspaceId, review, canComment, term, onTermCha
         {review.comments.map((c) => (
           <li key={c.id} className="rounded-md border border-slate-200 bg-white px-3 py-2 text-sm dark:border-slate-800 dark:bg-slate-900">
             <div className="text-xs text-slate-500">
-              {c.author.name ?? 'a former member'} · {new Date(c.createdAt).toLocaleString()} · {c.term ? <span className="font-mono">on {c.term}</span> : 'on the fit'}
+              {c.author.name ?? 'a former member'} · {formatWhen(c.createdAt)} · {c.term ? <span className="font-mono">on {c.term}</span> : 'on the fit'}
             </div>
             <p className="whitespace-pre-wrap">{c.body}</p>
           </li>

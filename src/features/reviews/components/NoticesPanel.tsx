@@ -4,6 +4,7 @@ import { NOTICE_KIND_LABELS } from '@shared/reviews';
 import { Button } from '@/components/Button';
 import { useMarkNoticesRead } from '../api/mark-notices-read';
 import { useNotices } from '../api/notices';
+import { formatWhen } from '@/lib/dates';
 
 export function NoticesPanel({ workspaceId }: { workspaceId: string }) {
   const notices = useNotices(workspaceId);
@@ -30,7 +31,7 @@ export function NoticesPanel({ workspaceId }: { workspaceId: string }) {
             <Link className="underline" to={n.link}>
               {n.title}
             </Link>
-            <span className="ml-2 text-xs text-slate-500">{new Date(n.createdAt).toLocaleString()}</span>
+            <span className="ml-2 text-xs text-slate-500">{formatWhen(n.createdAt)}</span>
           </li>
         ))}
       </ul>

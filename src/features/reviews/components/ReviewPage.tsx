@@ -20,6 +20,7 @@ import { useWithdrawReview } from '../api/withdraw-review';
 import { CommentsPanel } from './CommentsPanel';
 import { DecisionForm } from './DecisionForm';
 import { ReviewStateBadge } from './ReviewStateBadge';
+import { formatWhen } from '@/lib/dates';
 
 const LINK = 'font-bold text-lariat-800 underline dark:text-lariat-200';
 
@@ -41,7 +42,7 @@ export function ReviewPage() {
         title={`Review of ${r.modelName}, version ${r.fitVersion}`}
         description={
           <>
-            <ReviewStateBadge state={r.state} /> Asked by {r.requestedBy.name ?? 'a former member'} on {new Date(r.requestedAt).toLocaleString()} · lambda {formatStat(r.lambda)}
+            <ReviewStateBadge state={r.state} /> Asked by {r.requestedBy.name ?? 'a former member'} on {formatWhen(r.requestedAt)} · lambda {formatStat(r.lambda)}
           </>
         }
         actions={
@@ -68,7 +69,7 @@ export function ReviewPage() {
             <strong>
               {r.state === 'approved' ? 'Approved' : r.state === 'sent-back' ? 'Sent back' : 'Withdrawn'} by {r.decidedBy?.name ?? 'a former member'}
             </strong>{' '}
-            on {new Date(r.decidedAt).toLocaleString()}
+            on {formatWhen(r.decidedAt)}
             {r.reasons ? `: ${r.reasons}` : '.'}
           </Notice>
         )}

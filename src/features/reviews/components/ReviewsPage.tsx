@@ -14,6 +14,7 @@ import { MailPreferencesPanel } from './MailPreferencesPanel';
 import { NoticesPanel } from './NoticesPanel';
 import { RequestReviewForm } from './RequestReviewForm';
 import { ReviewStateBadge } from './ReviewStateBadge';
+import { formatWhen } from '@/lib/dates';
 
 export function ReviewsPage() {
   const { workspaceId, role } = useCurrentWorkspace();
@@ -77,7 +78,7 @@ export function ReviewsPage() {
                     </td>
                     <td className="font-mono">{formatStat(r.lambda)}</td>
                     <td>
-                      {r.requestedBy.name ?? 'a former member'} · {new Date(r.requestedAt).toLocaleString()}
+                      {r.requestedBy.name ?? 'a former member'} · {formatWhen(r.requestedAt)}
                     </td>
                     <td>{r.commentCount}</td>
                   </tr>
