@@ -46,7 +46,9 @@ export function describeForLog(err: unknown): string {
   const e = (err ?? {}) as Described;
   const parts = [`${safe(e.name) ?? typeof err}`];
   const db = databaseError(e);
-  const isQuery = db !== undefined || safe(e.name) === 'DrizzleQueryError';
+  // drizzle also wraps failures that carry no SQLSTATE (a dropped connection, a pool timeout) in a
+  // plain Error whose message starts with the query text: that counts as a query error too.
+  const isQuery = db !== undefined || safe(e.name) === 'DrizzleQueryError' || (typeof e.message === 'string' && e.message.startsWith('Failed query:'));
   if (db) {
     for (const key of ['code', 'constraint', 'table', 'column'] as const) {
       const value = safe(db[key]);
