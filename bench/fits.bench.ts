@@ -14,6 +14,8 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import { applyMigrations } from '../server/db/migrate';
+import { startFakeSmtp, type FakeSmtp } from '../server/mail/fake-smtp';
+import { signUp as benchSignUp } from './ingest/session';
 import { adminQuery, urlFor } from '../tests/support/databases';
 
 const SCALE = Number(process.env.BENCH_FITS_SCALE ?? '1');
@@ -83,15 +85,9 @@ async function api(s: Session, method: string, path: string, body?: unknown): Pr
   return { status: res.status, json: text ? JSON.parse(text) : null, ms, bytes: text.length };
 }
 
-async function signUp(url: string): Promise<Session> {
-  const res = await fetch(`${url}/api/auth/sign-up`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email: `bench-${Date.now()}@example.test`, password: 'correct horse battery staple', name: 'Bench' }),
-  });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status}`);
-  const body = (await res.json()) as { csrfToken: string; memberships: { workspaceId: string }[] };
-  return { url, cookie: res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; '), csrf: body.csrfToken, workspaceId: body.memberships[0].workspaceId };
+/** Sign-up finishes through the e-mailed link, read from the bench's own fake SMTP server. */
+async function signUp(url: string, mailbox: FakeSmtp): Promise<Session> {
+  return { url, ...(await benchSignUp(url, mailbox, 'fits')) };
 }
 
 async function uploadModel(s: Session, name: string, rows: number, cols: number, seed: number, family: 'gaussian' | 'binomial' = 'gaussian'): Promise<{ modelId: string; predictors: string[] }> {
@@ -212,11 +208,12 @@ export async function run(): Promise<void> {
   await adminQuery(`CREATE DATABASE ${db}`);
   await applyMigrations(urlFor(db));
   const port = 20000 + Math.floor(Math.random() * 20000);
+  const mailbox = await startFakeSmtp(0);
   const env = {
     NODE_ENV: 'development',
     DATABASE_URL: urlFor(db),
     LARIAT_PORT: String(port),
-    LARIAT_FAKE_SMTP_PORT: '0',
+    LARIAT_SMTP_URL: `smtp://127.0.0.1:${mailbox.port}`,
     LARIAT_SERVE_CLIENT: '0',
     LARIAT_QUEUE_POLL_MS: '200',
     LARIAT_COLUMN_LIMIT: '5001',
@@ -234,13 +231,14 @@ export async function run(): Promise<void> {
   };
   try {
     await waitFor(server, 'Lariat is running');
-    const bench: Bench = { s: await signUp(`http://127.0.0.1:${port}`), startWorkers, stopWorkers };
+    const bench: Bench = { s: await signUp(`http://127.0.0.1:${port}`, mailbox), startWorkers, stopWorkers };
     if (PARTS.includes('1')) await latencyWhileRunning(bench);
     if (PARTS.includes('2')) await wideFit(bench);
     if (PARTS.includes('3')) await oneWorkerAgainstTwo(bench);
   } finally {
     await stopWorkers();
     await stop(server);
+    await mailbox.close();
     await adminQuery(`DROP DATABASE IF EXISTS ${db} WITH (FORCE)`);
     fs.rmSync(`.lariat/bench-state/${db}`, { recursive: true, force: true });
   }
