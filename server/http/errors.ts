@@ -34,6 +34,19 @@ export function fromZod(error: ZodError, where = 'body'): HttpError {
   return new HttpError(400, message, field, error.issues);
 }
 
+/** Retry-After on a 503 when no database connection came free: a few seconds clears a burst. */
+const BUSY_RETRY_SECONDS = 5;
+/** pg-pool's message when connectionTimeoutMillis passes without a free connection (pg-pool index.js). */
+const POOL_TIMEOUT = 'timeout exceeded when trying to connect';
+
+/** True when the error, or what it wraps (drizzle wraps the driver's errors), is pg-pool's wait timeout. */
+function waitedForConnection(err: unknown): boolean {
+  for (let e = err as { message?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 5; e = e.cause as typeof e, depth++) {
+    if (e.message === POOL_TIMEOUT) return true;
+  }
+  return false;
+}
+
 interface BodyParserError extends Error {
   type?: string;
   status?: number;
@@ -67,6 +80,15 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
     res.status(e.status).json({ error: { message: e.message } });
     return;
   }
-  const reported = reportUnexpected(err, `${req.method} ${req.baseUrl}${req.route ? String((req.route as { path: unknown }).path) : ''}`);
+  const where = `${req.method} ${req.baseUrl}${req.route ? String((req.route as { path: unknown }).path) : ''}`;
+  if (waitedForConnection(err)) {
+    // Not a fault in the request or in Lariat's code: every database connection was busy for the
+    // whole connection timeout (LARIAT_DB_CONNECT_TIMEOUT_MS). Tell the client to come back.
+    console.error(`[lariat] busy: no database connection came free in time for ${where}`);
+    res.setHeader('Retry-After', String(BUSY_RETRY_SECONDS));
+    res.status(503).json({ error: { message: `The server is busy. Try again in ${BUSY_RETRY_SECONDS} seconds.` } });
+    return;
+  }
+  const reported = reportUnexpected(err, where);
   res.status(500).json({ error: { message: reported.message, id: reported.id } });
 };

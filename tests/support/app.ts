@@ -1,5 +1,6 @@
 /** An in-process Lariat for API tests: its own database copy, a fake SMTP server, the Express app. */
 import type express from 'express';
+import type pg from 'pg';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import type { AppContext } from '../../server/context';
@@ -17,6 +18,8 @@ export interface TestApp {
   /** ctx.queue, with what a test's in-process fit worker needs. */
   queue: JobQueue;
   mail: FakeSmtp;
+  /** The app's own connection pool (4 connections), for tests that hold its connections. */
+  pool: pg.Pool;
   close(): Promise<void>;
 }
 
@@ -41,7 +44,9 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     LARIAT_RATE_LIMIT_FACTOR: '100',
     ...env,
   });
-  const handle = connectDatabase(database.url, 4);
+  // No wait limit (pg's default, 0) unless a test sets one: a loaded test machine must not turn slow
+  // queries into failures.
+  const handle = connectDatabase(database.url, 4, env.LARIAT_DB_CONNECT_TIMEOUT_MS ? config.LARIAT_DB_CONNECT_TIMEOUT_MS : 0);
   // The process's one queue, as server/main.ts starts it (fits tests add a worker on it: tests/api/fits/support.ts).
   const queue = await startQueue({ ...queueSettings(config, database.url), poolSize: 3 }, fitQueues(config));
   const ctx: AppContext = {
@@ -58,6 +63,7 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
     ctx,
     queue,
     mail,
+    pool: handle.pool,
     async close() {
       // Work queued after a response (e-mails after a sign-up) finishes before the database goes.
       await new Promise((r) => setTimeout(r, 50));
