@@ -79,20 +79,23 @@ export type CellRule = (cell: string) => number | undefined;
  * first written when the loop exits made the compiled loop bail out (no type feedback yet).
  */
 let plainEnd = 0;
+/** The column of the cell at `plainEnd` (0: a row start). */
+let plainColumn = 0;
 
 /**
- * The hot loop, kept small so the compiler keeps it tight: reads whole rows from `pos` while every
- * cell of the row is a plain decimal (optional minus, digits, optional point and digits, optional
- * exponent; at most 15 digits; a power of ten within 10^+-22) ended by the expected comma, or after
- * the last cell by a newline (CR LF too). Stops at the first row with any other cell (blank line,
- * blanks, a plus sign, more digits, text, missing, a wrong field count): returns how many rows it
- * stored from `row` on; `plainEnd` is the position of the row it stopped at, which the careful path
- * then reads again. No bounds checks are needed up to `lastNewline`: every scan stops at a non-digit, at
- * the latest at the row's newline.
+ * The hot loop, kept small so the compiler keeps it tight: reads cells from `pos`, the start of cell
+ * `column` of row `row`, while each is a plain decimal (optional minus, digits, optional point and
+ * digits, optional exponent; at most 15 digits; a power of ten within 10^+-22) ended by the expected
+ * comma, or after the last cell by a newline (CR LF too). Stops at the first other cell (blank line,
+ * blanks, a plus sign, more digits, text, missing, a wrong field count), which the careful path
+ * then reads: `plainEnd` and `plainColumn` say where it is; returns how many rows it completed. No
+ * bounds checks are needed up to `lastNewline`: every scan stops at a non-digit, at the latest at
+ * the row's newline. Cell j of row r goes to block[j * capacity + r] (column-major).
  */
 function readPlainRows(
   bytes: Uint8Array,
   pos: number,
+  column: number,
   lastNewline: number,
   block: Float64Array,
   p: number,
@@ -102,10 +105,12 @@ function readPlainRows(
 ): number {
   const last = p - 1;
   let rows = 0;
+  let j = column;
   rowLoop: while (pos <= lastNewline) {
     let i = pos;
-    // Column-major: cell j of this row goes to block[j * capacity + row].
-    for (let j = 0, at = row + rows; j < p; j++, at += capacity) {
+    if (j === 0) lineStarts[row + rows] = pos;
+    for (let at = j * capacity + row + rows; j < p; j++, at += capacity) {
+      pos = i;
       let c = bytes[i];
       const negative = c === MINUS;
       if (negative) c = bytes[++i];
@@ -145,11 +150,13 @@ function readPlainRows(
       block[at] = negative ? -magnitude : magnitude;
       i++;
     }
-    lineStarts[row + rows] = pos;
     rows++;
+    j = 0;
     pos = i;
   }
+  // `pos` is the start of the cell that stopped the loop, or of the first row past `lastNewline`.
   plainEnd = pos;
+  plainColumn = j;
   return rows;
 }
 
@@ -160,45 +167,16 @@ function readPlainRows(
  */
 export function readPlainRowsForTest(bytes: Uint8Array, p: number, rows: number): { rows: number; values: Float64Array } {
   const values = new Float64Array(rows * p);
-  const taken = readPlainRows(bytes, 0, bytes.lastIndexOf(NEWLINE), values, p, rows, 0, new Float64Array(rows));
+  const taken = readPlainRows(bytes, 0, 0, bytes.lastIndexOf(NEWLINE), values, p, rows, 0, new Float64Array(rows));
   return { rows: taken, values };
-}
-
-/**
- * One row the plain loop did not take, cell by cell through the shared scanner and the general
- * reader's rule; returns the position after the row. A cell that is text marks its column in `textual`.
- */
-function readCarefulRow(
-  bytes: Uint8Array,
-  start: number,
-  values: Float64Array[],
-  row: number,
-  textual: Uint8Array,
-  classify: CellRule,
-  fieldCountError: (start: number) => EngineInputError,
-): number {
-  const p = values.length;
-  let pos = start;
-  for (let j = 0; j < p; j++) {
-    let v = scanSimpleDecimal(bytes, pos);
-    const cellEnd = scanned.end;
-    const atLineEnd = cellEnd >= bytes.length || bytes[cellEnd] === NEWLINE;
-    if (atLineEnd !== (j === p - 1)) throw fieldCountError(start);
-    if (!textual[j] && Number.isNaN(v)) {
-      const rule = classify(decoder.decode(bytes.subarray(pos, cellEnd)));
-      if (rule === undefined) textual[j] = 1;
-      else v = rule;
-    }
-    values[j][row] = v;
-    pos = cellEnd + 1;
-  }
-  return pos;
 }
 
 /**
  * Reads the rows of a quote-free CSV (the caller has checked there is no `"` and read the header),
  * starting at byte `bodyStart`. Same line numbers, blank-line skipping and messages as the general
- * reader; text columns are re-read as strings and built by `toTextColumn`.
+ * reader; text columns are re-read as strings and built by `toTextColumn`. The plain loop reads what
+ * it can; each cell it stops at (and each blank line) is read here through the shared scanner and
+ * the general reader's rule, and the plain loop goes on from the next cell.
  */
 export function parseQuoteFreeRows(
   bytes: Uint8Array,
@@ -209,44 +187,61 @@ export function parseQuoteFreeRows(
   toTextColumn: (name: string, cells: string[]) => EngineColumn,
 ): EngineTable {
   const p = header.length;
+  const last = p - 1;
   const capacity = countLines(bytes, bodyStart);
   // One allocation for all columns (thousands of small ones cost more than the reading on a wide file).
   const block = new Float64Array(capacity * p);
-  const values = header.map((_, j) => block.subarray(j * capacity, (j + 1) * capacity));
   const textual = new Uint8Array(p);
   const lineStarts = new Float64Array(capacity);
   const lastNewline = bytes.lastIndexOf(NEWLINE);
   let nRows = 0;
-  let line = 1;
-  const fieldCountError = (start: number): EngineInputError => {
-    const fields = decoder.decode(bytes.subarray(start, lineEnd(bytes, start))).split(',').length;
-    return new EngineInputError(`${file}: line ${line} has ${fields} fields but the header has ${p}`, 'data');
-  };
-  for (let pos = bodyStart; pos < bytes.length; ) {
-    const rows = readPlainRows(bytes, pos, lastNewline, block, p, capacity, nRows, lineStarts);
+  let blankLines = 0;
+  let pos = bodyStart;
+  let j = 0;
+  for (;;) {
+    nRows += readPlainRows(bytes, pos, j, lastNewline, block, p, capacity, nRows, lineStarts);
     pos = plainEnd;
-    nRows += rows;
-    line += rows;
-    if (pos >= bytes.length) break;
-    // The careful path, one line: a blank line, or a row with a cell the plain loop does not take.
-    line++;
-    if (isBlankLine(bytes, pos)) {
-      pos = lineEnd(bytes, pos) + 1;
-      continue;
+    j = plainColumn;
+    if (j === 0) {
+      if (pos >= bytes.length) break;
+      if (isBlankLine(bytes, pos)) {
+        blankLines++;
+        pos = lineEnd(bytes, pos) + 1;
+        continue;
+      }
+      lineStarts[nRows] = pos;
     }
-    const start = pos;
-    pos = readCarefulRow(bytes, start, values, nRows, textual, classify, fieldCountError);
-    lineStarts[nRows] = start;
-    nRows++;
+    // One careful cell: cell j of row nRows.
+    let v = scanSimpleDecimal(bytes, pos);
+    const cellEnd = scanned.end;
+    const atLineEnd = cellEnd >= bytes.length || bytes[cellEnd] === NEWLINE;
+    if (atLineEnd !== (j === last)) {
+      const start = lineStarts[nRows];
+      const fields = decoder.decode(bytes.subarray(start, lineEnd(bytes, start))).split(',').length;
+      const line = nRows + blankLines + 2; // the header is line 1
+      throw new EngineInputError(`${file}: line ${line} has ${fields} fields but the header has ${p}`, 'data');
+    }
+    if (!textual[j] && Number.isNaN(v)) {
+      const rule = classify(decoder.decode(bytes.subarray(pos, cellEnd)));
+      if (rule === undefined) textual[j] = 1;
+      else v = rule;
+    }
+    block[j * capacity + nRows] = v;
+    pos = cellEnd + 1;
+    if (j === last) {
+      nRows++;
+      j = 0;
+    } else j++;
   }
   if (nRows === 0) throw new EngineInputError(`${file}: the file has a header but no data rows`, 'data');
   return {
     nRows,
-    columns: header.map((name, j): EngineColumn => {
+    columns: header.map((name, k): EngineColumn => {
+      const values = block.subarray(k * capacity, k * capacity + capacity);
       // Blank lines were counted in the capacity: only then is a column cut to its rows.
-      if (!textual[j]) return { name, kind: 'numeric', values: nRows === capacity ? values[j] : values[j].slice(0, nRows) };
+      if (!textual[k]) return { name, kind: 'numeric', values: nRows === capacity ? values : values.slice(0, nRows) };
       // A text column: read its cells again as strings (rare in large files, so done only then).
-      const cells = Array.from(lineStarts.subarray(0, nRows), (start) => decoder.decode(bytes.subarray(start, lineEnd(bytes, start))).split(',')[j]);
+      const cells = Array.from(lineStarts.subarray(0, nRows), (start) => decoder.decode(bytes.subarray(start, lineEnd(bytes, start))).split(',')[k]);
       return toTextColumn(name, cells);
     }),
   };
@@ -262,6 +257,6 @@ export function parseQuoteFreeRows(
 function warmUp(): void {
   const rows = 20;
   const sample = Buffer.from('-1.5e-3,2E+4,-0,7\r\n1.25,3e2,.5,-8.\n'.repeat(rows / 2));
-  for (let k = 0; k < 3; k++) readPlainRows(sample, 0, sample.length - 1, new Float64Array(4 * rows), 4, rows, 0, new Float64Array(rows));
+  for (let k = 0; k < 3; k++) readPlainRows(sample, 0, 0, sample.length - 1, new Float64Array(4 * rows), 4, rows, 0, new Float64Array(rows));
 }
 warmUp();
