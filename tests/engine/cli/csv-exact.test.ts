@@ -45,6 +45,9 @@ const EDGE_CELLS = [
   '1e23', '1e-23', '179769313486231570000', '4.9e-324', '1.7976931348623157e308', '0.000001', '1e-7',
 ];
 
+/** A value as text, -0 shown as such (String(-0) is "0"). */
+const show = (v: number) => (Object.is(v, -0) ? '-0' : String(v));
+
 /** A CSV with the cells in rows of `p` columns (the last row padded with zeros). */
 function csvOf(cells: string[], p: number, lineEnd = '\n'): { text: string; rows: string[][] } {
   const rows: string[][] = [];
@@ -68,7 +71,7 @@ function expectExact(text: string, rows: string[][], what: string): void {
       return;
     }
     rows.forEach((row, i) => {
-      if (!Object.is(column.values[i], Number(row[j]))) mismatches.push(`"${row[j]}": expected ${Number(row[j])}, got ${column.values[i]}`);
+      if (!Object.is(column.values[i], Number(row[j]))) mismatches.push(`"${row[j]}": expected ${show(Number(row[j]))}, got ${show(column.values[i])}`);
     });
   });
   expect(mismatches.slice(0, 10), `${what}: ${mismatches.length} cells differ from Number()`).toEqual([]);
@@ -110,7 +113,7 @@ describe('the reader gives each cell exactly Number(cell)', () => {
     for (let i = 0; i < read.rows; i++) {
       for (let j = 0; j < p; j++) {
         const got = read.values[j * rows.length + i];
-        if (!Object.is(got, Number(rows[i][j]))) mismatches.push(`"${rows[i][j]}": expected ${Number(rows[i][j])}, got ${got}`);
+        if (!Object.is(got, Number(rows[i][j]))) mismatches.push(`"${rows[i][j]}": expected ${show(Number(rows[i][j]))}, got ${show(got)}`);
       }
     }
     expect(mismatches.slice(0, 10)).toEqual([]);
