@@ -217,13 +217,26 @@ function writeNumeric(
   let count = 0;
   let min = Infinity;
   let max = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const v = source[allKept ? i : keptRows[i]];
-    if (!Number.isNaN(v)) {
-      sum += v;
-      count++;
-      if (v < min) min = v;
-      if (v > max) max = v;
+  // Two copies of one loop, so the common whole-column case reads the column without an index array.
+  if (allKept) {
+    for (let i = 0; i < n; i++) {
+      const v = source[i];
+      if (!Number.isNaN(v)) {
+        sum += v;
+        count++;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      }
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const v = source[keptRows[i]];
+      if (!Number.isNaN(v)) {
+        sum += v;
+        count++;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      }
     }
   }
   if (count === n) {
