@@ -50,9 +50,12 @@ function toColumn(name: string, cells: string[]): EngineColumn {
 }
 
 function checkHeader(header: string[], file: string): void {
+  // A map, not indexOf per name: quadratic in the columns was measurable on 5000-column files.
+  const firstIndex = new Map<string, number>();
   header.forEach((name, j) => {
     if (name === '') throw new EngineInputError(`${file}: column ${j + 1} has an empty name in the header`, 'data');
-    const first = header.indexOf(name);
+    const first = firstIndex.get(name) ?? j;
+    firstIndex.set(name, first);
     if (first !== j) {
       throw new EngineInputError(`${file}: column name "${name}" appears twice in the header (columns ${first + 1} and ${j + 1})`, 'data');
     }

@@ -32,53 +32,100 @@ function isMissing(column: EngineColumn, row: number): boolean {
   return column.kind === 'numeric' ? Number.isNaN(column.values[row]) : column.codes[row] < 0;
 }
 
+/** Sets gap[row] for the candidate rows where the column is missing; `everyRow`: the candidates are 0, 1, ... */
+function markMissing(column: EngineColumn, candidate: Int32Array, everyRow: boolean, gap: Uint8Array): void {
+  const m = candidate.length;
+  if (column.kind === 'numeric') {
+    const values = column.values;
+    if (everyRow) {
+      // Straight through (no gather): the usual case of a whole table.
+      for (let row = 0; row < m; row++) if (Number.isNaN(values[row])) gap[row] = 1;
+      return;
+    }
+    for (let i = 0; i < m; i++) {
+      const row = candidate[i];
+      if (Number.isNaN(values[row])) gap[row] = 1;
+    }
+  } else {
+    const codes = column.codes;
+    for (let i = 0; i < m; i++) {
+      const row = candidate[i];
+      if (codes[row] < 0) gap[row] = 1;
+    }
+  }
+}
+
+/**
+ * The candidate rows kept: not missing the response and, with missing = 'drop', no predictor
+ * missing. Predictors are checked column by column into a row mask (one pass per column, in memory
+ * order) rather than row by row across the columns.
+ */
+function keepRows(
+  table: EngineTable,
+  candidate: Int32Array,
+  everyRow: boolean,
+  response: EngineColumn,
+  predictors: EngineColumn[],
+  spec: DesignSpec,
+  notes: string[],
+): Int32Array {
+  const gap = new Uint8Array(spec.missing === 'drop' ? table.nRows : 0);
+  if (spec.missing === 'drop') for (const column of predictors) markMissing(column, candidate, everyRow, gap);
+  const kept = new Int32Array(candidate.length);
+  let n = 0;
+  let missingResponse = 0;
+  let missingPredictor = 0;
+  for (const row of candidate) {
+    if (isMissing(response, row)) missingResponse++;
+    else if (spec.missing === 'drop' && gap[row] === 1) missingPredictor++;
+    else kept[n++] = row;
+  }
+  if (missingResponse > 0) notes.push(`${missingResponse} rows with a missing response were dropped`);
+  if (missingPredictor > 0) notes.push(`${missingPredictor} rows with a missing predictor were dropped`);
+  return n === kept.length ? kept : kept.slice(0, n);
+}
+
 /**
  * Encodes predictors into a dense column-major design: a numeric predictor is one column, a
  * categorical one gets one indicator per level, named `column=level` (all levels: with a penalty
  * there is no need for a reference level). Rows with a missing response are dropped; rows with a
  * missing predictor are dropped, or (missing = 'impute') filled with the column's mean or mode over
  * the kept rows. Columns constant over the kept rows are reported in `notes` and left out.
+ *
+ * Each column is written once, straight into the design at its place (a constant one is then
+ * overwritten by the next), with its range found in the same pass; a numeric column with nothing to
+ * fill is copied as a block. Sums and ranges run over the same values in the same order as a
+ * column-by-column build, so the design is the same to the bit (tests/engine/core/design-build.test.ts).
  */
 export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Array): BuiltDesign {
   const notes: string[] = [];
   const responseColumn = findColumn(table, spec.response, 'response');
-  const predictors = spec.predictors.map((name) => findColumn(table, name, 'predictors'));
-  const candidate = rows ?? Int32Array.from({ length: table.nRows }, (_, i) => i);
-
-  const kept: number[] = [];
-  let missingResponse = 0;
-  let missingPredictor = 0;
-  for (const row of candidate) {
-    if (isMissing(responseColumn, row)) missingResponse++;
-    else if (spec.missing === 'drop' && predictors.some((c) => isMissing(c, row))) missingPredictor++;
-    else kept.push(row);
-  }
-  if (missingResponse > 0) notes.push(`${missingResponse} rows with a missing response were dropped`);
-  if (missingPredictor > 0) notes.push(`${missingPredictor} rows with a missing predictor were dropped`);
-  const keptRows = Int32Array.from(kept);
+  // By name through a map: findColumn per predictor is quadratic in the columns (5000 on wide files).
+  const byName = new Map<string, EngineColumn>();
+  for (const c of table.columns) if (!byName.has(c.name)) byName.set(c.name, c); // the first, as findColumn
+  const predictors = spec.predictors.map((name) => byName.get(name) ?? findColumn(table, name, 'predictors'));
+  const candidate = rows ?? allRows(table.nRows);
+  const keptRows = keepRows(table, candidate, rows === undefined, responseColumn, predictors, spec, notes);
   const n = keptRows.length;
   if (n === 0) throw new EngineInputError('no rows remain after removing missing values', 'data');
+  // Every row of the table, in order: columns are read directly instead of through `keptRows`.
+  const allKept = n === table.nRows && (rows === undefined || keptRows.every((row, i) => row === i));
 
   const { y, responseLevels, note } = encodeResponse(responseColumn, keptRows, spec.family);
   if (note) notes.push(note);
 
-  const columns: Float64Array[] = [];
+  const width = predictors.reduce((sum, c) => sum + (c.kind === 'numeric' ? 1 : c.levels.length), 0);
+  const x = new Float64Array(n * width);
   const terms: string[] = [];
   const groupsOfTerms: number[] = [];
   const encoding: TermEncoding[] = [];
   const constant: { term: string; value: number }[] = [];
-  const addColumn = (values: Float64Array, term: string, group: number): number => {
-    let min = Infinity;
-    let max = -Infinity;
-    for (let i = 0; i < n; i++) {
-      if (values[i] < min) min = values[i];
-      if (values[i] > max) max = values[i];
-    }
+  /** The column just written at the next free place becomes a term, unless constant (min === max). */
+  const addColumn = (min: number, max: number, term: string, group: number): number => {
     if (min === max) {
       constant.push({ term, value: min });
       return -1;
     }
-    columns.push(values);
     terms.push(term);
     groupsOfTerms.push(group);
     return terms.length - 1;
@@ -86,26 +133,12 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
 
   predictors.forEach((column, index) => {
     if (column.kind === 'numeric') {
-      const values = new Float64Array(n);
-      let sum = 0;
-      let count = 0;
-      for (let i = 0; i < n; i++) {
-        const v = column.values[keptRows[i]];
-        if (!Number.isNaN(v)) {
-          sum += v;
-          count++;
-        }
-      }
-      const mean = count > 0 ? sum / count : NaN;
-      let imputed = 0;
-      for (let i = 0; i < n; i++) {
-        const v = column.values[keptRows[i]];
-        if (Number.isNaN(v)) imputed++;
-        values[i] = Number.isNaN(v) ? mean : v;
-      }
+      const { sum, count, min, max } = writeNumeric(column.values, keptRows, allKept, x, terms.length * n);
       if (count === 0) throw new EngineInputError(`column "${column.name}" has no values in the rows used`, column.name);
+      const mean = sum / count;
+      const imputed = n - count;
       if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the mean ${Number(mean.toPrecision(6))}`);
-      const term = addColumn(values, column.name, -1);
+      const term = addColumn(min, max, column.name, -1);
       // Under 'impute' every predictor keeps its fill value, not only those with gaps in training:
       // a blank cell in a table scored later is filled the same way.
       const fill = spec.missing === 'impute' || imputed > 0;
@@ -131,9 +164,16 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
     const levels: string[] = [];
     const levelTerms: number[] = [];
     column.levels.forEach((level, k) => {
-      const values = new Float64Array(n);
-      for (let i = 0; i < n; i++) values[i] = codes[i] === k ? 1 : 0;
-      const term = addColumn(values, `${column.name}=${level}`, index);
+      const start = terms.length * n;
+      let min = Infinity;
+      let max = -Infinity;
+      for (let i = 0; i < n; i++) {
+        const v = codes[i] === k ? 1 : 0;
+        x[start + i] = v;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      }
+      const term = addColumn(min, max, `${column.name}=${level}`, index);
       if (term >= 0) {
         levels.push(level);
         levelTerms.push(term);
@@ -147,17 +187,80 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
 
   notes.push(...constantNotes(constant));
 
-  const p = columns.length;
-  const x = new Float64Array(n * p);
-  columns.forEach((values, j) => x.set(values, j * n));
+  const p = terms.length;
   return {
-    design: { n, p, x, terms },
+    // Constant columns left room at the end: cut it off (a copy, only then).
+    design: { n, p, x: p < width ? x.slice(0, n * p) : x, terms },
     y,
     rows: keptRows,
     groupsOfTerms,
     notes,
     encoding: responseLevels ? { columns: encoding, responseLevels } : { columns: encoding },
   };
+}
+
+/**
+ * Writes one numeric predictor over the kept rows into x from `at`, a missing cell as the mean of the
+ * others; returns the sum and count of the present cells and the range of the column as written.
+ * One pass finds sum, count and range; a column with missing cells is written in a second pass (the
+ * mean is known only then) and its range found again over the written values, in row order.
+ */
+function writeNumeric(
+  source: Float64Array,
+  keptRows: Int32Array,
+  allKept: boolean,
+  x: Float64Array,
+  at: number,
+): { sum: number; count: number; min: number; max: number } {
+  const n = keptRows.length;
+  let sum = 0;
+  let count = 0;
+  let min = Infinity;
+  let max = -Infinity;
+  // Two copies of one loop, so the common whole-column case reads the column without an index array.
+  if (allKept) {
+    for (let i = 0; i < n; i++) {
+      const v = source[i];
+      if (!Number.isNaN(v)) {
+        sum += v;
+        count++;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      }
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      const v = source[keptRows[i]];
+      if (!Number.isNaN(v)) {
+        sum += v;
+        count++;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      }
+    }
+  }
+  if (count === n) {
+    if (allKept) x.set(source.subarray(0, n), at);
+    else for (let i = 0; i < n; i++) x[at + i] = source[keptRows[i]];
+  } else if (count > 0) {
+    const mean = sum / count;
+    min = Infinity;
+    max = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const v = source[keptRows[i]];
+      const filled = Number.isNaN(v) ? mean : v;
+      x[at + i] = filled;
+      if (filled < min) min = filled;
+      if (filled > max) max = filled;
+    }
+  }
+  return { sum, count, min, max };
+}
+
+function allRows(count: number): Int32Array {
+  const rows = new Int32Array(count);
+  for (let i = 0; i < count; i++) rows[i] = i;
+  return rows;
 }
 
 /** The sub-design of some of a design's rows (e.g. one fold's training rows), with their responses. */

@@ -104,13 +104,18 @@ function checkResponse(column: EngineColumn, spec: FitSpec, nRows: number): void
 
 function checkPredictor(column: EngineColumn, nRows: number): void {
   let count = 0;
-  for (let i = 0; i < nRows; i++) {
-    if (column.kind === 'numeric') {
-      const v = column.values[i];
+  // The kind tested once per column, not per cell: this runs over every cell of the table.
+  if (column.kind === 'numeric') {
+    const values = column.values;
+    for (let i = 0; i < nRows; i++) {
+      const v = values[i];
       if (Number.isNaN(v)) continue;
       if (!Number.isFinite(v)) fail(`column "${column.name}" has a non-finite value ${v} in row ${i + 1}`, column.name);
       count++;
-    } else if (column.codes[i] >= 0) count++;
+    }
+  } else {
+    const codes = column.codes;
+    for (let i = 0; i < nRows; i++) if (codes[i] >= 0) count++;
   }
   if (count === 0) fail(`column "${column.name}" has no values (all missing)`, column.name);
 }

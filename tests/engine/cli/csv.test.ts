@@ -84,6 +84,40 @@ describe('the quote-free fast reader', () => {
     }
   });
 
+  it('gives the same table as the general reader with missing, text, blank and odd cells anywhere in a row', () => {
+    const rng = createRng(11);
+    const odd = ['NA', '', ' 7 ', '+3', 'n/a', '?', '1e400', 'x', '12345678901234567', '2.5E-3', '-0', '.5', '5.'];
+    for (let t = 0; t < 40; t++) {
+      const p = 1 + rng.int(6);
+      const lines = [Array.from({ length: p }, (_, j) => `c${j}`).join(',')];
+      for (let r = 0; r < 1 + rng.int(30); r++) {
+        if (rng.int(8) === 0) lines.push(['', ' ', '\t'][rng.int(3)]);
+        lines.push(Array.from({ length: p }, () => (rng.int(4) === 0 ? odd[rng.int(odd.length)] : (rng.normal() * 100).toFixed(rng.int(6)))).join(','));
+      }
+      const body = `${lines.join('\n')}${rng.int(2) === 0 ? '\n' : ''}`;
+      const general = body.replace('c0', '"c0"'); // a quote sends the file to the general reader
+      let fast: unknown;
+      let expected: unknown;
+      try {
+        fast = parseCsvText(body, 'r.csv');
+      } catch (error) {
+        fast = (error as Error).message;
+      }
+      try {
+        expected = parseCsvText(general, 'r.csv');
+      } catch (error) {
+        expected = (error as Error).message;
+      }
+      expect(fast, body).toEqual(expected);
+    }
+  });
+
+  it('names the line of a row with the wrong field count after blank lines and missing cells', () => {
+    expect(() => parseCsvText('a,b,c\n1,NA,3\n\n4,,6\n7,8\n', 'h.csv')).toThrow(/h\.csv: line 5 has 2 fields but the header has 3/);
+    expect(() => parseCsvText('a,b,c\n1,NA,3\n4,5,6,x\n', 'h.csv')).toThrow(/h\.csv: line 3 has 4 fields but the header has 3/);
+    expect(() => parseCsvText('a,b\n1,2\n3', 'h.csv')).toThrow(/h\.csv: line 3 has 1 fields but the header has 2/);
+  });
+
   it('names the line of a row with too many fields', () => {
     expect(() => parseCsvText('a,b\n1,2\n3,4,5\n', 'g.csv')).toThrow(/g\.csv: line 3 has 3 fields but the header has 2/);
   });
