@@ -4,10 +4,9 @@
  * Uses only the engine's public entry (../index).
  */
 import { EngineInputError, encodeForFit, type BuiltDesign, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult, type PreparedFit } from '../index';
-import { foldAssignment } from './assign';
 import { combineFolds } from './combine';
 import { runFoldOnDesign } from './fold';
-import { foldShared, type FoldShared } from './foldData';
+import { planFolds, type FoldShared } from './foldData';
 
 export interface CvPlan {
   built: BuiltDesign;
@@ -21,13 +20,15 @@ export interface CvPlan {
 /**
  * Everything the folds share: the full design, options, fold ids, the full-data grid, and the cross
  * products / imputed cells (foldData.ts). `prepared` is what the full path was fitted from, when the
- * caller has it (saves encoding the table again).
+ * caller has it (saves encoding the table again, and prepareFit has planned the folds already).
+ * Without it, or when it has no fold plan (a queue's fold job encodes the table itself), the folds
+ * are planned here the same way, so every route gives the folds the same numbers.
  */
 export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvPlan {
-  if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  const { built, options, crossProducts } = prepared ?? encodeForFit(table, spec);
-  const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  const shared = foldShared(table, built, options, foldIds, folds, crossProducts);
+  const cv = spec.cv;
+  if (!cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
+  const { built, options, folds: planned } = prepared ?? encodeForFit(table, spec);
+  const { foldIds, folds, shared } = planned ?? planFolds(table, { ...spec, cv }, built, options);
   return { built, options, foldIds, folds, lambda: path.lambda, shared };
 }
 

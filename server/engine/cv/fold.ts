@@ -7,7 +7,6 @@
  */
 import {
   EngineInputError,
-  constantColumns,
   fitPathOnCrossProducts,
   fitPathOnDesign,
   encodeForFit,
@@ -28,7 +27,7 @@ import {
   meanSquaredError,
   misclassificationRate,
 } from './metrics';
-import { foldCrossProducts, foldShared, imputeFromTraining, type FoldShared } from './foldData';
+import { foldConstantColumns, foldCrossProducts, foldShared, imputeFromTraining, type FoldShared } from './foldData';
 
 /** One fold's result: plain arrays only, so it can travel as a queue job's output. */
 export interface FoldLosses {
@@ -109,10 +108,10 @@ export function runFoldOnDesign(
   }
   const isTraining = Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1));
   const design = imputeFromTraining(fullDesign, shared.imputed, isTraining);
-  const cross = foldCrossProducts(design, shared, test, y);
+  const cross = foldCrossProducts(shared, foldIndex);
   const fit =
     cross?.response && !lambda.includes(0)
-      ? fitPathOnCrossProducts(design.terms, cross, constantColumns(design, train), { ...options, lambda })
+      ? fitPathOnCrossProducts(design.terms, cross, foldConstantColumns(design, shared, foldIndex, train), { ...options, lambda })
       : fitOnRows(design, y, train, cross, { ...options, lambda });
   const testSet = selectRows(design, y, test);
   const nTest = test.length;

@@ -9,6 +9,7 @@ import { crossProducts } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
 import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
+import { planFolds, type FoldPlan } from '../cv/foldData';
 
 /**
  * Fits the regularization path on an encoded design (objectives in types.ts). Standardization is
@@ -157,12 +158,29 @@ export interface PreparedFit {
    * path's Gram comes from them, and cross-validation subtracts each fold's held-out rows from them.
    */
   crossProducts?: CrossProducts;
+  /**
+   * With cross-validation: the folds, planned before the full path (prepareFit). In the Gram form
+   * their shared data hold the cross products of each fold's rows, and S(all) is their sum: one
+   * pass over the rows serves the full path (crossProducts above) and every fold.
+   */
+  folds?: FoldPlan;
 }
 
-/** validateSpec, then encodeForFit: the table-level steps every fit shares. */
+/**
+ * validateSpec, then encodeForFit: the table-level steps every fit shares; with cross-validation the
+ * folds are planned too (cv/foldData.ts planFolds), so the full path and the folds share one set of
+ * cross products. Every route that fits a path with CV (CLI, in-process, studio path job) comes
+ * through here, so the full path's numbers do not depend on the route.
+ */
 export function prepareFit(table: EngineTable, spec: FitSpec): PreparedFit {
   validateSpec(table, spec);
-  return encodeForFit(table, spec);
+  const prepared = encodeForFit(table, spec);
+  const cv = spec.cv;
+  if (cv) {
+    prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options);
+    prepared.crossProducts = prepared.folds.shared.crossProducts;
+  }
+  return prepared;
 }
 
 /**
