@@ -1,6 +1,15 @@
 /**
- * Cross-validation with folds spread over a small pool of worker threads (min(2, K) by default: the
- * target machine has 2 cores).
+ * Cross-validation folds on worker threads (docs/decisions/0023-speed-tall-cv-threads.md). Every
+ * thread runs the same pure fold function on the same numbers, so results do not depend on which
+ * thread ran which fold; combineFolds sums them in fold order.
+ *
+ * - The design and the cross products are copied once into SharedArrayBuffers and shared with the
+ *   workers (posting them shares the memory, nothing is copied per worker).
+ * - Threads claim folds from one shared counter (Atomics.add): no thread waits for a message to get
+ *   work, and the main thread can run folds synchronously alongside the workers.
+ * - A worker can be started before the data are read (startFoldWorker), so its start-up (loading
+ *   and compiling the bundle, ~0.1 s) overlaps the reading; and when the grid is known before the
+ *   full path is solved (plannedGrid), the worker runs folds while the main thread fits that path.
  */
 
 import { existsSync } from 'node:fs';
@@ -8,8 +17,8 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { EngineInputError, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { combineFolds, planCrossValidation, runPlannedFold, type CvPlan, type FoldLosses } from '../engine/cv';
+import { EngineInputError, fitPathPrepared, plannedGrid, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { combineFolds, planCrossValidation, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 /**
@@ -33,108 +42,150 @@ function startWorker(): Worker {
   return new Worker(code, { eval: true });
 }
 
-function initMessage(plan: CvPlan): WorkerRequest {
-  return {
-    type: 'init',
-    design: plan.built.design,
-    y: plan.built.y,
-    options: plan.options,
-    foldIds: plan.foldIds,
-    lambda: plan.lambda,
-    shared: plan.shared,
-  };
+/** A copy of `values` in shared memory (unchanged if it is there already). */
+function shared(values: Float64Array): Float64Array {
+  if (values.buffer instanceof SharedArrayBuffer) return values;
+  const out = new Float64Array(new SharedArrayBuffer(values.byteLength));
+  out.set(values);
+  return out;
 }
 
-function replyError(reply: WorkerReply): Error | null {
-  if (!('error' in reply)) return null;
+function sharedSums(cp: CrossProducts): CrossProducts {
+  return { ...cp, sums: shared(cp.sums) };
+}
+
+/**
+ * Moves the plan's large arrays into shared memory, in place: the design's values (the plan's
+ * design is the caller's prepared design, so the private copy is dropped and memory does not double)
+ * and the cross products' sums. Same numbers, so no result changes.
+ */
+function sharePlan(plan: CvPlan): void {
+  plan.built.design.x = shared(plan.built.design.x);
+  const s: FoldShared = plan.shared;
+  if (s.crossProducts) s.crossProducts = sharedSums(s.crossProducts);
+  if (s.blocks) s.blocks = s.blocks.map(sharedSums);
+}
+
+type Outcome = { fold: number; result: FoldLosses } | { fold: number; error: Error };
+
+function replyError(reply: { error: { name: string; message: string; field?: string } }): Error {
   const { name, message, field } = reply.error;
   return name === 'EngineInputError' ? new EngineInputError(message, field) : new Error(message);
 }
 
-/** Runs the given folds of a plan on a pool of worker threads; results in fold order. */
-export async function runFoldsInWorkers(plan: CvPlan, folds: number[], poolSize = 2): Promise<FoldLosses[]> {
-  const size = Math.max(1, Math.min(poolSize, folds.length));
-  const init = initMessage(plan);
-  const results: FoldLosses[] = [];
-  const queue = [...folds];
-  const workers = Array.from({ length: size }, startWorker);
-  try {
-    await Promise.all(
-      workers.map(
-        (worker) =>
-          new Promise<void>((resolve, reject) => {
-            const sendNext = () => {
-              const fold = queue.shift();
-              if (fold === undefined) return resolve();
-              worker.postMessage({ type: 'fold', fold } satisfies WorkerRequest);
-            };
-            worker.on('message', (reply: WorkerReply) => {
-              const error = replyError(reply);
-              if (error) return reject(error);
-              if ('result' in reply) results.push(reply.result);
-              sendNext();
-            });
-            worker.on('error', reject);
-            worker.postMessage(init);
-            sendNext();
-          }),
-      ),
-    );
-  } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
+/** A worker thread that runs folds of the plans it is given; start it early, use it once. */
+export class FoldWorker {
+  private readonly worker = startWorker();
+  private failure: Error | null = null;
+
+  constructor() {
+    // An error before any plan (e.g. the bundle failed to load) is reported by the next run.
+    this.worker.on('error', (error) => (this.failure ??= error));
   }
-  return results.sort((a, b) => a.fold - b.fold);
+
+  /**
+   * Gives the worker `plan` and the shared counter; resolves with the folds it ran once it finds none
+   * left (rejects if the thread dies).
+   */
+  run(plan: CvPlan, next: Int32Array): Promise<Outcome[]> {
+    const worker = this.worker;
+    return new Promise<Outcome[]>((resolve, reject) => {
+      if (this.failure) return reject(this.failure);
+      const outcomes: Outcome[] = [];
+      const onMessage = (reply: WorkerReply) => {
+        if (reply.type === 'result') outcomes.push({ fold: reply.fold, result: reply.result });
+        else if (reply.type === 'error') outcomes.push({ fold: reply.fold, error: replyError(reply) });
+        else {
+          cleanup();
+          resolve(outcomes);
+        }
+      };
+      const onError = (error: Error) => {
+        cleanup();
+        reject(error);
+      };
+      const onExit = (code: number) => {
+        cleanup();
+        reject(new Error(`a cross-validation worker thread stopped (exit code ${code})`));
+      };
+      const cleanup = () => {
+        worker.off('message', onMessage);
+        worker.off('error', onError);
+        worker.off('exit', onExit);
+      };
+      worker.on('message', onMessage);
+      worker.on('error', onError);
+      worker.on('exit', onExit);
+      const { design, y } = plan.built;
+      worker.postMessage({
+        type: 'plan',
+        design,
+        y,
+        options: plan.options,
+        foldIds: plan.foldIds,
+        lambda: plan.lambda,
+        shared: plan.shared,
+        next,
+        folds: plan.folds,
+      } satisfies WorkerRequest);
+    });
+  }
+
+  async stop(): Promise<void> {
+    await this.worker.terminate();
+  }
+}
+
+/** Starts a fold worker now (e.g. before reading the data, so its start-up overlaps the reading). */
+export function startFoldWorker(): FoldWorker {
+  return new FoldWorker();
+}
+
+function newCounter(): Int32Array {
+  return new Int32Array(new SharedArrayBuffer(4));
+}
+
+/** Claims and runs folds on this thread until none is left. */
+function runClaimed(plan: CvPlan, next: Int32Array): Outcome[] {
+  const outcomes: Outcome[] = [];
+  for (;;) {
+    const fold = Atomics.add(next, 0, 1);
+    if (fold >= plan.folds) return outcomes;
+    try {
+      outcomes.push({ fold, result: runPlannedFold(plan, fold) });
+    } catch (error) {
+      outcomes.push({ fold, error: error as Error });
+      Atomics.store(next, 0, plan.folds);
+    }
+  }
 }
 
 /**
- * Runs the given folds on this thread and one worker thread together, both taking folds from one
- * queue: this thread is already warm (compiled code, caches), so it keeps working rather than wait.
- * The worker gets two folds ahead, so it does not idle while this thread, busy with a fold, cannot
- * answer its messages. Results in fold order.
+ * Every fold's losses in fold order, or the error of the first failing fold (the one a single
+ * thread running the folds in order would have met: every fold before it was claimed and run).
  */
-export async function runFoldsAlongside(plan: CvPlan, folds: number[]): Promise<FoldLosses[]> {
-  const queue = [...folds];
-  const results: FoldLosses[] = [];
-  const worker = startWorker();
-  let inFlight = 0;
-  let failure: Error | null = null;
-  let settle: () => void = () => {};
-  const drained = new Promise<void>((resolve) => (settle = resolve));
-  const feed = (): void => {
-    while (inFlight < 2 && queue.length > 0 && !failure) {
-      worker.postMessage({ type: 'fold', fold: queue.shift() as number } satisfies WorkerRequest);
-      inFlight++;
-    }
-    if (inFlight === 0) settle();
-  };
-  worker.on('message', (reply: WorkerReply) => {
-    inFlight--;
-    failure ??= replyError(reply);
-    if ('result' in reply) results.push(reply.result);
-    feed();
-  });
-  worker.on('error', (error) => {
-    failure ??= error;
-    inFlight = 0;
-    settle();
-  });
-  try {
-    worker.postMessage(initMessage(plan));
-    feed();
-    while (queue.length > 0 && !failure) {
-      results.push(runPlannedFold(plan, queue.shift() as number));
-      // Let the worker's replies in, so it is fed while this thread works.
-      await new Promise<void>((resolve) => setImmediate(resolve));
-    }
-    await drained;
-  } finally {
-    await worker.terminate();
-  }
-  if (failure) throw failure;
-  return results.sort((a, b) => a.fold - b.fold);
+function collect(plan: CvPlan, outcomes: Outcome[]): FoldLosses[] {
+  const sorted = [...outcomes].sort((a, b) => a.fold - b.fold);
+  const failed = sorted.find((o) => 'error' in o);
+  if (failed && 'error' in failed) throw failed.error;
+  if (sorted.length !== plan.folds) throw new Error(`cross-validation ran ${sorted.length} of ${plan.folds} folds`);
+  return sorted.map((o) => (o as { result: FoldLosses }).result);
 }
 
-/** Every fold on worker threads. */
+/**
+ * Runs a plan's folds on `workers` and, with `here`, on this thread too, all claiming from one
+ * counter. This thread works synchronously: the workers' replies wait in their queues meanwhile.
+ */
+export async function runFoldsShared(plan: CvPlan, workers: FoldWorker[], here: boolean): Promise<FoldLosses[]> {
+  sharePlan(plan);
+  const next = newCounter();
+  const running = workers.map((w) => w.run(plan, next));
+  const mine = here ? runClaimed(plan, next) : [];
+  const theirs = await Promise.all(running);
+  return collect(plan, [...mine, ...theirs.flat()]);
+}
+
+/** Every fold on a pool of worker threads (this thread only waits). */
 export async function crossValidateInWorkers(
   table: EngineTable,
   spec: FitSpec,
@@ -143,16 +194,19 @@ export async function crossValidateInWorkers(
   prepared?: PreparedFit,
 ): Promise<CvResult> {
   const plan = planCrossValidation(table, spec, path, prepared);
-  const results = await runFoldsInWorkers(plan, Array.from({ length: plan.folds }, (_, k) => k), poolSize);
-  return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
+  const workers = Array.from({ length: Math.max(1, Math.min(poolSize, plan.folds)) }, startFoldWorker);
+  try {
+    return combineFolds(spec.family, plan.lambda, await runFoldsShared(plan, workers, false), plan.foldIds);
+  } finally {
+    await Promise.all(workers.map((w) => w.stop()));
+  }
 }
 
 /**
  * Runs fold 1 in this thread and times it; when the remaining folds would take longer than
- * `breakEvenSeconds` in this thread, runs them on this thread and a worker thread together
- * (runFoldsAlongside; `workers` then counts the 2 threads), else here. Worker start-up makes it a
- * loss for quick folds: ~0.7 s through the TypeScript loader (default break-even 2 s), ~0.1 s from
- * the CLI's bundle (0.3 s). Timing a real fold adapts to the data, the family and the machine.
+ * `breakEvenSeconds` in this thread, runs them on this thread and a worker thread together, else
+ * here (`workers` counts the threads that ran folds: 2 or 0). For callers that have not started a
+ * worker early; the CLI uses runCrossValidation.
  */
 export async function crossValidateAdaptive(
   table: EngineTable,
@@ -165,8 +219,74 @@ export async function crossValidateAdaptive(
   const started = performance.now();
   const first = runPlannedFold(plan, 0);
   const seconds = (performance.now() - started) / 1000;
-  const rest = Array.from({ length: plan.folds - 1 }, (_, k) => k + 1);
-  const useWorkers = seconds * rest.length > breakEvenSeconds && rest.length > 1;
-  const others = useWorkers ? await runFoldsAlongside(plan, rest) : rest.map((k) => runPlannedFold(plan, k));
-  return { result: combineFolds(spec.family, plan.lambda, [first, ...others], plan.foldIds), workers: useWorkers ? 2 : 0 };
+  const rest = plan.folds - 1;
+  if (!(seconds * rest > breakEvenSeconds && rest > 1)) {
+    const others = Array.from({ length: rest }, (_, k) => runPlannedFold(plan, k + 1));
+    return { result: combineFolds(spec.family, plan.lambda, [first, ...others], plan.foldIds), workers: 0 };
+  }
+  const worker = startFoldWorker();
+  try {
+    sharePlan(plan);
+    const next = newCounter();
+    Atomics.store(next, 0, 1);
+    const running = worker.run(plan, next);
+    const mine = runClaimed(plan, next);
+    const outcomes = [{ fold: 0, result: first }, ...mine, ...(await running)];
+    return { result: combineFolds(spec.family, plan.lambda, collect(plan, outcomes), plan.foldIds), workers: 2 };
+  } finally {
+    await worker.stop();
+  }
+}
+
+/**
+ * Below this estimate of a cross-validation's work the CLI's `--workers auto` runs the folds in its
+ * own thread: folds x lambdas x p x min(n, p) (one lambda of a fold costs about p min(n, p) in either
+ * form: Gram columns in the tall case, products with the working columns in the wide case). The bench
+ * cases sit at 4e7 (tall) to 3e9 (600 x 5000), where a second thread pays for its ~0.1 s start-up
+ * and its memory; the breast cancer case (9e5) takes about as long with a worker as without (bench,
+ * 05:12 baseline: 0.92 s against 0.97 s) for 50 MB more, so it stays in one thread.
+ */
+export const THREAD_WORK_THRESHOLD = 1e7;
+
+/** Whether a second thread pays for this cross-validation (see THREAD_WORK_THRESHOLD). */
+export function threadsPay(prepared: PreparedFit, folds: number, lambdaCount: number): boolean {
+  const { n, p } = prepared.built.design;
+  return folds * lambdaCount * p * Math.min(n, p) >= THREAD_WORK_THRESHOLD;
+}
+
+/**
+ * The full path and its cross-validation with `worker` beside this thread. When the grid is known
+ * before the path is solved (plannedGrid), the worker starts on the folds at once and this thread
+ * joins them when the full path is done; otherwise both start on the folds after the path. Results
+ * are those of fitPathPrepared and crossValidate in one thread. `pathDone` is when the full path ended.
+ */
+export async function fitPathAndFolds(
+  table: EngineTable,
+  spec: FitSpec,
+  prepared: PreparedFit,
+  worker: FoldWorker,
+): Promise<{ path: PathResult; cv: CvResult; pathDone: number }> {
+  const grid = plannedGrid(prepared);
+  if (!grid) {
+    const path = fitPathPrepared(prepared);
+    const pathDone = performance.now();
+    const plan = planCrossValidation(table, spec, path, prepared);
+    return { path, cv: combineFolds(spec.family, plan.lambda, await runFoldsShared(plan, [worker], true), plan.foldIds), pathDone };
+  }
+  const plan = planCrossValidation(table, spec, { lambda: grid } as PathResult, prepared);
+  sharePlan(plan);
+  const next = newCounter();
+  const running = worker.run(plan, next);
+  const path = fitPathPrepared(prepared);
+  const pathDone = performance.now();
+  if (path.lambda.length !== grid.length || path.lambda.some((l, k) => l !== grid[k])) {
+    // Not expected (plannedGrid makes the path's own grid); if it happens, redo the folds on the path's.
+    Atomics.store(next, 0, plan.folds);
+    await running;
+    const again = planCrossValidation(table, spec, path, prepared);
+    return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], true), again.foldIds), pathDone };
+  }
+  const mine = runClaimed(plan, next);
+  const outcomes = [...mine, ...(await running)];
+  return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, outcomes), plan.foldIds), pathDone };
 }

@@ -1,27 +1,26 @@
 /**
- * Worker-thread side of crossValidateInWorkers: receives the shared plan once, then fold indices,
- * and answers each with the fold's losses (or its error).
+ * Worker-thread side of the runner (parallel.ts): receives a plan, then claims folds from the shared
+ * counter until none is left, posting each fold's losses (or its error), then 'done'.
  */
 import { parentPort } from 'node:worker_threads';
 import { runFoldOnDesign } from '../engine/cv';
-import type { WorkerPlan, WorkerReply, WorkerRequest } from './protocol';
+import type { WorkerReply, WorkerRequest } from './protocol';
 
-let shared: WorkerPlan | undefined;
-
-parentPort?.on('message', (message: WorkerRequest) => {
-  if (message.type === 'init') {
-    shared = message;
-    return;
-  }
-  const reply: WorkerReply = (() => {
+parentPort?.on('message', (plan: WorkerRequest) => {
+  const { design, y, options, foldIds, lambda, shared, next, folds } = plan;
+  for (;;) {
+    const fold = Atomics.add(next, 0, 1);
+    if (fold >= folds) break;
+    let reply: WorkerReply;
     try {
-      if (!shared) throw new Error('worker received a fold before its data');
-      const { design, y, options, foldIds, lambda } = shared;
-      return { fold: message.fold, result: runFoldOnDesign(design, y, options, foldIds, message.fold, lambda, shared.shared) };
+      reply = { type: 'result', fold, result: runFoldOnDesign(design, y, options, foldIds, fold, lambda, shared) };
     } catch (error) {
       const e = error as Error & { field?: string };
-      return { fold: message.fold, error: { name: e.name, message: e.message, field: e.field } };
+      reply = { type: 'error', fold, error: { name: e.name, message: e.message, field: e.field } };
+      // Nothing more to claim: the cross-validation fails.
+      Atomics.store(next, 0, folds);
     }
-  })();
-  parentPort?.postMessage(reply);
+    parentPort?.postMessage(reply);
+  }
+  parentPort?.postMessage({ type: 'done' } satisfies WorkerReply);
 });

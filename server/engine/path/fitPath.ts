@@ -204,9 +204,7 @@ export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
  */
 export function fitPathPrepared(prepared: PreparedFit): PathResult {
   const { built, options } = prepared;
-  const { n, p } = built.design;
-  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
-  const cp = prepared.crossProducts;
+  const cp = ensureCrossProducts(prepared);
   // The Gram form needs the rows only to check them: the problem comes from the cross products.
   let result: PathResult;
   if (cp?.response && !options.lambda?.includes(0)) {
@@ -218,6 +216,32 @@ export function fitPathPrepared(prepared: PreparedFit): PathResult {
   result.notes.unshift(...built.notes);
   result.encoding = built.encoding;
   return result;
+}
+
+/** The cross products of all rows when the full Gram form is used (kept in `prepared`). */
+function ensureCrossProducts(prepared: PreparedFit): CrossProducts | undefined {
+  const { built, options } = prepared;
+  const { n, p } = built.design;
+  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
+  return prepared.crossProducts;
+}
+
+/**
+ * The lambdas fitPathPrepared will fit, when they are known before any solve: the explicit grid, or
+ * the automatic one (lambda_max from the same problem set-up the path makes; a set-up's cost, no
+ * solve). Null with maxTerms on an automatic grid (where the path ends depends on its solves).
+ * Lets cross-validation folds start while the full path is still being fitted.
+ */
+export function plannedGrid(prepared: PreparedFit): number[] | null {
+  const { built, options } = prepared;
+  if (options.lambda) return [...options.lambda];
+  if (options.maxTerms !== undefined) return null;
+  checkPathOptions(built.design, built.y, options);
+  const cp = ensureCrossProducts(prepared);
+  const { lambdaMax } = cp?.response
+    ? prepareGramProblem(cp, constantColumns(built.design), built.design.terms, options)
+    : prepareProblem(built.design, built.y, cp ? { ...options, crossProducts: cp } : options);
+  return lambdaMax > 0 ? lambdaGrid(lambdaMax, options.pathLength ?? DEFAULT_PATH_LENGTH, options.pathDecades ?? DEFAULT_PATH_DECADES) : [0];
 }
 
 /** Table level: prepareFit, then fitPathOnDesign; the result carries the encoding. */
