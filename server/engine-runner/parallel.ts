@@ -77,10 +77,18 @@ function replyError(reply: { error: { name: string; message: string; field?: str
 export class FoldWorker {
   private readonly worker = startWorker();
   private failure: Error | null = null;
+  /** Resolves once the worker has loaded its code (tests wait for it; runs need not). */
+  readonly ready: Promise<void>;
 
   constructor() {
     // An error before any plan (e.g. the bundle failed to load) is reported by the next run.
     this.worker.on('error', (error) => (this.failure ??= error));
+    this.ready = new Promise((resolve, reject) => {
+      this.worker.once('error', reject);
+      this.worker.once('message', () => resolve());
+    });
+    // Nobody may wait for `ready`: its failure is reported by run().
+    this.ready.catch(() => {});
   }
 
   /**
@@ -93,6 +101,7 @@ export class FoldWorker {
       if (this.failure) return reject(this.failure);
       const outcomes: Outcome[] = [];
       const onMessage = (reply: WorkerReply) => {
+        if (reply.type === 'ready') return;
         if (reply.type === 'result') outcomes.push({ fold: reply.fold, result: reply.result });
         else if (reply.type === 'error') outcomes.push({ fold: reply.fold, error: replyError(reply) });
         else {
@@ -265,13 +274,18 @@ export async function fitPathAndFolds(
   spec: FitSpec,
   prepared: PreparedFit,
   worker: FoldWorker,
-): Promise<{ path: PathResult; cv: CvResult; pathDone: number }> {
+): Promise<{ path: PathResult; cv: CvResult; pathDone: number; foldsOnWorker: number }> {
   const grid = plannedGrid(prepared);
   if (!grid) {
     const path = fitPathPrepared(prepared);
     const pathDone = performance.now();
     const plan = planCrossValidation(table, spec, path, prepared);
-    return { path, cv: combineFolds(spec.family, plan.lambda, await runFoldsShared(plan, [worker], true), plan.foldIds), pathDone };
+    sharePlan(plan);
+    const next = newCounter();
+    const running = worker.run(plan, next);
+    const mine = runClaimed(plan, next);
+    const theirs = await running;
+    return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
   }
   const plan = planCrossValidation(table, spec, { lambda: grid } as PathResult, prepared);
   sharePlan(plan);
@@ -284,9 +298,9 @@ export async function fitPathAndFolds(
     Atomics.store(next, 0, plan.folds);
     await running;
     const again = planCrossValidation(table, spec, path, prepared);
-    return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], true), again.foldIds), pathDone };
+    return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], true), again.foldIds), pathDone, foldsOnWorker: -1 };
   }
   const mine = runClaimed(plan, next);
-  const outcomes = [...mine, ...(await running)];
-  return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, outcomes), plan.foldIds), pathDone };
+  const theirs = await running;
+  return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
 }

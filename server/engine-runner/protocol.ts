@@ -28,4 +28,6 @@ export type WorkerReply =
   | { type: 'result'; fold: number; result: FoldLosses }
   | { type: 'error'; fold: number; error: { name: string; message: string; field?: string } }
   /** The worker found no fold left to claim. */
-  | { type: 'done' };
+  | { type: 'done' }
+  /** The worker has loaded and waits for a plan. */
+  | { type: 'ready' };

@@ -6,6 +6,9 @@ import { parentPort } from 'node:worker_threads';
 import { runFoldOnDesign } from '../engine/cv';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
+// Loaded: FoldWorker.ready resolves.
+parentPort?.postMessage({ type: 'ready' } satisfies WorkerReply);
+
 parentPort?.on('message', (plan: WorkerRequest) => {
   const { design, y, options, foldIds, lambda, shared, next, folds } = plan;
   for (;;) {
