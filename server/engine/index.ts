@@ -5,7 +5,7 @@
 export { buildDesign, findColumn, selectRows } from './design/build';
 export type { BuiltDesign } from './design/build';
 export { validateSpec } from './design/validate';
-export { encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathPrepared, plannedGrid, prepareFit } from './path/fitPath';
+export { encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathOnOwnDesign, fitPathPrepared, plannedGrid, prepareFit } from './path/fitPath';
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
 export { crossProducts, subtractCrossProducts } from './core/crossProducts';

@@ -8,7 +8,7 @@
 import {
   EngineInputError,
   fitPathOnCrossProducts,
-  fitPathOnDesign,
+  fitPathOnOwnDesign,
   encodeForFit,
   selectRows,
   type CrossProducts,
@@ -135,7 +135,7 @@ export function runFoldOnDesign(
 /** The fold's training rows copied out, and fitted (with the fold's cross products when given). */
 function fitOnRows(design: DesignMatrix, y: Float64Array, train: number[], cross: CrossProducts | undefined, options: PathOptions) {
   const trainSet = selectRows(design, y, train);
-  return fitPathOnDesign(trainSet.design, trainSet.y, cross ? { ...options, crossProducts: cross } : options);
+  return fitPathOnOwnDesign(trainSet.design, trainSet.y, cross ? { ...options, crossProducts: cross } : options);
 }
 
 /**

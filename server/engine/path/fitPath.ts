@@ -25,6 +25,17 @@ export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: 
 }
 
 /**
+ * fitPathOnDesign on a design the caller gives away (a CV fold's copy of its training rows): its
+ * values become the standardized ones instead of being copied again. Not with lambda = 0 in the
+ * grid (that factorization reads the original rows), where it is fitPathOnDesign.
+ */
+export function fitPathOnOwnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
+  if (options.lambda?.includes(0) || !options.lambda) return fitPathOnDesign(design, y, options);
+  checkPathOptions(design, y, options);
+  return runPath(prepareProblem(design, y, options, true), design.terms, options, null);
+}
+
+/**
  * The gaussian Gram-form path from cross products alone (a CV fold's training rows as
  * S(all) - S(held out), with the response; setup.ts prepareGramProblem): no copy, centring or
  * scaling of the rows. `constant` marks the columns constant over those rows. Not for grids with
