@@ -4,10 +4,10 @@
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
 import { readFileSync, statSync } from 'node:fs';
-import { crossValidate } from '../engine/cv';
-import { crossValidateInWorkers, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
+import { crossValidatePrepared } from '../engine/cv';
+import { crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
-import { DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type PathResult } from '../engine/index';
+import { DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
 import { parseFitOptions, UsageError } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
@@ -35,12 +35,16 @@ export async function runFit(argv: string[]): Promise<string> {
   let early: FoldWorker | null = null;
   if (options.workers === 'auto' && (statSync(options.data, { throwIfNoEntry: false })?.size ?? 0) >= EARLY_WORKER_BYTES) early = startFoldWorker();
   try {
-    const table = readCsvFile(options.data);
-    const read = performance.now();
-    const spec = buildFitSpec(options, table);
-    // One code path with fitPath (prepareFit plans the folds, fitPathPrepared fits); the prepared
-    // design is kept for cross-validation.
-    const prepared = prepareFit(table, spec);
+    // The table is needed until the folds are planned (prepareFit); kept in this block only, so its
+    // columns can be collected while the path and the folds run.
+    const { spec, prepared, read } = ((): { spec: FitSpec; prepared: PreparedFit; read: number } => {
+      const table = readCsvFile(options.data);
+      const readAt = performance.now();
+      const fitSpec = buildFitSpec(options, table);
+      // One code path with fitPath (prepareFit plans the folds, fitPathPrepared fits); the prepared
+      // design is kept for cross-validation.
+      return { spec: fitSpec, prepared: prepareFit(table, fitSpec), read: readAt };
+    })();
     let path: PathResult;
     let cv: CvResult | null = null;
     let workers = 0;
@@ -48,7 +52,7 @@ export async function runFit(argv: string[]): Promise<string> {
     const lambdaCount = prepared.options.lambda?.length ?? prepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
     const useEarly = early && spec.cv && prepared.folds && threadsPay(prepared, prepared.folds.folds, lambdaCount);
     if (early && useEarly) {
-      ({ path, cv, pathDone: fitted } = await fitPathAndFolds(table, spec, prepared, early));
+      ({ path, cv, pathDone: fitted } = await fitPathAndFolds(spec, prepared, early));
       workers = 2;
     } else {
       await early?.stop();
@@ -56,9 +60,9 @@ export async function runFit(argv: string[]): Promise<string> {
       path = fitPathPrepared(prepared);
       fitted = performance.now();
       if (spec.cv && options.workers === 'on') {
-        cv = await crossValidateInWorkers(table, spec, path, 2, prepared);
+        cv = await crossValidateInWorkersPrepared(spec, path, prepared);
         workers = 2;
-      } else if (spec.cv) cv = crossValidate(table, spec, path, prepared);
+      } else if (spec.cv) cv = crossValidatePrepared(spec, path, prepared);
     }
     const timing = {
       readSeconds: (read - started) / 1000,

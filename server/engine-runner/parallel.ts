@@ -18,7 +18,7 @@ import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { EngineInputError, fitPathPrepared, plannedGrid, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { combineFolds, planCrossValidation, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
+import { combineFolds, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 /**
@@ -268,9 +268,9 @@ export function threadsPay(prepared: PreparedFit, folds: number, lambdaCount: nu
  * before the path is solved (plannedGrid), the worker starts on the folds at once and this thread
  * joins them when the full path is done; otherwise both start on the folds after the path. Results
  * are those of fitPathPrepared and crossValidate in one thread. `pathDone` is when the full path ended.
+ * `prepared` comes from prepareFit with the spec's CV (its fold plan; the table is not needed).
  */
 export async function fitPathAndFolds(
-  table: EngineTable,
   spec: FitSpec,
   prepared: PreparedFit,
   worker: FoldWorker,
@@ -279,7 +279,7 @@ export async function fitPathAndFolds(
   if (!grid) {
     const path = fitPathPrepared(prepared);
     const pathDone = performance.now();
-    const plan = planCrossValidation(table, spec, path, prepared);
+    const plan = planFromPrepared(spec, path, prepared);
     sharePlan(plan);
     const next = newCounter();
     const running = worker.run(plan, next);
@@ -287,7 +287,7 @@ export async function fitPathAndFolds(
     const theirs = await running;
     return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
   }
-  const plan = planCrossValidation(table, spec, { lambda: grid } as PathResult, prepared);
+  const plan = planFromPrepared(spec, { lambda: grid } as PathResult, prepared);
   sharePlan(plan);
   const next = newCounter();
   const running = worker.run(plan, next);
@@ -297,10 +297,21 @@ export async function fitPathAndFolds(
     // Not expected (plannedGrid makes the path's own grid); if it happens, redo the folds on the path's.
     Atomics.store(next, 0, plan.folds);
     await running;
-    const again = planCrossValidation(table, spec, path, prepared);
+    const again = planFromPrepared(spec, path, prepared);
     return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], true), again.foldIds), pathDone, foldsOnWorker: -1 };
   }
   const mine = runClaimed(plan, next);
   const theirs = await running;
   return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
+}
+
+/** Every fold of a prepared fit's plan on 2 worker threads (CLI `--workers on`). */
+export async function crossValidateInWorkersPrepared(spec: FitSpec, path: PathResult, prepared: PreparedFit, poolSize = 2): Promise<CvResult> {
+  const plan = planFromPrepared(spec, path, prepared);
+  const workers = Array.from({ length: Math.max(1, Math.min(poolSize, plan.folds)) }, startFoldWorker);
+  try {
+    return combineFolds(spec.family, plan.lambda, await runFoldsShared(plan, workers, false), plan.foldIds);
+  } finally {
+    await Promise.all(workers.map((w) => w.stop()));
+  }
 }

@@ -27,9 +27,30 @@ export interface CvPlan {
 export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvPlan {
   const cv = spec.cv;
   if (!cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  const { built, options, folds: planned } = prepared ?? encodeForFit(table, spec);
-  const { foldIds, folds, shared } = planned ?? planFolds(table, { ...spec, cv }, built, options);
+  if (prepared?.folds) return planFromPrepared(spec, path, prepared);
+  const { built, options } = prepared ?? encodeForFit(table, spec);
+  const { foldIds, folds, shared } = planFolds(table, { ...spec, cv }, built, options);
   return { built, options, foldIds, folds, lambda: path.lambda, shared };
+}
+
+/**
+ * The plan of a prepared fit whose folds prepareFit planned: the table is not needed again (a caller
+ * can let it go before the folds run, e.g. the CLI).
+ */
+export function planFromPrepared(spec: FitSpec, path: PathResult, prepared: PreparedFit): CvPlan {
+  if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
+  if (!prepared.folds) throw new Error('the prepared fit has no fold plan (prepareFit plans one when the spec asks for CV)');
+  const { built, options } = prepared;
+  const { foldIds, folds, shared } = prepared.folds;
+  return { built, options, foldIds, folds, lambda: path.lambda, shared };
+}
+
+/** crossValidate on a prepared fit with its fold plan (planFromPrepared). */
+export function crossValidatePrepared(spec: FitSpec, path: PathResult, prepared: PreparedFit): CvResult {
+  const plan = planFromPrepared(spec, path, prepared);
+  const results = [];
+  for (let k = 0; k < plan.folds; k++) results.push(runPlannedFold(plan, k));
+  return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
 }
 
 /** Fold k of a plan in this thread. */

@@ -1,5 +1,5 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
-export { crossValidate, planCrossValidation, runPlannedFold } from './crossValidate';
+export { crossValidate, crossValidatePrepared, planCrossValidation, planFromPrepared, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
 export { runFold, runFoldOnDesign, METRICS } from './fold';
 export type { FoldLosses } from './fold';

@@ -47,7 +47,7 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
       const worker = startFoldWorker();
       try {
         await worker.ready;
-        const both = await fitPathAndFolds(t, s, prepareFit(t, s), worker);
+        const both = await fitPathAndFolds(s, prepareFit(t, s), worker);
         if (workerRuns) expect(both.foldsOnWorker).toBeGreaterThan(0);
         // Everything but the solves' wall-clock times.
         const untimed = (r: PathResult) => ({ ...r, solves: r.solves.map((info) => ({ ...info, timeMs: 0 })) });
@@ -78,7 +78,7 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
     expect(() => crossValidate(t, s, fitPath(t, s))).toThrow(/fold 1: every training row has class 0/);
     const worker = startFoldWorker();
     try {
-      await expect(fitPathAndFolds(t, s, prepareFit(t, s), worker)).rejects.toThrow(/fold 1: every training row has class 0/);
+      await expect(fitPathAndFolds(s, prepareFit(t, s), worker)).rejects.toThrow(/fold 1: every training row has class 0/);
     } finally {
       await worker.stop();
     }
