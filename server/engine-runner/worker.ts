@@ -3,7 +3,7 @@
  * counter until none is left, posting each fold's losses (or its error), then 'done'.
  */
 import { parentPort } from 'node:worker_threads';
-import { runFoldOnDesign } from '../engine/cv';
+import { runFoldOnDesign, type FoldScratch } from '../engine/cv';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 // Loaded: FoldWorker.ready resolves.
@@ -11,12 +11,13 @@ parentPort?.postMessage({ type: 'ready' } satisfies WorkerReply);
 
 parentPort?.on('message', (plan: WorkerRequest) => {
   const { design, y, options, foldIds, lambda, shared, next, folds } = plan;
+  const scratch: FoldScratch = {};
   for (;;) {
     const fold = Atomics.add(next, 0, 1);
     if (fold >= folds) break;
     let reply: WorkerReply;
     try {
-      reply = { type: 'result', fold, result: runFoldOnDesign(design, y, options, foldIds, fold, lambda, shared) };
+      reply = { type: 'result', fold, result: runFoldOnDesign(design, y, options, foldIds, fold, lambda, shared, scratch) };
     } catch (error) {
       const e = error as Error & { field?: string };
       reply = { type: 'error', fold, error: { name: e.name, message: e.message, field: e.field } };

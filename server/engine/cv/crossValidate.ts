@@ -5,7 +5,7 @@
  */
 import { EngineInputError, encodeForFit, type BuiltDesign, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult, type PreparedFit } from '../index';
 import { combineFolds } from './combine';
-import { runFoldOnDesign } from './fold';
+import { runFoldOnDesign, type FoldScratch } from './fold';
 import { planFolds, type FoldShared } from './foldData';
 
 export interface CvPlan {
@@ -15,6 +15,8 @@ export interface CvPlan {
   folds: number;
   lambda: number[];
   shared: FoldShared;
+  /** This thread's reusable fold memory (fold.ts FoldScratch); not shared between threads. */
+  scratch?: FoldScratch;
 }
 
 /**
@@ -55,7 +57,8 @@ export function crossValidatePrepared(spec: FitSpec, path: PathResult, prepared:
 
 /** Fold k of a plan in this thread. */
 export function runPlannedFold(plan: CvPlan, k: number) {
-  return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared);
+  plan.scratch ??= {};
+  return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared, plan.scratch);
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */

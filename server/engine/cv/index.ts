@@ -2,7 +2,7 @@
 export { crossValidate, crossValidatePrepared, planCrossValidation, planFromPrepared, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
 export { runFold, runFoldOnDesign, METRICS } from './fold';
-export type { FoldLosses } from './fold';
+export type { FoldLosses, FoldScratch } from './fold';
 export { combineFolds, mainMetric } from './combine';
 export { foldAssignment } from './assign';
 export { assignFolds, foldIdsFromColumn } from './folds';
