@@ -5,7 +5,7 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { crossValidatePrepared } from '../engine/cv';
-import { crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
+import { coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
 import { DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
 import { parseFitOptions, UsageError } from './args';
@@ -23,8 +23,8 @@ const EARLY_WORKER_BYTES = 1 << 20;
 
 /**
  * --workers auto: a worker thread is started before the data are read (when the file is large
- * enough to be worth it), so its start-up overlaps the reading; after the design is built,
- * threadsPay decides whether it is used. With it, the folds run on it and on this thread (this
+ * enough to be worth it), so its start-up overlaps the reading; after the design is built, it is
+ * used when the work is large enough (threadsPay) and a core was free meanwhile (coreToSpare). With it, the folds run on it and on this thread (this
  * thread first fits the full path, and the worker starts on the folds at once when the grid is known
  * beforehand: fitPathAndFolds). Results are the single-thread ones whichever thread runs a fold.
  * --workers on: every fold on 2 worker threads; off: everything in this thread.
@@ -33,6 +33,7 @@ export async function runFit(argv: string[]): Promise<string> {
   const options = parseFitOptions(argv);
   const started = performance.now();
   let early: FoldWorker | null = null;
+  const cpuAtStart = cpuSnapshot();
   if (options.workers === 'auto' && (statSync(options.data, { throwIfNoEntry: false })?.size ?? 0) >= EARLY_WORKER_BYTES) early = startFoldWorker();
   try {
     // The table is needed until the folds are planned (prepareFit); kept in this block only, so its
@@ -50,7 +51,7 @@ export async function runFit(argv: string[]): Promise<string> {
     let workers = 0;
     let fitted: number;
     const lambdaCount = prepared.options.lambda?.length ?? prepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
-    const useEarly = early && spec.cv && prepared.folds && threadsPay(prepared, prepared.folds.folds, lambdaCount);
+    const useEarly = early && spec.cv && prepared.folds && threadsPay(prepared, prepared.folds.folds, lambdaCount) && coreToSpare(cpuAtStart);
     if (early && useEarly) {
       ({ path, cv, pathDone: fitted } = await fitPathAndFolds(spec, prepared, early));
       workers = 2;

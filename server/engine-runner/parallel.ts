@@ -13,6 +13,7 @@
  */
 
 import { existsSync } from 'node:fs';
+import { cpus } from 'node:os';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -314,4 +315,40 @@ export async function crossValidateInWorkersPrepared(spec: FitSpec, path: PathRe
   } finally {
     await Promise.all(workers.map((w) => w.stop()));
   }
+}
+
+/** Cumulative busy and idle milliseconds over all cores (node:os cpus(); the kernel counts in ~10 ms ticks). */
+export interface CpuSnapshot {
+  idle: number;
+  total: number;
+  at: number;
+}
+
+export function cpuSnapshot(): CpuSnapshot {
+  let idle = 0;
+  let total = 0;
+  for (const { times } of cpus()) {
+    idle += times.idle;
+    total += times.user + times.nice + times.sys + times.idle + times.irq;
+  }
+  return { idle, total, at: performance.now() };
+}
+
+/**
+ * A second thread pays only if a core is free for it. Since `since` (the CLI takes it before reading
+ * the data, while its early worker starts up), at least this share of one core's time must have been
+ * idle. On a quiet 2-core machine the other core idles through most of the reading (about 0.7 of a
+ * core on the tall case); with other processes on every core (load 5-7 during this work) it is near
+ * 0, and the worker then only adds its start-up and compile time (about 0.4 s CPU on the tall case)
+ * to a core that has none to spare: measured slower than one thread there.
+ */
+export const MIN_IDLE_CORE_SHARE = 0.25;
+
+/** Whether, since `since`, the machine had at least MIN_IDLE_CORE_SHARE of a core idle. */
+export function coreToSpare(since: CpuSnapshot, now: CpuSnapshot = cpuSnapshot()): boolean {
+  const elapsedMs = now.at - since.at;
+  const idleMs = now.idle - since.idle;
+  // Too short a window to measure (ticks of ~10 ms): assume a core is free.
+  if (now.total - since.total < 100) return true;
+  return idleMs >= MIN_IDLE_CORE_SHARE * elapsedMs;
 }

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { crossValidate } from '../../../server/engine/cv';
-import { fitPathAndFolds, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
+import { coreToSpare, cpuSnapshot, fitPathAndFolds, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
 import { fitPath, fitPathPrepared, plannedGrid, prepareFit } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
 import { parseCsvText } from '../../../server/tabular/csv';
@@ -95,5 +95,23 @@ describe('threadsPay', () => {
     const p = Math.sqrt(THREAD_WORK_THRESHOLD / 1000);
     expect(threadsPay(prepared(10 * p, p), 10, 100)).toBe(true);
     expect(threadsPay(prepared(10 * p, p), 10, 99)).toBe(false);
+  });
+});
+
+describe('coreToSpare', () => {
+  // 2 cores over a 400 ms window: 800 ms of core time in all.
+  const since = { idle: 1000, total: 5000, at: 0 };
+  it('needs a quarter of one core idle over the window', () => {
+    expect(coreToSpare(since, { idle: 1000 + 100, total: 5800, at: 400 })).toBe(true);
+    expect(coreToSpare(since, { idle: 1000 + 90, total: 5800, at: 400 })).toBe(false);
+    expect(coreToSpare(since, { idle: 1000, total: 5800, at: 400 })).toBe(false);
+  });
+  it('assumes a free core when the window is too short to measure', () => {
+    expect(coreToSpare(since, { idle: 1000, total: 5050, at: 25 })).toBe(true);
+  });
+  it('reads this machine\'s counters', () => {
+    const a = cpuSnapshot();
+    expect(a.total).toBeGreaterThan(0);
+    expect(a.idle).toBeLessThanOrEqual(a.total);
   });
 });
