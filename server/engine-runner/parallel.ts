@@ -275,6 +275,8 @@ export async function fitPathAndFolds(
   spec: FitSpec,
   prepared: PreparedFit,
   worker: FoldWorker,
+  /** false: this thread fits the path only and the worker runs every fold (tests: a known split). */
+  here = true,
 ): Promise<{ path: PathResult; cv: CvResult; pathDone: number; foldsOnWorker: number }> {
   const grid = plannedGrid(prepared);
   if (!grid) {
@@ -284,7 +286,7 @@ export async function fitPathAndFolds(
     sharePlan(plan);
     const next = newCounter();
     const running = worker.run(plan, next);
-    const mine = runClaimed(plan, next);
+    const mine = here ? runClaimed(plan, next) : [];
     const theirs = await running;
     return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
   }
@@ -299,9 +301,9 @@ export async function fitPathAndFolds(
     Atomics.store(next, 0, plan.folds);
     await running;
     const again = planFromPrepared(spec, path, prepared);
-    return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], true), again.foldIds), pathDone, foldsOnWorker: -1 };
+    return { path, cv: combineFolds(spec.family, again.lambda, await runFoldsShared(again, [worker], here), again.foldIds), pathDone, foldsOnWorker: -1 };
   }
-  const mine = runClaimed(plan, next);
+  const mine = here ? runClaimed(plan, next) : [];
   const theirs = await running;
   return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
 }
