@@ -4,10 +4,10 @@
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
 import { readFileSync, statSync } from 'node:fs';
-import { crossValidatePrepared } from '../engine/cv';
-import { coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
+import { crossValidatePrepared, foldAssignment } from '../engine/cv';
+import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
-import { DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { attachFolds, DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type PathResult } from '../engine/index';
 import { parseFitOptions, UsageError } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
@@ -24,9 +24,11 @@ const EARLY_WORKER_BYTES = 1 << 20;
 /**
  * --workers auto: a worker thread is started before the data are read (when the file is large
  * enough to be worth it), so its start-up overlaps the reading; after the design is built, it is
- * used when the work is large enough (threadsPay) and a core was free meanwhile (coreToSpare). With it, the folds run on it and on this thread (this
- * thread first fits the full path, and the worker starts on the folds at once when the grid is known
- * beforehand: fitPathAndFolds). Results are the single-thread ones whichever thread runs a fold.
+ * used when the work is large enough (threadsPay) and a core was free meanwhile (coreToSpare).
+ * With it, the fold blocks' cross products are split between it and this thread
+ * (attachFoldsBeside), then the folds run on it and on this thread (this thread first fits the full
+ * path, and the worker starts on the folds at once when the grid is known beforehand:
+ * fitPathAndFolds). Results are the single-thread ones whichever thread computes what.
  * --workers on: every fold on 2 worker threads; off: everything in this thread.
  */
 export async function runFit(argv: string[]): Promise<string> {
@@ -36,23 +38,27 @@ export async function runFit(argv: string[]): Promise<string> {
   const cpuAtStart = cpuSnapshot();
   if (options.workers === 'auto' && (statSync(options.data, { throwIfNoEntry: false })?.size ?? 0) >= EARLY_WORKER_BYTES) early = startFoldWorker();
   try {
-    // The table is needed until the folds are planned (prepareFit); kept in this block only, so its
-    // columns can be collected while the path and the folds run.
-    const { spec, prepared, read } = ((): { spec: FitSpec; prepared: PreparedFit; read: number } => {
+    // The table is needed until the folds are planned; kept in this block only, so its columns can
+    // be collected while the path and the folds run.
+    const { spec, prepared, read, threads } = await (async () => {
       const table = readCsvFile(options.data);
       const readAt = performance.now();
       const fitSpec = buildFitSpec(options, table);
-      // One code path with fitPath (prepareFit plans the folds, fitPathPrepared fits); the prepared
-      // design is kept for cross-validation.
-      return { spec: fitSpec, prepared: prepareFit(table, fitSpec), read: readAt };
+      // One code path with fitPath: prepareFit, its fold plan (attachFolds), fitPathPrepared.
+      const fitPrepared = prepareFit(table, fitSpec, false);
+      const cv = fitSpec.cv;
+      const assignment = cv ? foldAssignment(table, fitSpec, cv, fitPrepared.built) : null;
+      const lambdaCount = fitPrepared.options.lambda?.length ?? fitPrepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
+      const useWorker = early !== null && assignment !== null && threadsPay(fitPrepared, assignment.folds, lambdaCount) && coreToSpare(cpuAtStart);
+      if (early && assignment && useWorker) await attachFoldsBeside(table, fitSpec, fitPrepared, early, assignment);
+      else attachFolds(table, fitSpec, fitPrepared, assignment ?? undefined);
+      return { spec: fitSpec, prepared: fitPrepared, read: readAt, threads: useWorker };
     })();
     let path: PathResult;
     let cv: CvResult | null = null;
     let workers = 0;
     let fitted: number;
-    const lambdaCount = prepared.options.lambda?.length ?? prepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
-    const useEarly = early && spec.cv && prepared.folds && threadsPay(prepared, prepared.folds.folds, lambdaCount) && coreToSpare(cpuAtStart);
-    if (early && useEarly) {
+    if (early && threads) {
       ({ path, cv, pathDone: fitted } = await fitPathAndFolds(spec, prepared, early));
       workers = 2;
     } else {

@@ -18,9 +18,9 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { EngineInputError, fitPathPrepared, plannedGrid, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { combineFolds, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
-import type { WorkerReply, WorkerRequest } from './protocol';
+import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { combineFolds, foldsUseGram, imputedPredictors, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
+import type { BlockRequest, WorkerReply, WorkerRequest } from './protocol';
 
 /**
  * A worker thread running worker.ts. From the CLI's bundle (scripts/cli.sh) the bundled worker
@@ -102,7 +102,7 @@ export class FoldWorker {
       if (this.failure) return reject(this.failure);
       const outcomes: Outcome[] = [];
       const onMessage = (reply: WorkerReply) => {
-        if (reply.type === 'ready') return;
+        if (reply.type === 'ready' || reply.type === 'blocks' || reply.type === 'blocks-error') return;
         if (reply.type === 'result') outcomes.push({ fold: reply.fold, result: reply.result });
         else if (reply.type === 'error') outcomes.push({ fold: reply.fold, error: replyError(reply) });
         else {
@@ -141,9 +141,70 @@ export class FoldWorker {
     });
   }
 
+  /** The cross products of the listed fold blocks, computed on the worker (design.x in shared memory). */
+  blockSums(request: Omit<BlockRequest, 'type'>): Promise<{ blocks: CrossProducts[]; ranges: ColumnRange[] }> {
+    const worker = this.worker;
+    return new Promise((resolve, reject) => {
+      if (this.failure) return reject(this.failure);
+      const onMessage = (reply: WorkerReply) => {
+        if (reply.type === 'blocks') {
+          cleanup();
+          resolve({ blocks: reply.blocks, ranges: reply.ranges });
+        } else if (reply.type === 'blocks-error') {
+          cleanup();
+          reject(replyError(reply));
+        }
+      };
+      const onError = (error: Error) => {
+        cleanup();
+        reject(error);
+      };
+      const cleanup = () => {
+        worker.off('message', onMessage);
+        worker.off('error', onError);
+      };
+      worker.on('message', onMessage);
+      worker.on('error', onError);
+      worker.postMessage({ type: 'blocks', ...request } satisfies WorkerRequest);
+    });
+  }
+
   async stop(): Promise<void> {
     await this.worker.terminate();
   }
+}
+
+/**
+ * attachFolds (prepareFit's fold planning) with the fold blocks' cross products shared between this
+ * thread and `worker` (even folds here, odd ones there; the worker is otherwise idle until the
+ * folds). The same numbers as prepareFit: each block's sums do not depend on the thread or on the
+ * blocks computed with it (someBlockSums), and joinBlocks sums them in fold order. `prepared` comes
+ * from prepareFit(table, spec, false); `assignment` is foldAssignment's for the spec.
+ */
+export async function attachFoldsBeside(
+  table: EngineTable,
+  spec: FitSpec,
+  prepared: PreparedFit,
+  worker: FoldWorker,
+  assignment: { foldIds: Int32Array; folds: number },
+): Promise<void> {
+  const { built, options } = prepared;
+  const { foldIds, folds } = assignment;
+  if (!spec.cv || !foldsUseGram(imputedPredictors(table, built), built, options, foldIds, folds)) {
+    attachFolds(table, spec, prepared, { foldIds, folds });
+    return;
+  }
+  built.design.x = shared(built.design.x);
+  const mineWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 0);
+  const theirWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 1);
+  const theirs = worker.blockSums({ design: built.design, y: built.y, foldIds, folds, which: theirWhich });
+  const mine = someBlockSums(built.design, foldIds, folds, built.y, mineWhich);
+  const other = await theirs;
+  const blocks: CrossProducts[] = new Array<CrossProducts>(folds);
+  const ranges: ColumnRange[] = new Array<ColumnRange>(folds);
+  mineWhich.forEach((k, t) => ((blocks[k] = mine.blocks[t]), (ranges[k] = mine.ranges[t])));
+  theirWhich.forEach((k, t) => ((blocks[k] = other.blocks[t]), (ranges[k] = other.ranges[t])));
+  attachFolds(table, spec, prepared, { foldIds, folds, blocks: joinBlocks(built.design, built.y, blocks, ranges) });
 }
 
 /** Starts a fold worker now (e.g. before reading the data, so its start-up overlaps the reading). */

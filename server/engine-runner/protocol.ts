@@ -1,5 +1,5 @@
 /** Messages between the runner (parallel.ts) and its worker threads (worker.ts). */
-import type { DesignMatrix, PathOptions } from '../engine/index';
+import type { ColumnRange, CrossProducts, DesignMatrix, PathOptions } from '../engine/index';
 import type { FoldLosses, FoldShared } from '../engine/cv';
 
 /**
@@ -22,7 +22,17 @@ export interface WorkerPlan {
   folds: number;
 }
 
-export type WorkerRequest = { type: 'plan' } & WorkerPlan;
+/** Cross products of some fold blocks (someBlockSums), while this thread computes the others. */
+export interface BlockRequest {
+  type: 'blocks';
+  design: DesignMatrix;
+  y: Float64Array;
+  foldIds: Int32Array;
+  folds: number;
+  which: number[];
+}
+
+export type WorkerRequest = ({ type: 'plan' } & WorkerPlan) | BlockRequest;
 
 export type WorkerReply =
   | { type: 'result'; fold: number; result: FoldLosses }
@@ -30,4 +40,6 @@ export type WorkerReply =
   /** The worker found no fold left to claim. */
   | { type: 'done' }
   /** The worker has loaded and waits for a plan. */
-  | { type: 'ready' };
+  | { type: 'ready' }
+  | { type: 'blocks'; blocks: CrossProducts[]; ranges: ColumnRange[] }
+  | { type: 'blocks-error'; error: { name: string; message: string; field?: string } };

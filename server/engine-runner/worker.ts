@@ -4,12 +4,24 @@
  */
 import { parentPort } from 'node:worker_threads';
 import { runFoldOnDesign, type FoldScratch } from '../engine/cv';
+import { someBlockSums } from '../engine/index';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 // Loaded: FoldWorker.ready resolves.
 parentPort?.postMessage({ type: 'ready' } satisfies WorkerReply);
 
-parentPort?.on('message', (plan: WorkerRequest) => {
+parentPort?.on('message', (request: WorkerRequest) => {
+  if (request.type === 'blocks') {
+    try {
+      const { blocks, ranges } = someBlockSums(request.design, request.foldIds, request.folds, request.y, request.which);
+      parentPort?.postMessage({ type: 'blocks', blocks, ranges } satisfies WorkerReply);
+    } catch (error) {
+      const e = error as Error & { field?: string };
+      parentPort?.postMessage({ type: 'blocks-error', error: { name: e.name, message: e.message, field: e.field } } satisfies WorkerReply);
+    }
+    return;
+  }
+  const plan = request;
   const { design, y, options, foldIds, lambda, shared, next, folds } = plan;
   const scratch: FoldScratch = {};
   for (;;) {

@@ -309,16 +309,34 @@ export interface BlockCrossProducts {
  * overrideMoments), so the full path's grid does not depend on whether folds were planned.
  */
 export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, blockCount: number, y?: Float64Array): BlockCrossProducts {
+  const every = Array.from({ length: blockCount }, (_, k) => k);
+  const { blocks, ranges } = someBlockSums(design, blockOf, blockCount, y, every);
+  return joinBlocks(design, y, blocks, ranges);
+}
+
+/**
+ * The cross products and column ranges of the blocks listed in `which` (in that order), exactly as
+ * blockCrossProducts computes them: threads can each take some blocks, and joinBlocks finishes.
+ */
+export function someBlockSums(
+  design: DesignMatrix,
+  blockOf: Int32Array,
+  blockCount: number,
+  y: Float64Array | undefined,
+  which: number[],
+): { blocks: CrossProducts[]; ranges: ColumnRange[] } {
   const { n, p } = design;
   if (blockOf.length !== n) throw new EngineInputError(`cross products: ${blockOf.length} block ids for ${n} rows`, 'crossProducts');
   const { center, yCenter } = rowMeans(design, null, y);
   const members: number[][] = Array.from({ length: blockCount }, () => []);
   for (let i = 0; i < n; i++) members[blockOf[i]].push(i);
+  // The chunk size follows the largest block of all (not of `which`), so a block's sums are the same
+  // whichever blocks are computed with it.
   const largest = members.reduce((m, rows) => Math.max(m, rows.length), 0);
   const q = y ? p + 1 : p;
   const buffer = chunkBuffer(largest, q);
   const chunk = Math.max(1, Math.floor(buffer.length / q));
-  const running = members.map((rows) => startSums(Int32Array.from(rows), rows.length, p, q, true));
+  const running = which.map((k) => startSums(Int32Array.from(members[k]), members[k].length, p, q, true));
   // Round r takes chunk r of every block: with folds spread over the rows, those chunks come from the
   // same stretch of rows, which stays in cache from one block to the next. Each block still adds its
   // chunks in order, so the sums are those of sumRows on the block alone.
@@ -327,8 +345,14 @@ export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, bl
       if (start < block.count) addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer);
     }
   }
-  const ranges = running.map((block) => block.range as ColumnRange);
-  const blocks = running.map((block) => finishSums(block, p, center, y, yCenter));
+  return { blocks: running.map((block) => finishSums(block, p, center, y, yCenter)), ranges: running.map((block) => block.range as ColumnRange) };
+}
+
+/** Every block's sums (in block order) joined: S(all) as their sum, with overrideMoments. */
+export function joinBlocks(design: DesignMatrix, y: Float64Array | undefined, blocks: CrossProducts[], ranges: ColumnRange[]): BlockCrossProducts {
+  const { n, p } = design;
+  const center = blocks.length > 0 ? blocks[0].center : rowMeans(design, null, y).center;
+  const yCenter = blocks[0]?.response?.center ?? 0;
   const sums = new Float64Array(p * p);
   const colSums = new Float64Array(p);
   const cross = new Float64Array(p);

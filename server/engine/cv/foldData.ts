@@ -5,7 +5,7 @@
  * its training rows only. Imports the modules it needs directly (not ../index): path/fitPath.ts plans
  * the folds before the full path, so the full path's S(all) is the same sum of blocks.
  */
-import { blockCrossProducts, constantOutside, subtractCrossProducts, type ColumnRange } from '../core/crossProducts';
+import { blockCrossProducts, constantOutside, subtractCrossProducts, type BlockCrossProducts, type ColumnRange } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
 import type { BuiltDesign } from '../design/build';
 import { FULL_GRAM_COLUMNS, usesGram } from '../path/setup';
@@ -39,12 +39,6 @@ export interface FoldPlan {
   shared: FoldShared;
 }
 
-/** Fold ids for the spec's CvSpec, and the shared data (cross products of every fold's rows). */
-export function planFolds(table: EngineTable, spec: FitSpec & { cv: CvSpec }, built: BuiltDesign, options: PathOptions): FoldPlan {
-  const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds) };
-}
-
 /** The imputed cells of a built design, found from the table's missing values. */
 export function imputedPredictors(table: EngineTable, built: BuiltDesign): ImputedPredictor[] {
   const out: ImputedPredictor[] = [];
@@ -65,25 +59,46 @@ export function imputedPredictors(table: EngineTable, built: BuiltDesign): Imput
 }
 
 /**
- * Cross products of every fold's rows and of all rows (their sum) when every fold's training rows
- * will use the Gram form with the full G (the same rule as prepareProblem, on the smallest training
- * set). With imputation each fold's design differs from the full one, so there are none.
+ * Fold ids and the shared data (cross products of every fold's rows). `given`: the fold ids, and
+ * the blocks when the caller computed them already (the runner spreads them over threads with
+ * someBlockSums / joinBlocks: the same numbers).
  */
+export function planFolds(
+  table: EngineTable,
+  spec: FitSpec & { cv: CvSpec },
+  built: BuiltDesign,
+  options: PathOptions,
+  given?: { foldIds: Int32Array; folds: number; blocks?: BlockCrossProducts },
+): FoldPlan {
+  const { foldIds, folds } = given ?? foldAssignment(table, spec, spec.cv, built);
+  return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds, given?.blocks) };
+}
+
+/**
+ * Whether every fold's training rows will use the Gram form with the full G (the same rule as
+ * prepareProblem, on the smallest training set), so the folds share cross products. Not with
+ * imputation: each fold's design then differs from the full one.
+ */
+export function foldsUseGram(imputed: ImputedPredictor[], built: BuiltDesign, options: PathOptions, foldIds: Int32Array, folds: number): boolean {
+  const { n, p } = built.design;
+  let largestFold = 0;
+  const counts = new Int32Array(folds);
+  for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
+  return imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
+}
+
+/** Cross products of every fold's rows and of all rows (their sum) when foldsUseGram. */
 export function foldShared(
   table: EngineTable,
   built: BuiltDesign,
   options: PathOptions,
   foldIds: Int32Array,
   folds: number,
+  given?: BlockCrossProducts,
 ): FoldShared {
   const imputed = imputedPredictors(table, built);
-  const { n, p } = built.design;
-  let largestFold = 0;
-  const counts = new Int32Array(folds);
-  for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
-  const gram = imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
-  if (!gram) return { imputed };
-  const { blocks, all, ranges } = blockCrossProducts(built.design, foldIds, folds, built.y);
+  if (!foldsUseGram(imputed, built, options, foldIds, folds)) return { imputed };
+  const { blocks, all, ranges } = given ?? blockCrossProducts(built.design, foldIds, folds, built.y);
   return { imputed, crossProducts: all, blocks, ranges };
 }
 

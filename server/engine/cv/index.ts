@@ -8,5 +8,5 @@ export { foldAssignment } from './assign';
 export { assignFolds, foldIdsFromColumn } from './folds';
 export { chooseLambdas, summarizeFolds } from './choose';
 export * from './metrics';
-export { foldShared, imputeFromTraining, planFolds } from './foldData';
+export { foldShared, foldsUseGram, imputedPredictors, imputeFromTraining, planFolds } from './foldData';
 export type { FoldPlan, FoldShared, ImputedPredictor } from './foldData';

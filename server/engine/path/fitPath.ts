@@ -183,15 +183,23 @@ export interface PreparedFit {
  * cross products. Every route that fits a path with CV (CLI, in-process, studio path job) comes
  * through here, so the full path's numbers do not depend on the route.
  */
-export function prepareFit(table: EngineTable, spec: FitSpec): PreparedFit {
+export function prepareFit(table: EngineTable, spec: FitSpec, withFolds = true): PreparedFit {
   validateSpec(table, spec);
   const prepared = encodeForFit(table, spec);
-  const cv = spec.cv;
-  if (cv) {
-    prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options);
-    prepared.crossProducts = prepared.folds.shared.crossProducts;
-  }
+  if (withFolds) attachFolds(table, spec, prepared);
   return prepared;
+}
+
+/**
+ * prepareFit's fold planning, for a caller that prepared with `withFolds` false to compute the
+ * blocks its own way (the runner, over threads: the same numbers): with the spec's CV, the fold
+ * plan, and S(all) from its blocks as the full path's cross products.
+ */
+export function attachFolds(table: EngineTable, spec: FitSpec, prepared: PreparedFit, given?: Parameters<typeof planFolds>[4]): void {
+  const cv = spec.cv;
+  if (!cv) return;
+  prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options, given);
+  prepared.crossProducts = prepared.folds.shared.crossProducts;
 }
 
 /**

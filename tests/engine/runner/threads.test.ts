@@ -5,8 +5,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { crossValidate } from '../../../server/engine/cv';
-import { coreToSpare, cpuSnapshot, fitPathAndFolds, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
+import { attachFoldsBeside, coreToSpare, cpuSnapshot, fitPathAndFolds, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
 import { fitPath, fitPathPrepared, plannedGrid, prepareFit } from '../../../server/engine/index';
+import { foldAssignment } from '../../../server/engine/cv';
 import { createRng } from '../../../server/engine/random';
 import { parseCsvText } from '../../../server/tabular/csv';
 import type { EngineTable, FitSpec, PathResult } from '../../../server/engine/types';
@@ -60,6 +61,27 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
       }
     }, 30_000);
   }
+
+  it('fold blocks split between this thread and the worker (attachFoldsBeside) equal prepareFit\'s, and the fit on them equals fitPath', async () => {
+    const t = table(120, 6, 6);
+    const s = { ...base(['x1', 'x2', 'x3', 'x4', 'x5', 'x6']), cv: { folds: 5, seed: 9 } };
+    const expected = prepareFit(t, s);
+    expect(expected.folds?.shared.blocks, 'the case must be in the Gram form').toBeDefined();
+    const prepared = prepareFit(t, s, false);
+    const worker = startFoldWorker();
+    try {
+      await attachFoldsBeside(t, s, prepared, worker, foldAssignment(t, s, s.cv, prepared.built));
+      const plain = (v: unknown): unknown => JSON.parse(JSON.stringify(v, (_k, x: unknown) => (x instanceof Float64Array ? Array.from(x) : x)));
+      expect(plain(prepared.folds)).toEqual(plain(expected.folds));
+      expect(plain(prepared.crossProducts)).toEqual(plain(expected.crossProducts));
+      const both = await fitPathAndFolds(s, prepared, worker);
+      const path = fitPath(t, s);
+      expect(both.path.coefficients).toEqual(path.coefficients);
+      expect(both.cv).toEqual(crossValidate(t, s, path));
+    } finally {
+      await worker.stop();
+    }
+  }, 30_000);
 
   it('plannedGrid is the grid the path then fits, and null when maxTerms may end it early', () => {
     const t = table(80, 6, 5);
