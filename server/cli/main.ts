@@ -24,7 +24,8 @@ const EARLY_WORKER_BYTES = 1 << 20;
 /**
  * --workers auto: a worker thread is started before the data are read (when the file is large
  * enough to be worth it), so its start-up overlaps the reading; after the design is built, it is
- * used when the work is large enough (threadsPay) and a core was free meanwhile (coreToSpare).
+ * used when the work is large enough (threadsPay) and other processes left a core free meanwhile
+ * (coreToSpare).
  * With it, the fold blocks' cross products are split between it and this thread
  * (attachFoldsBeside), then the folds run on it and on this thread (this thread first fits the full
  * path, and the worker starts on the folds at once when the grid is known beforehand:

@@ -380,38 +380,47 @@ export async function crossValidateInWorkersPrepared(spec: FitSpec, path: PathRe
   }
 }
 
-/** Cumulative busy and idle milliseconds over all cores (node:os cpus(); the kernel counts in ~10 ms ticks). */
+/**
+ * Cumulative CPU milliseconds: all cores' busy and idle time (node:os cpus(); the kernel counts in
+ * ~10 ms ticks), and this process's own (every thread of it: process.cpuUsage()).
+ */
 export interface CpuSnapshot {
   idle: number;
   total: number;
+  process: number;
+  cores: number;
   at: number;
 }
 
 export function cpuSnapshot(): CpuSnapshot {
   let idle = 0;
   let total = 0;
-  for (const { times } of cpus()) {
+  const all = cpus();
+  for (const { times } of all) {
     idle += times.idle;
     total += times.user + times.nice + times.sys + times.idle + times.irq;
   }
-  return { idle, total, at: performance.now() };
+  const own = process.cpuUsage();
+  return { idle, total, process: (own.user + own.system) / 1000, cores: all.length, at: performance.now() };
 }
 
 /**
- * A second thread pays only if a core is free for it. Since `since` (the CLI takes it before reading
- * the data, while its early worker starts up), at least this share of one core's time must have been
- * idle. On a quiet 2-core machine the other core idles through most of the reading (about 0.7 of a
- * core on the tall case); with other processes on every core (load 5-7 during this work) it is near
- * 0, and the worker then only adds its start-up and compile time (about 0.4 s CPU on the tall case)
- * to a core that has none to spare: measured slower than one thread there.
+ * A second thread pays only if a core is free for it: its start-up, compiling and collecting cost
+ * about 0.4 s CPU on the tall case, a loss on a core that has none to spare. Since `since` (the CLI
+ * takes it before reading the data), other processes must have left this process at least one core
+ * plus this share of another: on a quiet 2-core machine they leave nearly 2; with other processes
+ * on every core (load 5-7 while this was written) well under 1.5, and `auto` with a worker was
+ * measured slower than one thread there. This process's own use (the reading, the early worker's
+ * start-up) is not counted against the spare core.
  */
-export const MIN_IDLE_CORE_SHARE = 0.25;
+export const MIN_SPARE_CORE_SHARE = 0.5;
 
-/** Whether, since `since`, the machine had at least MIN_IDLE_CORE_SHARE of a core idle. */
+/** Whether, since `since`, other processes left at least 1 + MIN_SPARE_CORE_SHARE cores to this one. */
 export function coreToSpare(since: CpuSnapshot, now: CpuSnapshot = cpuSnapshot()): boolean {
   const elapsedMs = now.at - since.at;
-  const idleMs = now.idle - since.idle;
-  // Too short a window to measure (ticks of ~10 ms): assume a core is free.
-  if (now.total - since.total < 100) return true;
-  return idleMs >= MIN_IDLE_CORE_SHARE * elapsedMs;
+  const busyMs = now.total - now.idle - (since.total - since.idle);
+  // Too short a window to measure (ticks of ~10 ms): assume a core is free if there are two.
+  if (now.total - since.total < 100) return now.cores >= 2;
+  const othersMs = Math.max(0, busyMs - (now.process - since.process));
+  return now.cores * elapsedMs - othersMs >= (1 + MIN_SPARE_CORE_SHARE) * elapsedMs;
 }

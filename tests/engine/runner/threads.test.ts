@@ -123,19 +123,25 @@ describe('threadsPay', () => {
 });
 
 describe('coreToSpare', () => {
-  // 2 cores over a 400 ms window: 800 ms of core time in all.
-  const since = { idle: 1000, total: 5000, at: 0 };
-  it('needs a quarter of one core idle over the window', () => {
-    expect(coreToSpare(since, { idle: 1000 + 100, total: 5800, at: 400 })).toBe(true);
-    expect(coreToSpare(since, { idle: 1000 + 90, total: 5800, at: 400 })).toBe(false);
-    expect(coreToSpare(since, { idle: 1000, total: 5800, at: 400 })).toBe(false);
+  // 2 cores over a 400 ms window: 800 ms of core time in all; this process used 300 ms of it.
+  const since = { idle: 1000, total: 5000, process: 50, cores: 2, at: 0 };
+  const after = (idle: number, process = 350) => ({ idle, total: 5800, process, cores: 2, at: 400 });
+  it('needs one core and half another left by other processes', () => {
+    // Busy 800 - idle; others = busy - 300. Free for this process = 800 - others >= 600.
+    expect(coreToSpare(since, after(1000 + 300))).toBe(true); // others 200
+    expect(coreToSpare(since, after(1000 + 290))).toBe(false); // others 210
+    expect(coreToSpare(since, after(1000))).toBe(false); // others 500
+    // This process's own use (e.g. its worker starting) does not count against the spare core.
+    expect(coreToSpare(since, after(1000 + 100, 550))).toBe(true); // busy 700, others 200
   });
-  it('assumes a free core when the window is too short to measure', () => {
-    expect(coreToSpare(since, { idle: 1000, total: 5050, at: 25 })).toBe(true);
+  it('needs two cores; a window too short to measure assumes they are free', () => {
+    expect(coreToSpare(since, { idle: 1000, total: 5050, process: 60, cores: 2, at: 25 })).toBe(true);
+    expect(coreToSpare({ ...since, cores: 1 }, { idle: 1000, total: 5050, process: 60, cores: 1, at: 25 })).toBe(false);
   });
   it('reads this machine\'s counters', () => {
     const a = cpuSnapshot();
     expect(a.total).toBeGreaterThan(0);
     expect(a.idle).toBeLessThanOrEqual(a.total);
+    expect(a.cores).toBeGreaterThan(0);
   });
 });
