@@ -1,5 +1,5 @@
 /**
- * Cross-validation folds on worker threads (docs/decisions/0023-speed-tall-cv-threads.md). Every
+ * Cross-validation folds on worker threads (docs/decisions/0023-speed-tall-cv-folds-and-threads.md). Every
  * thread runs the same pure fold function on the same numbers, so results do not depend on which
  * thread ran which fold; combineFolds sums them in fold order.
  *
@@ -8,8 +8,10 @@
  * - Threads claim folds from one shared counter (Atomics.add): no thread waits for a message to get
  *   work, and the main thread can run folds synchronously alongside the workers.
  * - A worker can be started before the data are read (startFoldWorker), so its start-up (loading
- *   and compiling the bundle, ~0.1 s) overlaps the reading; and when the grid is known before the
- *   full path is solved (plannedGrid), the worker runs folds while the main thread fits that path.
+ *   and compiling the bundle, ~0.1 s) overlaps the reading; it then computes half of the folds'
+ *   cross-product blocks (attachFoldsBeside), and when the grid is known before the full path is
+ *   solved (plannedGrid), it runs folds while the main thread fits that path (fitPathAndFolds).
+ * - The CLI's `auto` uses it only when the work is large (threadsPay) and a core is free (coreToSpare).
  */
 
 import { existsSync } from 'node:fs';
