@@ -199,7 +199,7 @@ export async function attachFoldsBeside(
   built.design.x = shared(built.design.x);
   const mineWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 0);
   const theirWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 1);
-  const theirs = worker.blockSums({ design: built.design, y: built.y, foldIds, folds, which: theirWhich });
+  const theirs = pending(worker.blockSums({ design: built.design, y: built.y, foldIds, folds, which: theirWhich }));
   const mine = someBlockSums(built.design, foldIds, folds, built.y, mineWhich);
   const other = await theirs;
   const blocks: CrossProducts[] = new Array<CrossProducts>(folds);
@@ -216,6 +216,16 @@ export function startFoldWorker(): FoldWorker {
 
 function newCounter(): Int32Array {
   return new Int32Array(new SharedArrayBuffer(4));
+}
+
+/**
+ * A worker's pending run, marked as handled: if this thread fails first (e.g. the full path rejects
+ * its input) the caller stops the worker, whose run then rejects with nobody awaiting it; that must
+ * not become an unhandled rejection ending the process with a second, misleading error.
+ */
+function pending<T>(promise: Promise<T>): Promise<T> {
+  promise.catch(() => {});
+  return promise;
 }
 
 /** Claims and runs folds on this thread until none is left. */
@@ -252,7 +262,7 @@ function collect(plan: CvPlan, outcomes: Outcome[]): FoldLosses[] {
 export async function runFoldsShared(plan: CvPlan, workers: FoldWorker[], here: boolean): Promise<FoldLosses[]> {
   sharePlan(plan);
   const next = newCounter();
-  const running = workers.map((w) => w.run(plan, next));
+  const running = workers.map((w) => pending(w.run(plan, next)));
   const mine = here ? runClaimed(plan, next) : [];
   const theirs = await Promise.all(running);
   return collect(plan, [...mine, ...theirs.flat()]);
@@ -302,7 +312,7 @@ export async function crossValidateAdaptive(
     sharePlan(plan);
     const next = newCounter();
     Atomics.store(next, 0, 1);
-    const running = worker.run(plan, next);
+    const running = pending(worker.run(plan, next));
     const mine = runClaimed(plan, next);
     const outcomes = [{ fold: 0, result: first }, ...mine, ...(await running)];
     return { result: combineFolds(spec.family, plan.lambda, collect(plan, outcomes), plan.foldIds), workers: 2 };
@@ -348,7 +358,7 @@ export async function fitPathAndFolds(
     const plan = planFromPrepared(spec, path, prepared);
     sharePlan(plan);
     const next = newCounter();
-    const running = worker.run(plan, next);
+    const running = pending(worker.run(plan, next));
     const mine = here ? runClaimed(plan, next) : [];
     const theirs = await running;
     return { path, cv: combineFolds(spec.family, plan.lambda, collect(plan, [...mine, ...theirs]), plan.foldIds), pathDone, foldsOnWorker: theirs.length };
@@ -356,7 +366,7 @@ export async function fitPathAndFolds(
   const plan = planFromPrepared(spec, { lambda: grid } as PathResult, prepared);
   sharePlan(plan);
   const next = newCounter();
-  const running = worker.run(plan, next);
+  const running = pending(worker.run(plan, next));
   const path = fitPathPrepared(prepared);
   const pathDone = performance.now();
   if (path.lambda.length !== grid.length || path.lambda.some((l, k) => l !== grid[k])) {
