@@ -66,7 +66,10 @@ Cross-validation
   --seed S                 seed of the random folds (class-balanced for binomial), default ${DEFAULTS.seed}, so
                            that a rerun gives the same folds
   --workers auto|on|off    on: folds in 2 worker threads; off: all in this thread; auto (default):
-                           workers only when the folds would take over 0.3 s in one thread
+                           this thread and one worker share the folds (the worker starts on them
+                           while the full path is fitted) when the work is large enough to pay
+                           (folds x lambdas x p x min(n, p) >= 1e7) and other processes left at
+                           least 1.5 cores free while the data were read; else all in this thread
 
 Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap
 (relative, per lambda), iterations, status, cv (null or {folds, metric, mean, standardError,

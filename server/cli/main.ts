@@ -3,12 +3,12 @@
  * cross-validation by default, and prints one JSON object on stdout. Errors: one message on stderr
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
-import { readFileSync } from 'node:fs';
-import { crossValidate } from '../engine/cv';
-import { crossValidateAdaptive, crossValidateInWorkers } from '../engine-runner';
+import { readFileSync, statSync } from 'node:fs';
+import { crossValidatePrepared, foldAssignment } from '../engine/cv';
+import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
-import { EngineInputError, fitPathPrepared, prepareFit, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { parseFitOptions, UsageError, type FitOptions } from './args';
+import { attachFolds, DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type PathResult } from '../engine/index';
+import { parseFitOptions, UsageError } from './args';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
 import { buildFitSpec } from './spec';
@@ -18,43 +18,70 @@ function engineVersion(): string {
   return pkg.version;
 }
 
-/**
- * --workers auto: time the first fold here and share the rest between this thread and a worker
- * only when they would take long enough in this thread to pay for the worker's start-up
- * (crossValidateAdaptive; bench/engine.bench.ts).
- */
-async function crossValidation(
-  options: FitOptions,
-  table: EngineTable,
-  spec: FitSpec,
-  path: PathResult,
-  prepared: PreparedFit,
-): Promise<{ cv: CvResult | null; workers: number }> {
-  if (!spec.cv) return { cv: null, workers: 0 };
-  if (options.workers === 'off') return { cv: crossValidate(table, spec, path, prepared), workers: 0 };
-  if (options.workers === 'on') return { cv: await crossValidateInWorkers(table, spec, path, 2, prepared), workers: 2 };
-  const { result, workers } = await crossValidateAdaptive(table, spec, path, prepared);
-  return { cv: result, workers };
-}
+/** A file this small reads and cross-validates too quickly for a worker thread to pay (THREAD_WORK_THRESHOLD decides after reading). */
+const EARLY_WORKER_BYTES = 1 << 20;
 
+/**
+ * --workers auto: a worker thread is started before the data are read (when the file is large
+ * enough to be worth it), so its start-up overlaps the reading; after the design is built, it is
+ * used when the work is large enough (threadsPay) and other processes left a core free meanwhile
+ * (coreToSpare).
+ * With it, the fold blocks' cross products are split between it and this thread
+ * (attachFoldsBeside), then the folds run on it and on this thread (this thread first fits the full
+ * path, and the worker starts on the folds at once when the grid is known beforehand:
+ * fitPathAndFolds). Results are the single-thread ones whichever thread computes what.
+ * --workers on: every fold on 2 worker threads; off: everything in this thread.
+ */
 export async function runFit(argv: string[]): Promise<string> {
   const options = parseFitOptions(argv);
   const started = performance.now();
-  const table = readCsvFile(options.data);
-  const read = performance.now();
-  const spec = buildFitSpec(options, table);
-  // One code path with fitPath; the prepared design is kept for cross-validation.
-  const prepared = prepareFit(table, spec);
-  const path = fitPathPrepared(prepared);
-  const fitted = performance.now();
-  const { cv, workers } = await crossValidation(options, table, spec, path, prepared);
-  const timing = {
-    readSeconds: (read - started) / 1000,
-    fitSeconds: (fitted - read) / 1000,
-    cvSeconds: (performance.now() - fitted) / 1000,
-    cvWorkers: workers,
-  };
-  return toJson({ ...fitOutput(path, cv, engineVersion()), timing });
+  let early: FoldWorker | null = null;
+  const cpuAtStart = cpuSnapshot();
+  if (options.workers === 'auto' && (statSync(options.data, { throwIfNoEntry: false })?.size ?? 0) >= EARLY_WORKER_BYTES) early = startFoldWorker();
+  try {
+    // The table is needed until the folds are planned; kept in this block only, so its columns can
+    // be collected while the path and the folds run.
+    const { spec, prepared, read, threads } = await (async () => {
+      const table = readCsvFile(options.data);
+      const readAt = performance.now();
+      const fitSpec = buildFitSpec(options, table);
+      // One code path with fitPath: prepareFit, its fold plan (attachFolds), fitPathPrepared.
+      const fitPrepared = prepareFit(table, fitSpec, false);
+      const cv = fitSpec.cv;
+      const assignment = cv ? foldAssignment(table, fitSpec, cv, fitPrepared.built) : null;
+      const lambdaCount = fitPrepared.options.lambda?.length ?? fitPrepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
+      const useWorker = early !== null && assignment !== null && threadsPay(fitPrepared, assignment.folds, lambdaCount) && coreToSpare(cpuAtStart);
+      if (early && assignment && useWorker) await attachFoldsBeside(table, fitSpec, fitPrepared, early, assignment);
+      else attachFolds(table, fitSpec, fitPrepared, assignment ?? undefined);
+      return { spec: fitSpec, prepared: fitPrepared, read: readAt, threads: useWorker };
+    })();
+    let path: PathResult;
+    let cv: CvResult | null = null;
+    let workers = 0;
+    let fitted: number;
+    if (early && threads) {
+      ({ path, cv, pathDone: fitted } = await fitPathAndFolds(spec, prepared, early));
+      workers = 2;
+    } else {
+      await early?.stop();
+      early = null;
+      path = fitPathPrepared(prepared);
+      fitted = performance.now();
+      if (spec.cv && options.workers === 'on') {
+        cv = await crossValidateInWorkersPrepared(spec, path, prepared);
+        workers = 2;
+      } else if (spec.cv) cv = crossValidatePrepared(spec, path, prepared);
+    }
+    const timing = {
+      readSeconds: (read - started) / 1000,
+      fitSeconds: (fitted - read) / 1000,
+      cvSeconds: (performance.now() - fitted) / 1000,
+      cvWorkers: workers,
+    };
+    return toJson({ ...fitOutput(path, cv, engineVersion()), timing });
+  } finally {
+    await early?.stop();
+  }
 }
 
 async function main(argv: string[]): Promise<number> {

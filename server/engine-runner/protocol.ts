@@ -1,8 +1,11 @@
-/** Messages between crossValidateInWorkers and its worker threads. */
-import type { DesignMatrix, PathOptions } from '../engine/index';
+/** Messages between the runner (parallel.ts) and its worker threads (worker.ts). */
+import type { ColumnRange, CrossProducts, DesignMatrix, PathOptions } from '../engine/index';
 import type { FoldLosses, FoldShared } from '../engine/cv';
 
-/** What a worker receives once and keeps for every fold it runs. */
+/**
+ * What a worker receives once per cross-validation. The large arrays (design.x, the cross products'
+ * sums) live in SharedArrayBuffers: posting them shares the memory instead of copying it.
+ */
 export interface WorkerPlan {
   design: DesignMatrix;
   y: Float64Array;
@@ -10,10 +13,33 @@ export interface WorkerPlan {
   foldIds: Int32Array;
   lambda: number[];
   shared: FoldShared;
+  /**
+   * One Int32 in a SharedArrayBuffer: the next fold to run. Every thread (workers and, when it
+   * joins, the main thread) claims folds with Atomics.add, so no thread waits for a message to get
+   * work and each fold runs exactly once.
+   */
+  next: Int32Array;
+  folds: number;
 }
 
-export type WorkerRequest = ({ type: 'init' } & WorkerPlan) | { type: 'fold'; fold: number };
+/** Cross products of some fold blocks (someBlockSums), while this thread computes the others. */
+export interface BlockRequest {
+  type: 'blocks';
+  design: DesignMatrix;
+  y: Float64Array;
+  foldIds: Int32Array;
+  folds: number;
+  which: number[];
+}
+
+export type WorkerRequest = ({ type: 'plan' } & WorkerPlan) | BlockRequest;
 
 export type WorkerReply =
-  | { fold: number; result: FoldLosses }
-  | { fold: number; error: { name: string; message: string; field?: string } };
+  | { type: 'result'; fold: number; result: FoldLosses }
+  | { type: 'error'; fold: number; error: { name: string; message: string; field?: string } }
+  /** The worker found no fold left to claim. */
+  | { type: 'done' }
+  /** The worker has loaded and waits for a plan. */
+  | { type: 'ready' }
+  | { type: 'blocks'; blocks: CrossProducts[]; ranges: ColumnRange[] }
+  | { type: 'blocks-error'; error: { name: string; message: string; field?: string } };

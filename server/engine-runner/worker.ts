@@ -1,27 +1,42 @@
 /**
- * Worker-thread side of crossValidateInWorkers: receives the shared plan once, then fold indices,
- * and answers each with the fold's losses (or its error).
+ * Worker-thread side of the runner (parallel.ts): receives a plan, then claims folds from the shared
+ * counter until none is left, posting each fold's losses (or its error), then 'done'.
  */
 import { parentPort } from 'node:worker_threads';
-import { runFoldOnDesign } from '../engine/cv';
-import type { WorkerPlan, WorkerReply, WorkerRequest } from './protocol';
+import { runFoldOnDesign, type FoldScratch } from '../engine/cv';
+import { someBlockSums } from '../engine/index';
+import type { WorkerReply, WorkerRequest } from './protocol';
 
-let shared: WorkerPlan | undefined;
+// Loaded: FoldWorker.ready resolves.
+parentPort?.postMessage({ type: 'ready' } satisfies WorkerReply);
 
-parentPort?.on('message', (message: WorkerRequest) => {
-  if (message.type === 'init') {
-    shared = message;
-    return;
-  }
-  const reply: WorkerReply = (() => {
+parentPort?.on('message', (request: WorkerRequest) => {
+  if (request.type === 'blocks') {
     try {
-      if (!shared) throw new Error('worker received a fold before its data');
-      const { design, y, options, foldIds, lambda } = shared;
-      return { fold: message.fold, result: runFoldOnDesign(design, y, options, foldIds, message.fold, lambda, shared.shared) };
+      const { blocks, ranges } = someBlockSums(request.design, request.foldIds, request.folds, request.y, request.which);
+      parentPort?.postMessage({ type: 'blocks', blocks, ranges } satisfies WorkerReply);
     } catch (error) {
       const e = error as Error & { field?: string };
-      return { fold: message.fold, error: { name: e.name, message: e.message, field: e.field } };
+      parentPort?.postMessage({ type: 'blocks-error', error: { name: e.name, message: e.message, field: e.field } } satisfies WorkerReply);
     }
-  })();
-  parentPort?.postMessage(reply);
+    return;
+  }
+  const plan = request;
+  const { design, y, options, foldIds, lambda, shared, next, folds } = plan;
+  const scratch: FoldScratch = {};
+  for (;;) {
+    const fold = Atomics.add(next, 0, 1);
+    if (fold >= folds) break;
+    let reply: WorkerReply;
+    try {
+      reply = { type: 'result', fold, result: runFoldOnDesign(design, y, options, foldIds, fold, lambda, shared, scratch) };
+    } catch (error) {
+      const e = error as Error & { field?: string };
+      reply = { type: 'error', fold, error: { name: e.name, message: e.message, field: e.field } };
+      // Nothing more to claim: the cross-validation fails.
+      Atomics.store(next, 0, folds);
+    }
+    parentPort?.postMessage(reply);
+  }
+  parentPort?.postMessage({ type: 'done' } satisfies WorkerReply);
 });

@@ -5,10 +5,11 @@
 export { buildDesign, findColumn, selectRows } from './design/build';
 export type { BuiltDesign } from './design/build';
 export { validateSpec } from './design/validate';
-export { encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathPrepared, prepareFit } from './path/fitPath';
+export { attachFolds, encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathOnOwnDesign, fitPathPrepared, plannedGrid, prepareFit } from './path/fitPath';
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
-export { crossProducts, subtractCrossProducts } from './core/crossProducts';
+export { crossProducts, joinBlocks, someBlockSums, subtractCrossProducts } from './core/crossProducts';
+export type { BlockCrossProducts, ColumnRange } from './core/crossProducts';
 export { constantColumns } from './core/standardize';
 export { computeLambdaMax, lambdaGrid } from './path/grid';
 export * from './defaults';

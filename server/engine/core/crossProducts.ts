@@ -1,11 +1,275 @@
 import { EngineInputError, type CrossProducts, type DesignMatrix } from '../types';
-import { GramCache } from './gram';
+import type { GramCache } from './gram';
+
+/**
+ * Rows per chunk of the centred copy the kernel reads: chunk x (p + 1) doubles of about 512 KiB stay
+ * in a core's L2 cache while the kernel passes over them p / 4 times, instead of streaming every
+ * column from memory on each pass (the whole centred design of a tall fit is tens of MB). Also bounds
+ * the copy's memory. A fixed number, so the sums (and every result built on them) never depend on
+ * the machine or on how many threads run.
+ */
+const CHUNK_DOUBLES = 65536;
+
+/** The centre of a set of rows (column means) and the mean response. */
+function rowMeans(design: DesignMatrix, rows: Int32Array | null, y?: Float64Array): { center: Float64Array; yCenter: number } {
+  const { n, p, x } = design;
+  const count = rows ? rows.length : n;
+  const center = new Float64Array(p);
+  for (let j = 0; j < p; j++) {
+    const off = j * n;
+    let s = 0;
+    if (rows) for (let i = 0; i < count; i++) s += x[off + rows[i]];
+    else for (let i = 0; i < count; i++) s += x[off + i];
+    center[j] = count > 0 ? s / count : 0;
+  }
+  let yCenter = 0;
+  if (y) {
+    if (rows) for (let i = 0; i < count; i++) yCenter += y[rows[i]];
+    else for (let i = 0; i < count; i++) yCenter += y[i];
+    yCenter = count > 0 ? yCenter / count : 0;
+  }
+  return { center, yCenter };
+}
+
+/**
+ * Over all rows, one plain left-to-right sum each: the diagonal of S, the column sums, and the
+ * response's sums. These alone set the centres, scales, X'y and so lambda_max and the grid; taking
+ * them from here whether or not the off-diagonal sums come from fold blocks keeps a path's grid
+ * identical with and without cross-validation (the off-diagonal sums differ in rounding only).
+ */
+function overrideMoments(out: CrossProducts, design: DesignMatrix, y: Float64Array | undefined): void {
+  const { n, p, x } = design;
+  const { center, sums } = out;
+  const colSums = out.colSums as Float64Array;
+  const response = out.response;
+  let yc: Float64Array | null = null;
+  if (y && response) {
+    yc = new Float64Array(n);
+    let sum = 0;
+    let squares = 0;
+    for (let i = 0; i < n; i++) {
+      const v = y[i] - response.center;
+      yc[i] = v;
+      sum += v;
+      squares += v * v;
+    }
+    response.sum = sum;
+    response.squares = squares;
+  }
+  for (let j = 0; j < p; j++) {
+    const off = j * n;
+    const c = center[j];
+    let sum = 0;
+    let squares = 0;
+    let cross = 0;
+    for (let i = 0; i < n; i++) {
+      const v = x[off + i] - c;
+      sum += v;
+      squares += v * v;
+      if (yc) cross += v * yc[i];
+    }
+    colSums[j] = sum;
+    sums[j * p + j] = squares;
+    if (response) response.cross[j] = cross;
+  }
+}
+
+/**
+ * acc[j][k] += sum_i b[j][i] b[k][i] over the m rows of the column-major chunk b (q columns), for
+ * k >= the start of j's panel of four (mirrorUpper fills the rest). A 4 x 2 block of dot products per
+ * pass over the rows (register blocking: 8 sums from 6 loads per row); every entry is one
+ * left-to-right sum over the chunk's rows, and x_j x_k = x_k x_j exactly, so the result is symmetric.
+ */
+function accumulateSymmetric(b: Float64Array, m: number, q: number, acc: Float64Array): void {
+  let j0 = 0;
+  for (; j0 + 4 <= q; j0 += 4) {
+    const a0 = j0 * m;
+    const a1 = a0 + m;
+    const a2 = a1 + m;
+    const a3 = a2 + m;
+    const r0 = j0 * q;
+    const r1 = r0 + q;
+    const r2 = r1 + q;
+    const r3 = r2 + q;
+    let k = j0;
+    for (; k + 2 <= q; k += 2) {
+      const b0 = k * m;
+      const b1 = b0 + m;
+      let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
+      for (let i = 0; i < m; i++) {
+        const u = b[b0 + i];
+        const v = b[b1 + i];
+        const x0 = b[a0 + i];
+        const x1 = b[a1 + i];
+        const x2 = b[a2 + i];
+        const x3 = b[a3 + i];
+        s00 += x0 * u;
+        s01 += x0 * v;
+        s10 += x1 * u;
+        s11 += x1 * v;
+        s20 += x2 * u;
+        s21 += x2 * v;
+        s30 += x3 * u;
+        s31 += x3 * v;
+      }
+      acc[r0 + k] += s00;
+      acc[r0 + k + 1] += s01;
+      acc[r1 + k] += s10;
+      acc[r1 + k + 1] += s11;
+      acc[r2 + k] += s20;
+      acc[r2 + k + 1] += s21;
+      acc[r3 + k] += s30;
+      acc[r3 + k + 1] += s31;
+    }
+    for (; k < q; k++) {
+      const b0 = k * m;
+      let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+      for (let i = 0; i < m; i++) {
+        const u = b[b0 + i];
+        s0 += b[a0 + i] * u;
+        s1 += b[a1 + i] * u;
+        s2 += b[a2 + i] * u;
+        s3 += b[a3 + i] * u;
+      }
+      acc[r0 + k] += s0;
+      acc[r1 + k] += s1;
+      acc[r2 + k] += s2;
+      acc[r3 + k] += s3;
+    }
+  }
+  for (let j = j0; j < q; j++) {
+    const a = j * m;
+    for (let k = j0; k < q; k++) {
+      const b0 = k * m;
+      let s = 0;
+      for (let i = 0; i < m; i++) s += b[a + i] * b[b0 + i];
+      acc[j * q + k] += s;
+    }
+  }
+}
+
+/** Fills acc[j][k] for k below j's panel from acc[k][j] (see accumulateSymmetric). */
+function mirrorUpper(acc: Float64Array, q: number): void {
+  for (let j = 0; j < q; j++) {
+    const panelStart = j - (j % 4);
+    for (let k = 0; k < panelStart; k++) acc[j * q + k] = acc[k * q + j];
+  }
+}
+
+/** Per-column minimum and maximum over some rows (cross products cannot tell a constant column exactly). */
+export interface ColumnRange {
+  min: Float64Array;
+  max: Float64Array;
+}
+
+/** Running sums of one set of rows (sumRows, blockCrossProducts). */
+interface RowSums {
+  rows: Int32Array | null;
+  count: number;
+  /** q x q, q = p (+ 1 with the response as its last column): upper part, see accumulateSymmetric. */
+  acc: Float64Array;
+  colSums: Float64Array;
+  ySum: number;
+  ySquares: number;
+  range?: ColumnRange;
+}
+
+function startSums(rows: Int32Array | null, count: number, p: number, q: number, withRange: boolean): RowSums {
+  const range = withRange ? { min: new Float64Array(p).fill(Infinity), max: new Float64Array(p).fill(-Infinity) } : undefined;
+  return { rows, count, acc: new Float64Array(q * q), colSums: new Float64Array(p), ySum: 0, ySquares: 0, range };
+}
+
+/** Adds rows start .. start + m - 1 of `into`'s rows: their centred copy into `buffer`, then the kernel. */
+function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array): void {
+  const { n, p, x } = design;
+  const { rows, colSums, range } = into;
+  for (let j = 0; j < p; j++) {
+    const from = j * n;
+    const to = j * m;
+    const c = center[j];
+    let sum = colSums[j];
+    if (range) {
+      let lo = range.min[j];
+      let hi = range.max[j];
+      for (let t = 0; t < m; t++) {
+        const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
+        if (raw < lo) lo = raw;
+        if (raw > hi) hi = raw;
+        const v = raw - c;
+        buffer[to + t] = v;
+        sum += v;
+      }
+      range.min[j] = lo;
+      range.max[j] = hi;
+    } else if (rows) {
+      for (let t = 0; t < m; t++) {
+        const v = x[from + rows[start + t]] - c;
+        buffer[to + t] = v;
+        sum += v;
+      }
+    } else {
+      for (let t = 0; t < m; t++) {
+        const v = x[from + start + t] - c;
+        buffer[to + t] = v;
+        sum += v;
+      }
+    }
+    colSums[j] = sum;
+  }
+  if (y) {
+    const to = p * m;
+    let ySum = into.ySum;
+    let ySquares = into.ySquares;
+    for (let t = 0; t < m; t++) {
+      const v = y[rows ? rows[start + t] : start + t] - yCenter;
+      buffer[to + t] = v;
+      ySum += v;
+      ySquares += v * v;
+    }
+    into.ySum = ySum;
+    into.ySquares = ySquares;
+  }
+  accumulateSymmetric(buffer, m, y ? p + 1 : p, into.acc);
+}
+
+/** The CrossProducts of finished running sums. */
+function finishSums(into: RowSums, p: number, center: Float64Array, y: Float64Array | undefined, yCenter: number): CrossProducts {
+  const q = y ? p + 1 : p;
+  const { acc } = into;
+  mirrorUpper(acc, q);
+  const sums = new Float64Array(p * p);
+  for (let j = 0; j < p; j++) sums.set(acc.subarray(j * q, j * q + p), j * p);
+  const out: CrossProducts = { rows: into.count, center: Float64Array.from(center), sums, colSums: into.colSums };
+  if (!y) return out;
+  const cross = new Float64Array(p);
+  for (let j = 0; j < p; j++) cross[j] = acc[p * q + j];
+  out.response = { center: yCenter, sum: into.ySum, cross, squares: into.ySquares };
+  return out;
+}
+
+/**
+ * The cross products of `rows` (all rows when null) about `center` (and the response about yCenter),
+ * a chunk of rows at a time (CHUNK_DOUBLES): S = sum over chunks of the chunk's sums.
+ */
+function sumRows(design: DesignMatrix, rows: Int32Array | null, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array): CrossProducts {
+  const { n, p } = design;
+  const count = rows ? rows.length : n;
+  const q = y ? p + 1 : p;
+  const chunk = Math.max(1, Math.floor(buffer.length / q));
+  const into = startSums(rows, count, p, q, false);
+  for (let start = 0; start < count; start += chunk) addChunk(design, into, start, Math.min(chunk, count - start), center, y, yCenter, buffer);
+  return finishSums(into, p, center, y, yCenter);
+}
+
+function chunkBuffer(count: number, q: number): Float64Array {
+  return new Float64Array(Math.max(1, Math.min(count, Math.max(1, Math.floor(CHUNK_DOUBLES / q)))) * q);
+}
 
 /**
  * Cross products S = sum_i (x_i - c)(x_i - c)' over some rows of a design, about a fixed centre c
  * (default: the column means of those rows). Sums over disjoint row sets add, so a cross-validation
- * fold's training rows get theirs as S(all rows) - S(held-out rows) at the cost of the held-out rows
- * only (subtractCrossProducts); fitPathOnDesign turns them into the fold's Gram matrix (see
+ * fold's training rows get theirs as S(all rows) - S(held-out rows) (subtractCrossProducts,
+ * blockCrossProducts); fitPathOnDesign turns them into the fold's Gram matrix (see
  * gramFromCrossProducts). Centring about c first keeps the sums free of the cancellation that raw
  * sums x_i x_i' suffer when means are large against spreads.
  */
@@ -16,59 +280,113 @@ export function crossProducts(
   y?: Float64Array,
   yCenter?: number,
 ): CrossProducts {
-  const { p } = design;
-  const count = rows ? rows.length : design.n;
-  const row = (i: number): number => (rows ? rows[i] : i);
-  const c = center ? Float64Array.from(center) : new Float64Array(p);
-  if (!center) {
-    for (let j = 0; j < p; j++) {
-      let s = 0;
-      for (let i = 0; i < count; i++) s += design.x[j * design.n + row(i)];
-      c[j] = count > 0 ? s / count : 0;
+  const list = rows ? Int32Array.from(rows) : null;
+  const means = center && (!y || yCenter !== undefined) ? null : rowMeans(design, list, y);
+  const c = center ?? (means as { center: Float64Array }).center;
+  const cy = yCenter ?? means?.yCenter ?? 0;
+  const count = list ? list.length : design.n;
+  const out = sumRows(design, list, c, y, cy, chunkBuffer(count, y ? design.p + 1 : design.p));
+  if (!list) overrideMoments(out, design, y);
+  return out;
+}
+
+/** The cross products of each block of rows about one common centre, their sum, and each block's column ranges. */
+export interface BlockCrossProducts {
+  /** blocks[b]: the rows of block b (ascending), about the centre of all rows. */
+  blocks: CrossProducts[];
+  /** The sum of the blocks, in block order: the cross products of all rows. */
+  all: CrossProducts;
+  /** ranges[b]: the columns' minimum and maximum over block b's rows. */
+  ranges: ColumnRange[];
+}
+
+/**
+ * Cross products of the blocks of a partition of the rows (row i in block blockOf[i]), all about the
+ * column means of all rows, and S(all) as their sum: one pass over the rows gives every fold's
+ * held-out S and the full S, and a fold's training S is S(all) - S(its block). About the common
+ * centre the sums subtract without cancellation as long as the centre is near every block's mean.
+ * S(all)'s diagonal, column sums and response sums are those of crossProducts on all rows (see
+ * overrideMoments), so the full path's grid does not depend on whether folds were planned.
+ */
+export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, blockCount: number, y?: Float64Array): BlockCrossProducts {
+  const every = Array.from({ length: blockCount }, (_, k) => k);
+  const { blocks, ranges } = someBlockSums(design, blockOf, blockCount, y, every);
+  return joinBlocks(design, y, blocks, ranges);
+}
+
+/**
+ * The cross products and column ranges of the blocks listed in `which` (in that order), exactly as
+ * blockCrossProducts computes them: threads can each take some blocks, and joinBlocks finishes.
+ */
+export function someBlockSums(
+  design: DesignMatrix,
+  blockOf: Int32Array,
+  blockCount: number,
+  y: Float64Array | undefined,
+  which: number[],
+): { blocks: CrossProducts[]; ranges: ColumnRange[] } {
+  const { n, p } = design;
+  if (blockOf.length !== n) throw new EngineInputError(`cross products: ${blockOf.length} block ids for ${n} rows`, 'crossProducts');
+  const { center, yCenter } = rowMeans(design, null, y);
+  const members: number[][] = Array.from({ length: blockCount }, () => []);
+  for (let i = 0; i < n; i++) members[blockOf[i]].push(i);
+  // The chunk size follows the largest block of all (not of `which`), so a block's sums are the same
+  // whichever blocks are computed with it.
+  const largest = members.reduce((m, rows) => Math.max(m, rows.length), 0);
+  const q = y ? p + 1 : p;
+  const buffer = chunkBuffer(largest, q);
+  const chunk = Math.max(1, Math.floor(buffer.length / q));
+  const running = which.map((k) => startSums(Int32Array.from(members[k]), members[k].length, p, q, true));
+  // Round r takes chunk r of every block: with folds spread over the rows, those chunks come from the
+  // same stretch of rows, which stays in cache from one block to the next. Each block still adds its
+  // chunks in order, so the sums are those of sumRows on the block alone.
+  for (let start = 0; start < largest; start += chunk) {
+    for (const block of running) {
+      if (start < block.count) addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer);
     }
   }
-  const centred = new Float64Array(count * p);
-  const colSums = new Float64Array(p);
-  for (let j = 0; j < p; j++) {
-    let sum = 0;
-    for (let i = 0; i < count; i++) {
-      const v = design.x[j * design.n + row(i)] - c[j];
-      centred[j * count + i] = v;
-      sum += v;
-    }
-    colSums[j] = sum;
-  }
+  return { blocks: running.map((block) => finishSums(block, p, center, y, yCenter)), ranges: running.map((block) => block.range as ColumnRange) };
+}
+
+/** Every block's sums (in block order) joined: S(all) as their sum, with overrideMoments. */
+export function joinBlocks(design: DesignMatrix, y: Float64Array | undefined, blocks: CrossProducts[], ranges: ColumnRange[]): BlockCrossProducts {
+  const { n, p } = design;
+  const center = blocks.length > 0 ? blocks[0].center : rowMeans(design, null, y).center;
+  const yCenter = blocks[0]?.response?.center ?? 0;
   const sums = new Float64Array(p * p);
-  if (count > 0) {
-    const gram = new GramCache(centred, count, p);
-    gram.ensure(Int32Array.from({ length: p }, (_, j) => j));
-    for (let j = 0; j < p; j++) {
-      const col = gram.column(j);
-      for (let k = 0; k < p; k++) sums[j * p + k] = col[k] * count;
-    }
-  }
-  if (!y) return { rows: count, center: c, sums, colSums };
-  let cy = yCenter ?? 0;
-  if (yCenter === undefined) {
-    for (let i = 0; i < count; i++) cy += y[row(i)];
-    cy = count > 0 ? cy / count : 0;
-  }
-  const yc = new Float64Array(count);
+  const colSums = new Float64Array(p);
+  const cross = new Float64Array(p);
   let sum = 0;
   let squares = 0;
-  for (let i = 0; i < count; i++) {
-    yc[i] = y[row(i)] - cy;
-    sum += yc[i];
-    squares += yc[i] * yc[i];
+  for (const block of blocks) {
+    for (let t = 0; t < sums.length; t++) sums[t] += block.sums[t];
+    for (let j = 0; j < p; j++) colSums[j] += (block.colSums as Float64Array)[j];
+    if (block.response) {
+      for (let j = 0; j < p; j++) cross[j] += block.response.cross[j];
+      sum += block.response.sum;
+      squares += block.response.squares;
+    }
   }
-  const cross = new Float64Array(p);
+  const all: CrossProducts = { rows: n, center: Float64Array.from(center), sums, colSums };
+  if (y) all.response = { center: yCenter, sum, cross, squares };
+  overrideMoments(all, design, y);
+  return { blocks, all, ranges };
+}
+
+/** Columns constant over every block but `leftOut` (exactly: one minimum equals one maximum). */
+export function constantOutside(ranges: ColumnRange[], leftOut: number, p: number): Uint8Array {
+  const constant = new Uint8Array(p);
   for (let j = 0; j < p; j++) {
-    let s = 0;
-    const off = j * count;
-    for (let i = 0; i < count; i++) s += centred[off + i] * yc[i];
-    cross[j] = s;
+    let lo = Infinity;
+    let hi = -Infinity;
+    ranges.forEach((r, b) => {
+      if (b === leftOut) return;
+      if (r.min[j] < lo) lo = r.min[j];
+      if (r.max[j] > hi) hi = r.max[j];
+    });
+    constant[j] = lo === hi ? 1 : 0;
   }
-  return { rows: count, center: c, sums, colSums, response: { center: cy, sum, cross, squares } };
+  return constant;
 }
 
 /** S(all) - S(part): the cross products of the remaining rows (same centre required). */

@@ -16,11 +16,12 @@ export interface StandardizedDesign {
  * standard deviation, so the penalty applies to standardized coefficients (docs/engine.md, "Standardization"). Centring is
  * done either way: it makes the gaussian intercept closed-form and the fit better conditioned, and
  * does not change the penalized coefficients. A column with equal values everywhere is constant:
- * its coefficient stays 0.
+ * its coefficient stays 0. With `overwrite` the result is written over design.x (the caller's own
+ * copy, e.g. a fold's training rows: one n x p copy fewer per fold); same numbers either way.
  */
-export function standardizeDesign(design: DesignMatrix, standardize: boolean): StandardizedDesign {
+export function standardizeDesign(design: DesignMatrix, standardize: boolean, overwrite = false): StandardizedDesign {
   const { n, p } = design;
-  const x = new Float64Array(n * p);
+  const x = overwrite ? design.x : new Float64Array(n * p);
   const centers = new Float64Array(p);
   const scales = new Float64Array(p);
   const constant = new Uint8Array(p);
@@ -40,6 +41,7 @@ export function standardizeDesign(design: DesignMatrix, standardize: boolean): S
     if (min === max) {
       constant[j] = 1;
       scales[j] = 0;
+      if (overwrite) x.fill(0, off, off + n);
       continue;
     }
     let ss = 0;

@@ -1,5 +1,8 @@
 /** The fold id of every used row of a built design, from the spec's CvSpec. */
-import { createRng, EngineInputError, findColumn, type BuiltDesign, type CvSpec, type EngineTable, type FitSpec } from '../index';
+// Direct imports (not ../index): path/fitPath.ts plans the folds through foldData.ts.
+import { findColumn, type BuiltDesign } from '../design/build';
+import { createRng } from '../random';
+import { EngineInputError, type CvSpec, type EngineTable, type FitSpec } from '../types';
 import { assignFolds, checkFoldsNonEmpty, foldIdsFromColumn } from './folds';
 
 export function foldAssignment(

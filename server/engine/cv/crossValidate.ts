@@ -4,10 +4,9 @@
  * Uses only the engine's public entry (../index).
  */
 import { EngineInputError, encodeForFit, type BuiltDesign, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult, type PreparedFit } from '../index';
-import { foldAssignment } from './assign';
 import { combineFolds } from './combine';
-import { runFoldOnDesign } from './fold';
-import { foldShared, type FoldShared } from './foldData';
+import { runFoldOnDesign, type FoldScratch } from './fold';
+import { planFolds, type FoldShared } from './foldData';
 
 export interface CvPlan {
   built: BuiltDesign;
@@ -16,24 +15,50 @@ export interface CvPlan {
   folds: number;
   lambda: number[];
   shared: FoldShared;
+  /** This thread's reusable fold memory (fold.ts FoldScratch); not shared between threads. */
+  scratch?: FoldScratch;
 }
 
 /**
  * Everything the folds share: the full design, options, fold ids, the full-data grid, and the cross
  * products / imputed cells (foldData.ts). `prepared` is what the full path was fitted from, when the
- * caller has it (saves encoding the table again).
+ * caller has it (saves encoding the table again, and prepareFit has planned the folds already).
+ * Without it, or when it has no fold plan (a queue's fold job encodes the table itself), the folds
+ * are planned here the same way, so every route gives the folds the same numbers.
  */
 export function planCrossValidation(table: EngineTable, spec: FitSpec, path: PathResult, prepared?: PreparedFit): CvPlan {
-  if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
-  const { built, options, crossProducts } = prepared ?? encodeForFit(table, spec);
-  const { foldIds, folds } = foldAssignment(table, spec, spec.cv, built);
-  const shared = foldShared(table, built, options, foldIds, folds, crossProducts);
+  const cv = spec.cv;
+  if (!cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
+  if (prepared?.folds) return planFromPrepared(spec, path, prepared);
+  const { built, options } = prepared ?? encodeForFit(table, spec);
+  const { foldIds, folds, shared } = planFolds(table, { ...spec, cv }, built, options);
   return { built, options, foldIds, folds, lambda: path.lambda, shared };
+}
+
+/**
+ * The plan of a prepared fit whose folds prepareFit planned: the table is not needed again (a caller
+ * can let it go before the folds run, e.g. the CLI).
+ */
+export function planFromPrepared(spec: FitSpec, path: PathResult, prepared: PreparedFit): CvPlan {
+  if (!spec.cv) throw new EngineInputError('cross-validation was not requested (spec.cv is null)', 'cv');
+  if (!prepared.folds) throw new Error('the prepared fit has no fold plan (prepareFit plans one when the spec asks for CV)');
+  const { built, options } = prepared;
+  const { foldIds, folds, shared } = prepared.folds;
+  return { built, options, foldIds, folds, lambda: path.lambda, shared };
+}
+
+/** crossValidate on a prepared fit with its fold plan (planFromPrepared). */
+export function crossValidatePrepared(spec: FitSpec, path: PathResult, prepared: PreparedFit): CvResult {
+  const plan = planFromPrepared(spec, path, prepared);
+  const results = [];
+  for (let k = 0; k < plan.folds; k++) results.push(runPlannedFold(plan, k));
+  return combineFolds(spec.family, plan.lambda, results, plan.foldIds);
 }
 
 /** Fold k of a plan in this thread. */
 export function runPlannedFold(plan: CvPlan, k: number) {
-  return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared);
+  plan.scratch ??= {};
+  return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared, plan.scratch);
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */

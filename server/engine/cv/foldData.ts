@@ -1,10 +1,16 @@
 /**
- * What the folds of one cross-validation share besides the design: the cross products of all rows
- * (gaussian Gram form: each fold's Gram is S(all) - S(held out), PathOptions.crossProducts), and
- * where values were imputed, so each fold can impute them again from its training rows only.
+ * What the folds of one cross-validation share besides the design: the cross products of each fold's
+ * rows and of all rows (gaussian Gram form: each fold's Gram is S(all) - S(its block),
+ * PathOptions.crossProducts), and where values were imputed, so each fold can impute them again from
+ * its training rows only. Imports the modules it needs directly (not ../index): path/fitPath.ts plans
+ * the folds before the full path, so the full path's S(all) is the same sum of blocks.
  */
-import { crossProducts, FULL_GRAM_COLUMNS, subtractCrossProducts, usesGram } from '../index';
-import type { BuiltDesign, CrossProducts, DesignMatrix, EngineTable, PathOptions } from '../index';
+import { blockCrossProducts, constantOutside, subtractCrossProducts, type BlockCrossProducts, type ColumnRange } from '../core/crossProducts';
+import { constantColumns } from '../core/standardize';
+import type { BuiltDesign } from '../design/build';
+import { FULL_GRAM_COLUMNS, usesGram } from '../path/setup';
+import type { CrossProducts, CvSpec, DesignMatrix, EngineTable, FitSpec, PathOptions } from '../types';
+import { foldAssignment } from './assign';
 
 /** A predictor with imputed cells: its design column(s) and the design rows whose value was missing. */
 export interface ImputedPredictor {
@@ -15,8 +21,22 @@ export interface ImputedPredictor {
 
 export interface FoldShared {
   imputed: ImputedPredictor[];
-  /** Cross products of all rows of the design (absent when not in the Gram form, or with imputation). */
+  /**
+   * Cross products of all rows of the design, the sum of `blocks` (absent when not in the Gram form,
+   * or with imputation).
+   */
   crossProducts?: CrossProducts;
+  /** blocks[k]: the cross products of fold k's rows, about the same centre. */
+  blocks?: CrossProducts[];
+  /** ranges[k]: the columns' minimum and maximum over fold k's rows (constant columns of a training set). */
+  ranges?: ColumnRange[];
+}
+
+/** The folds of a cross-validation on a built design: fold ids and what the folds share. */
+export interface FoldPlan {
+  foldIds: Int32Array;
+  folds: number;
+  shared: FoldShared;
 }
 
 /** The imputed cells of a built design, found from the table's missing values. */
@@ -39,32 +59,58 @@ export function imputedPredictors(table: EngineTable, built: BuiltDesign): Imput
 }
 
 /**
- * Cross products of all rows when every fold's training rows will use the Gram form with the full G
- * (the same rule as prepareProblem, on the smallest training set): `all` when the full path has
- * them already. With imputation each fold's design differs from the full one, so there are none.
+ * Fold ids and the shared data (cross products of every fold's rows). `given`: the fold ids, and
+ * the blocks when the caller computed them already (the runner spreads them over threads with
+ * someBlockSums / joinBlocks: the same numbers).
  */
+export function planFolds(
+  table: EngineTable,
+  spec: FitSpec & { cv: CvSpec },
+  built: BuiltDesign,
+  options: PathOptions,
+  given?: { foldIds: Int32Array; folds: number; blocks?: BlockCrossProducts },
+): FoldPlan {
+  const { foldIds, folds } = given ?? foldAssignment(table, spec, spec.cv, built);
+  return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds, given?.blocks) };
+}
+
+/**
+ * Whether every fold's training rows will use the Gram form with the full G (the same rule as
+ * prepareProblem, on the smallest training set), so the folds share cross products. Not with
+ * imputation: each fold's design then differs from the full one.
+ */
+export function foldsUseGram(imputed: ImputedPredictor[], built: BuiltDesign, options: PathOptions, foldIds: Int32Array, folds: number): boolean {
+  const { n, p } = built.design;
+  let largestFold = 0;
+  const counts = new Int32Array(folds);
+  for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
+  return imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
+}
+
+/** Cross products of every fold's rows and of all rows (their sum) when foldsUseGram. */
 export function foldShared(
   table: EngineTable,
   built: BuiltDesign,
   options: PathOptions,
   foldIds: Int32Array,
   folds: number,
-  all?: CrossProducts,
+  given?: BlockCrossProducts,
 ): FoldShared {
   const imputed = imputedPredictors(table, built);
-  const { n, p } = built.design;
-  let largestFold = 0;
-  const counts = new Int32Array(folds);
-  for (const f of foldIds) largestFold = Math.max(largestFold, ++counts[f]);
-  const gram = imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
-  return gram ? { imputed, crossProducts: all ?? crossProducts(built.design, undefined, undefined, built.y) } : { imputed };
+  if (!foldsUseGram(imputed, built, options, foldIds, folds)) return { imputed };
+  const { blocks, all, ranges } = given ?? blockCrossProducts(built.design, foldIds, folds, built.y);
+  return { imputed, crossProducts: all, blocks, ranges };
 }
 
-/** The fold's cross products: S(all) - S(held-out rows). */
-export function foldCrossProducts(design: DesignMatrix, shared: FoldShared, test: number[], y?: Float64Array): CrossProducts | undefined {
-  if (!shared.crossProducts) return undefined;
-  const all = shared.crossProducts;
-  return subtractCrossProducts(all, crossProducts(design, test, all.center, all.response ? y : undefined, all.response?.center));
+/** The fold's cross products: S(all) - S(its block of held-out rows). */
+export function foldCrossProducts(shared: FoldShared, foldIndex: number): CrossProducts | undefined {
+  if (!shared.crossProducts || !shared.blocks) return undefined;
+  return subtractCrossProducts(shared.crossProducts, shared.blocks[foldIndex]);
+}
+
+/** The columns constant over a fold's training rows (from the fold ranges when the plan has them). */
+export function foldConstantColumns(design: DesignMatrix, shared: FoldShared, foldIndex: number, train: number[]): Uint8Array {
+  return shared.ranges ? constantOutside(shared.ranges, foldIndex, design.p) : constantColumns(design, train);
 }
 
 /**

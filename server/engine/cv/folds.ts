@@ -2,7 +2,7 @@
  * Fold assignment: seeded random folds (stratified by class for binomial outcomes), or fold ids read
  * from a column. Fold ids are 0-based, one per used row.
  */
-import { EngineInputError } from '../index';
+import { EngineInputError } from '../types';
 
 /** Fisher-Yates shuffle (Knuth, TAOCP vol. 2, algorithm 3.4.2P) driven by a seeded uniform [0, 1). */
 function shuffle(items: number[], uniform: () => number): number[] {

@@ -1,12 +1,12 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
-export { crossValidate, planCrossValidation, runPlannedFold } from './crossValidate';
+export { crossValidate, crossValidatePrepared, planCrossValidation, planFromPrepared, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
 export { runFold, runFoldOnDesign, METRICS } from './fold';
-export type { FoldLosses } from './fold';
+export type { FoldLosses, FoldScratch } from './fold';
 export { combineFolds, mainMetric } from './combine';
 export { foldAssignment } from './assign';
 export { assignFolds, foldIdsFromColumn } from './folds';
 export { chooseLambdas, summarizeFolds } from './choose';
 export * from './metrics';
-export { foldShared, imputeFromTraining } from './foldData';
-export type { FoldShared, ImputedPredictor } from './foldData';
+export { foldShared, foldsUseGram, imputedPredictors, imputeFromTraining, planFolds } from './foldData';
+export type { FoldPlan, FoldShared, ImputedPredictor } from './foldData';

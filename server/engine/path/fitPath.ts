@@ -9,6 +9,7 @@ import { crossProducts } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
 import { solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
+import { planFolds, type FoldPlan } from '../cv/foldData';
 
 /**
  * Fits the regularization path on an encoded design (objectives in types.ts). Standardization is
@@ -21,6 +22,17 @@ import { solveAtZero } from './atZero';
 export function fitPathOnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
   checkPathOptions(design, y, options);
   return runPath(prepareProblem(design, y, options), design.terms, options, { design, y });
+}
+
+/**
+ * fitPathOnDesign on a design the caller gives away (a CV fold's copy of its training rows): its
+ * values become the standardized ones instead of being copied again. Not with lambda = 0 in the
+ * grid (that factorization reads the original rows), where it is fitPathOnDesign.
+ */
+export function fitPathOnOwnDesign(design: DesignMatrix, y: Float64Array, options: PathOptions): PathResult {
+  if (options.lambda?.includes(0) || !options.lambda) return fitPathOnDesign(design, y, options);
+  checkPathOptions(design, y, options);
+  return runPath(prepareProblem(design, y, options, true), design.terms, options, null);
 }
 
 /**
@@ -157,12 +169,37 @@ export interface PreparedFit {
    * path's Gram comes from them, and cross-validation subtracts each fold's held-out rows from them.
    */
   crossProducts?: CrossProducts;
+  /**
+   * With cross-validation: the folds, planned before the full path (prepareFit). In the Gram form
+   * their shared data hold the cross products of each fold's rows, and S(all) is their sum: one
+   * pass over the rows serves the full path (crossProducts above) and every fold.
+   */
+  folds?: FoldPlan;
 }
 
-/** validateSpec, then encodeForFit: the table-level steps every fit shares. */
-export function prepareFit(table: EngineTable, spec: FitSpec): PreparedFit {
+/**
+ * validateSpec, then encodeForFit: the table-level steps every fit shares; with cross-validation the
+ * folds are planned too (cv/foldData.ts planFolds), so the full path and the folds share one set of
+ * cross products. Every route that fits a path with CV (CLI, in-process, studio path job) comes
+ * through here, so the full path's numbers do not depend on the route.
+ */
+export function prepareFit(table: EngineTable, spec: FitSpec, withFolds = true): PreparedFit {
   validateSpec(table, spec);
-  return encodeForFit(table, spec);
+  const prepared = encodeForFit(table, spec);
+  if (withFolds) attachFolds(table, spec, prepared);
+  return prepared;
+}
+
+/**
+ * prepareFit's fold planning, for a caller that prepared with `withFolds` false to compute the
+ * blocks its own way (the runner, over threads: the same numbers): with the spec's CV, the fold
+ * plan, and S(all) from its blocks as the full path's cross products.
+ */
+export function attachFolds(table: EngineTable, spec: FitSpec, prepared: PreparedFit, given?: Parameters<typeof planFolds>[4]): void {
+  const cv = spec.cv;
+  if (!cv) return;
+  prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options, given);
+  prepared.crossProducts = prepared.folds.shared.crossProducts;
 }
 
 /**
@@ -186,9 +223,7 @@ export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
  */
 export function fitPathPrepared(prepared: PreparedFit): PathResult {
   const { built, options } = prepared;
-  const { n, p } = built.design;
-  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
-  const cp = prepared.crossProducts;
+  const cp = ensureCrossProducts(prepared);
   // The Gram form needs the rows only to check them: the problem comes from the cross products.
   let result: PathResult;
   if (cp?.response && !options.lambda?.includes(0)) {
@@ -200,6 +235,32 @@ export function fitPathPrepared(prepared: PreparedFit): PathResult {
   result.notes.unshift(...built.notes);
   result.encoding = built.encoding;
   return result;
+}
+
+/** The cross products of all rows when the full Gram form is used (kept in `prepared`). */
+function ensureCrossProducts(prepared: PreparedFit): CrossProducts | undefined {
+  const { built, options } = prepared;
+  const { n, p } = built.design;
+  if (!prepared.crossProducts && p <= FULL_GRAM_COLUMNS && usesGram(options, n, p)) prepared.crossProducts = crossProducts(built.design, undefined, undefined, built.y);
+  return prepared.crossProducts;
+}
+
+/**
+ * The lambdas fitPathPrepared will fit, when they are known before any solve: the explicit grid, or
+ * the automatic one (lambda_max from the same problem set-up the path makes; a set-up's cost, no
+ * solve). Null with maxTerms on an automatic grid (where the path ends depends on its solves).
+ * Lets cross-validation folds start while the full path is still being fitted.
+ */
+export function plannedGrid(prepared: PreparedFit): number[] | null {
+  const { built, options } = prepared;
+  if (options.lambda) return [...options.lambda];
+  if (options.maxTerms !== undefined) return null;
+  checkPathOptions(built.design, built.y, options);
+  const cp = ensureCrossProducts(prepared);
+  const { lambdaMax } = cp?.response
+    ? prepareGramProblem(cp, constantColumns(built.design), built.design.terms, options)
+    : prepareProblem(built.design, built.y, cp ? { ...options, crossProducts: cp } : options);
+  return lambdaMax > 0 ? lambdaGrid(lambdaMax, options.pathLength ?? DEFAULT_PATH_LENGTH, options.pathDecades ?? DEFAULT_PATH_DECADES) : [0];
 }
 
 /** Table level: prepareFit, then fitPathOnDesign; the result carries the encoding. */

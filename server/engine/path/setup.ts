@@ -106,9 +106,10 @@ export function usesGram(options: PathOptions, n: number, p: number): boolean {
   return n >= 2 * p && p <= MAX_GRAM_COLUMNS;
 }
 
-export function prepareProblem(design: DesignMatrix, y: Float64Array, options: PathOptions): PreparedProblem {
+/** `overwrite`: design.x is the caller's own copy and may become the standardized one (standardizeDesign). */
+export function prepareProblem(design: DesignMatrix, y: Float64Array, options: PathOptions, overwrite = false): PreparedProblem {
   const { n, p } = design;
-  const std = standardizeDesign(design, options.standardize);
+  const std = standardizeDesign(design, options.standardize, overwrite);
   let yMean = 0;
   for (let i = 0; i < n; i++) yMean += y[i];
   yMean /= n;
