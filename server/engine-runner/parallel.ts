@@ -1,5 +1,5 @@
 /**
- * Cross-validation folds on worker threads (docs/decisions/0023-speed-tall-cv-folds-and-threads.md). Every
+ * Cross-validation folds on worker threads (docs/decisions/0024-cv-folds-and-threads.md). Every
  * thread runs the same pure fold function on the same numbers, so results do not depend on which
  * thread ran which fold; combineFolds sums them in fold order.
  *
