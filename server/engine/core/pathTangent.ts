@@ -1,5 +1,5 @@
 import type { SupportMemory } from './loss/role';
-import { solveSymmetric } from './symmetric';
+import type { SymmetricFactor } from './symmetric';
 
 /**
  * The solution's tangent along the path, kept in the path's memory from one polish to the next: on a fixed
@@ -32,14 +32,17 @@ export function predict(memory: SupportMemory, lambda: number, features: Int32Ar
   for (let q = 0; q < beta.length; q++) beta[q] += delta * t.direction[q];
 }
 
-/** Records the tangent at a Newton solution (hess: the Hessian with the ridge, at that solution). */
+/**
+ * Records the tangent at a Newton solution (factor: the Hessian with the ridge, at the solution or
+ * at the point of the last Newton step; a predictor needs no more).
+ */
 export function recordTangent(
   memory: SupportMemory,
   lambda: number,
   features: Int32Array,
   signs: Int8Array,
   beta: Float64Array,
-  hess: Float64Array,
+  factor: SymmetricFactor,
   linear: Float64Array,
   ridge: Float64Array,
 ): void {
@@ -48,6 +51,6 @@ export function recordTangent(
   const rhs = new Float64Array(m);
   for (let q = 0; q < m; q++) rhs[q] = -(linear[q] + ridge[q] * beta[q]) / lambda;
   const direction = new Float64Array(m);
-  if (!solveSymmetric(hess, m, rhs, direction)) return;
+  if (!factor.solve(rhs, direction)) return;
   memory.tangent = { lambda, features, signs, solution: Float64Array.from(beta), direction };
 }

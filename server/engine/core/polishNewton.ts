@@ -1,8 +1,9 @@
 import { FREE, type SupportMemory, type SupportProblem } from './loss/role';
+import { logisticRows, weightedGram } from './logisticRows';
 import type { Problem } from './problem';
-import { softplus } from './problem';
 import { predict, recordTangent } from './pathTangent';
-import { solveSymmetric } from './symmetric';
+import { SymmetricFactor } from './symmetric';
+
 const MAX_NEWTON = 50;
 /**
  * A Newton step whose predicted decrease (half the Newton decrement, Boyd & Vandenberghe 2004,
@@ -11,8 +12,69 @@ const MAX_NEWTON = 50;
  * (quadratic convergence makes it the most accurate point) and Newton stops.
  */
 const ROUNDING = 1e-15;
-/** After a full step with a decrement this small the next one would be below rounding (quadratic convergence). */
+/**
+ * After a full Newton step with decrement d (relative to the value) the next decrement is about d^2
+ * (quadratic convergence): with d <= FINAL it would be below FINAL^2 = 1e-20, past any digit the
+ * value or the KKT conditions can show, so Newton stops.
+ */
 const FINAL = 1e-10;
+/**
+ * After a full Newton step with decrement d_ref <= CHORD (relative to the value), the next steps
+ * first try the same factor (chord steps: the simplified Newton method, Shamanskii 1967; see Kelley
+ * 2003, "Solving Nonlinear Equations with Newton's Method", 5.4.3). Their contraction is
+ * proportional to the distance from the factor's point, so after a chord step with decrement d the
+ * next decrement is about d_ref d, as it is about d^2 after a Newton step: the same FINAL rule
+ * (predicted next decrement <= FINAL^2) stops either. A chord step is taken only when its decrement
+ * is at most CONTRACTION times the previous step's (at least one digit of the error per step);
+ * otherwise the Hessian is rebuilt at the current point. Near the solution this replaces the last
+ * Hessian (m^2 n / 2 products) by one or two chord steps (about 3 m n each).
+ */
+const CHORD = 1e-6;
+const CONTRACTION = 1e-2;
+
+/**
+ * Buffers of length n (and m n for the weighted columns) reused by every Newton solve on one
+ * problem: scratch only, no information passes from one call to the next through them except the
+ * residual at the last solution (`solution`, `residual`), which the loss's negativeGradient reuses.
+ */
+export class NewtonScratch {
+  eta: Float64Array;
+  trialEta: Float64Array;
+  residual: Float64Array;
+  trialResidual: Float64Array;
+  weight: Float64Array;
+  trialWeight: Float64Array;
+  direction: Float64Array;
+  weighted = new Float64Array(0);
+  /**
+   * The working vector (coefficients, intercept) of the last successful solve and its features
+   * (empty when the last solve failed; typed arrays from the start keep the object's shape stable).
+   */
+  solution: Float64Array = new Float64Array(0);
+  features: Int32Array = new Int32Array(0);
+
+  constructor(readonly n: number) {
+    this.eta = new Float64Array(n);
+    this.trialEta = new Float64Array(n);
+    this.residual = new Float64Array(n);
+    this.trialResidual = new Float64Array(n);
+    this.weight = new Float64Array(n);
+    this.trialWeight = new Float64Array(n);
+    this.direction = new Float64Array(n);
+  }
+
+  weightedFor(columns: number): Float64Array {
+    if (this.weighted.length < columns * this.n) this.weighted = new Float64Array(columns * this.n);
+    return this.weighted;
+  }
+
+  /** Swaps the trial buffers in after an accepted step. */
+  accept(): void {
+    [this.eta, this.trialEta] = [this.trialEta, this.eta];
+    [this.residual, this.trialResidual] = [this.trialResidual, this.residual];
+    [this.weight, this.trialWeight] = [this.trialWeight, this.weight];
+  }
+}
 
 /**
  * The one logistic Newton loop, used by the binomial active-set polish (polish.ts) and the binomial
@@ -21,10 +83,11 @@ const FINAL = 1e-10;
  *   (1/n) sum [log(1 + exp(eta_i)) - y_i eta_i] + sum_A (l1_j s_j b_j + l2_j/2 b_j^2),
  * eta = b0 + X_A b_A, l1 = lambda alpha v, l2 = lambda (1 - alpha) v (0 for free columns).
  * Starts from `out` (slot k holds the intercept) and writes the minimizer there; zero off A.
- * Stops when a step moves every variable by < 1e-13 (relative) or its predicted decrease is at the
- * rounding level of the value (ROUNDING). The active columns are copied side by side once, so the
- * Hessian X_A'WX_A/n is formed by plain loops over contiguous rows.
- * Returns the Newton steps taken and ok = false on failure or when maxSteps do not suffice.
+ * Stops when a step moves every variable by < 1e-13 (relative), when its predicted decrease is at the
+ * rounding level of the value (ROUNDING), or when the next decrement would be below FINAL^2 (FINAL,
+ * CHORD). Each row's exp serves the value, the gradient and the Hessian weight at once
+ * (logisticRows), and eta moves along the step's image X_A d rather than being rebuilt.
+ * Returns the steps taken (Newton and chord) and ok = false on failure or when maxSteps do not suffice.
  */
 export function newtonOnSupport(
   problem: Problem,
@@ -32,19 +95,21 @@ export function newtonOnSupport(
   out: Float64Array,
   maxSteps: number,
   memory: SupportMemory,
+  scratch: NewtonScratch,
 ): { ok: boolean; steps: number } {
   const { ws, active, sign, l1, l2, lambda } = support;
-  const { n, y } = problem;
+  const { n, y, x } = problem;
   const k = ws.k;
   const m = active.length + 1;
-  const xa = new Float64Array((m - 1) * n);
-  for (let q = 0; q < m - 1; q++) xa.set(problem.x.subarray(ws.features[active[q]] * n, (ws.features[active[q]] + 1) * n), q * n);
+  const last = m - 1;
+  scratch.solution = new Float64Array(0);
+  const offsets = Int32Array.from(active, (a) => ws.features[a] * n);
   const beta = new Float64Array(m);
-  for (let q = 0; q < m - 1; q++) beta[q] = out[active[q]];
-  beta[m - 1] = out[k];
+  for (let q = 0; q < last; q++) beta[q] = out[active[q]];
+  beta[last] = out[k];
   const linear = new Float64Array(m);
   const ridge = new Float64Array(m);
-  for (let q = 0; q < m - 1; q++) {
+  for (let q = 0; q < last; q++) {
     const s = sign[active[q]];
     linear[q] = s === FREE ? 0 : l1[active[q]] * s;
     ridge[q] = l2[active[q]];
@@ -52,52 +117,57 @@ export function newtonOnSupport(
   const features = Int32Array.from(active, (a) => ws.features[a]);
   const signs = Int8Array.from(active, (a) => sign[a]);
   predict(memory, lambda, features, signs, beta);
-  const etaOf = (v: Float64Array, eta: Float64Array): void => {
-    eta.fill(v[m - 1]);
-    for (let q = 0; q < m - 1; q++) {
-      const coef = v[q];
-      if (coef === 0) continue;
-      const off = q * n;
-      for (let i = 0; i < n; i++) eta[i] += coef * xa[off + i];
-    }
-  };
-  const valueOf = (v: Float64Array, eta: Float64Array): number => {
+  const penaltyOf = (v: Float64Array): number => {
     let s = 0;
-    for (let i = 0; i < n; i++) s += softplus(eta[i]) - y[i] * eta[i];
-    s /= n;
-    for (let q = 0; q < m - 1; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
+    for (let q = 0; q < last; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
     return s;
   };
-  let eta = new Float64Array(n);
-  let trialEta = new Float64Array(n);
-  etaOf(beta, eta);
-  let value = valueOf(beta, eta);
-  const residual = new Float64Array(n);
-  const weighted = new Float64Array(m * n);
+  imageOf(x, n, offsets, beta, scratch.eta);
+  let value = logisticRows(scratch.eta, y, n, scratch.residual, scratch.weight) / n + penaltyOf(beta);
+  const weighted = scratch.weightedFor(last);
   const grad = new Float64Array(m);
   const hess = new Float64Array(m * m);
   const step = new Float64Array(m);
   const trial = new Float64Array(m);
+  let factor: SymmetricFactor | null = null;
+  // Relative decrement at the factor's point when chord steps may follow (CHORD), else 0; and the
+  // previous step's decrement.
+  let chordFrom = 0;
+  let previous = 0;
   let steps = 0;
   let done = false;
   for (let it = 0; it < MAX_NEWTON && steps < maxSteps; it++) {
     steps++;
-    hessianAndGradient(xa, n, m, eta, y, residual, weighted, hess, grad);
-    for (let q = 0; q < m; q++) {
-      grad[q] += linear[q] + ridge[q] * beta[q];
-      hess[q * m + q] += ridge[q];
+    gradientOf(x, n, offsets, scratch.residual, grad);
+    for (let q = 0; q < last; q++) grad[q] += linear[q] + ridge[q] * beta[q];
+    const scale0 = Math.max(1, Math.abs(value));
+    let decrement = NaN;
+    let chord = false;
+    if (factor && chordFrom > 0) {
+      if (!factor.solve(grad, step)) return { ok: false, steps };
+      decrement = dot(grad, step, m);
+      chord = decrement <= CONTRACTION * previous;
     }
-    if (!solveSymmetric(hess, m, grad, step)) return { ok: false, steps };
-    let decrement = 0;
-    for (let q = 0; q < m; q++) decrement += grad[q] * step[q];
-    const atRounding = decrement / 2 <= ROUNDING * Math.max(1, Math.abs(value));
+    if (!chord) {
+      chordFrom = 0;
+      weightedGram(x, n, offsets, scratch.weight, weighted, hess);
+      for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
+      factor = new SymmetricFactor(hess, m);
+      if (!factor.solve(grad, step)) return { ok: false, steps };
+      decrement = dot(grad, step, m);
+    }
+    const relative = decrement / scale0;
+    const atRounding = !chord && relative / 2 <= ROUNDING;
+    // The step's image: eta moves by -scale * (X_A d + d_0).
+    imageOf(x, n, offsets, step, scratch.direction);
     let scale = 1;
     let accepted = false;
     for (let half = 0; half < 40; half++, scale /= 2) {
       for (let q = 0; q < m; q++) trial[q] = beta[q] - scale * step[q];
-      etaOf(trial, trialEta);
-      const candidate = valueOf(trial, trialEta);
-      if (candidate <= value || (atRounding && Number.isFinite(candidate))) {
+      moveAlong(scratch.eta, scratch.direction, -scale, scratch.trialEta, n);
+      const candidate = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n + penaltyOf(trial);
+      // A chord step below the value's rounding is taken like a Newton step there (ROUNDING).
+      if (candidate <= value || ((atRounding || (chord && relative / 2 <= ROUNDING)) && Number.isFinite(candidate))) {
         value = Math.min(value, candidate);
         accepted = true;
         break;
@@ -110,94 +180,99 @@ export function newtonOnSupport(
     let moved = false;
     for (let q = 0; q < m; q++) if (Math.abs(trial[q] - beta[q]) > 1e-13 * Math.max(1, Math.abs(beta[q]))) moved = true;
     beta.set(trial);
-    [eta, trialEta] = [trialEta, eta];
-    const final = scale === 1 && decrement <= FINAL * Math.max(1, Math.abs(value));
-    if (!moved || atRounding || final) {
+    scratch.accept();
+    const full = scale === 1;
+    const predicted = chord ? chordFrom * relative : relative * relative;
+    if (!moved || atRounding || (full && predicted <= FINAL * FINAL)) {
       done = true;
       break;
     }
+    if (!full) chordFrom = 0;
+    else if (!chord && relative <= CHORD) chordFrom = relative;
+    previous = decrement;
   }
-  if (!done || !Number.isFinite(value)) return { ok: false, steps };
-  recordTangent(memory, lambda, features, signs, beta, hess, linear, ridge);
+  if (!done || !Number.isFinite(value) || !factor) return { ok: false, steps };
+  recordTangent(memory, lambda, features, signs, beta, factor, linear, ridge);
   out.fill(0, 0, k);
-  for (let q = 0; q < m - 1; q++) out[active[q]] = beta[q];
-  out[k] = beta[m - 1];
+  for (let q = 0; q < last; q++) out[active[q]] = beta[q];
+  out[k] = beta[last];
+  scratch.solution = Float64Array.from(out.subarray(0, ws.size));
+  scratch.features = ws.features;
   return { ok: true, steps };
 }
 
 /**
- * Gradient and Hessian of the mean logistic loss in (b_A, b0) at eta: grad = [X_A 1]'(mu - y)/n,
- * hess = [X_A 1]'W[X_A 1]/n with W = diag(mu (1 - mu)); the intercept is the last slot. The
- * slopes' block is summed two columns by two per pass over the rows (4 sums from 4 loads).
+ * out = v_last + sum_q v_q x_q over the columns at `offsets` (the intercept last in v), four
+ * columns per pass over out (a quarter of its loads and stores).
  */
-function hessianAndGradient(
-  xa: Float64Array,
-  n: number,
-  m: number,
-  eta: Float64Array,
-  y: Float64Array,
-  residual: Float64Array,
-  weighted: Float64Array,
-  hess: Float64Array,
-  grad: Float64Array,
-): void {
-  let sumR = 0;
-  let sumW = 0;
-  const last = m - 1;
-  const weight = weighted.subarray(last * n);
-  for (let i = 0; i < n; i++) {
-    const e = Math.exp(-Math.abs(eta[i]));
-    const mu = eta[i] >= 0 ? 1 / (1 + e) : e / (1 + e);
-    residual[i] = mu - y[i];
-    weight[i] = e / ((1 + e) * (1 + e));
-    sumR += residual[i];
-    sumW += weight[i];
+function imageOf(x: Float64Array, n: number, offsets: Int32Array, v: Float64Array, out: Float64Array): void {
+  const last = offsets.length;
+  out.fill(v[last], 0, n);
+  let q = 0;
+  for (; q + 4 <= last; q += 4) {
+    const c0 = v[q];
+    const c1 = v[q + 1];
+    const c2 = v[q + 2];
+    const c3 = v[q + 3];
+    const o0 = offsets[q];
+    const o1 = offsets[q + 1];
+    const o2 = offsets[q + 2];
+    const o3 = offsets[q + 3];
+    for (let i = 0; i < n; i++) out[i] += c0 * x[o0 + i] + c1 * x[o1 + i] + c2 * x[o2 + i] + c3 * x[o3 + i];
   }
-  for (let q = 0; q < last; q++) {
-    const off = q * n;
-    let g = 0;
-    let h0 = 0;
+  for (; q < last; q++) {
+    const c = v[q];
+    const off = offsets[q];
+    for (let i = 0; i < n; i++) out[i] += c * x[off + i];
+  }
+}
+
+/**
+ * grad_q = x_q'r / n over the columns at `offsets`, four per pass over r, and the intercept's
+ * sum(r) / n last.
+ */
+function gradientOf(x: Float64Array, n: number, offsets: Int32Array, r: Float64Array, grad: Float64Array): void {
+  const last = offsets.length;
+  let sum = 0;
+  for (let i = 0; i < n; i++) sum += r[i];
+  let q = 0;
+  for (; q + 4 <= last; q += 4) {
+    const o0 = offsets[q];
+    const o1 = offsets[q + 1];
+    const o2 = offsets[q + 2];
+    const o3 = offsets[q + 3];
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
     for (let i = 0; i < n; i++) {
-      const xq = xa[off + i];
-      g += residual[i] * xq;
-      const wx = weight[i] * xq;
-      weighted[off + i] = wx;
-      h0 += wx;
+      const t = r[i];
+      s0 += t * x[o0 + i];
+      s1 += t * x[o1 + i];
+      s2 += t * x[o2 + i];
+      s3 += t * x[o3 + i];
     }
+    grad[q] = s0 / n;
+    grad[q + 1] = s1 / n;
+    grad[q + 2] = s2 / n;
+    grad[q + 3] = s3 / n;
+  }
+  for (; q < last; q++) {
+    const off = offsets[q];
+    let g = 0;
+    for (let i = 0; i < n; i++) g += r[i] * x[off + i];
     grad[q] = g / n;
-    hess[q * m + last] = h0 / n;
-    hess[last * m + q] = h0 / n;
   }
-  const set = (q: number, r: number, h: number): void => {
-    hess[q * m + r] = h / n;
-    hess[r * m + q] = h / n;
-  };
-  for (let q = 0; q < last; q += 2) {
-    const a0 = q * n;
-    const pair = q + 1 < last;
-    const a1 = pair ? a0 + n : a0;
-    for (let r = 0; r <= q; r += 2) {
-      const b0 = r * n;
-      const b1 = r + 1 < last ? b0 + n : b0;
-      let s00 = 0, s01 = 0, s10 = 0, s11 = 0;
-      for (let i = 0; i < n; i++) {
-        const u0 = weighted[a0 + i];
-        const u1 = weighted[a1 + i];
-        const v0 = xa[b0 + i];
-        const v1 = xa[b1 + i];
-        s00 += u0 * v0;
-        s01 += u0 * v1;
-        s10 += u1 * v0;
-        s11 += u1 * v1;
-      }
-      set(q, r, s00);
-      if (r + 1 < last) set(q, r + 1, s01);
-      if (pair) {
-        set(q + 1, r, s10);
-        if (r + 1 < last) set(q + 1, r + 1, s11);
-      }
-    }
-  }
-  grad[last] = sumR / n;
-  hess[last * m + last] = sumW / n;
+  grad[last] = sum / n;
+}
+
+/** out = from + t d */
+function moveAlong(from: Float64Array, d: Float64Array, t: number, out: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) out[i] = from[i] + t * d[i];
+}
+
+function dot(a: Float64Array, b: Float64Array, m: number): number {
+  let s = 0;
+  for (let q = 0; q < m; q++) s += a[q] * b[q];
+  return s;
 }

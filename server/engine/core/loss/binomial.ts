@@ -1,6 +1,7 @@
-import { newtonOnSupport } from '../polishNewton';
+import { logisticRows } from '../logisticRows';
+import { NewtonScratch, newtonOnSupport } from '../polishNewton';
 import { blockConjugate } from '../penalty';
-import { sigmoid, softplus, type Problem, type WorkingSet } from '../problem';
+import type { Problem, WorkingSet } from '../problem';
 import { designGramNorm, designImage, designTranspose, fullImage, transposeTimes, workingTranspose } from './design';
 import { blockStep, normOf, scaleScope } from './dualSteps';
 import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory } from './role';
@@ -14,29 +15,34 @@ import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRo
 export function binomialLoss(problem: Problem): LossRole {
   const { n, y, yMean } = problem;
   const thetaP = new Float64Array(n);
+  const scratch = new NewtonScratch(n);
+  const memo = new ResidualMemo(problem);
   return {
     family: 'binomial',
     form: 'design',
     intercept: true,
     dualConcavity: 4 * n,
     nullObjective: -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean)),
-    bind: (ws) => bind(problem, ws),
+    bind: (ws) => bind(problem, ws, memo),
     evaluate(coef, intercept): Evaluation {
-      const eta = fullImage(problem, coef, intercept);
+      // The full check usually follows a gap check at the same point (same image, to the bit).
+      const loss = memo.at(fullImage(problem, coef, intercept));
       const theta = new Float64Array(n);
-      let loss = 0;
-      for (let i = 0; i < n; i++) {
-        loss += softplus(eta[i]) - y[i] * eta[i];
-        theta[i] = (y[i] - sigmoid(eta[i])) / n;
-      }
+      for (let i = 0; i < n; i++) theta[i] = -memo.residual[i] / n;
       const g = new Float64Array(problem.p);
       transposeTimes(problem.x, n, problem.p, theta, g);
-      return { loss: loss / n, g, residual: { ycTheta: 0, theta } };
+      return { loss, g, residual: { ycTheta: 0, theta } };
     },
-    nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory),
+    nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory, scratch),
     dual: (projection) => dual(problem, projection, thetaP),
-    solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory),
+    solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory, scratch),
     negativeGradient(ws, active, w) {
+      // Right after a Newton solve at w (the polish's KKT check), its residual mu - y is at hand.
+      if (scratch.features === ws.features && sameValues(scratch.solution, w)) {
+        const g = workingTranspose(problem, ws, scratch.residual);
+        for (let b = 0; b < ws.k; b++) g[b] = -g[b];
+        return g;
+      }
       const eta = new Float64Array(n).fill(w[ws.k]);
       for (const a of active) {
         const coef = w[a];
@@ -44,31 +50,61 @@ export function binomialLoss(problem: Problem): LossRole {
         const off = ws.features[a] * n;
         for (let i = 0; i < n; i++) eta[i] += coef * problem.x[off + i];
       }
-      for (let i = 0; i < n; i++) eta[i] = y[i] - sigmoid(eta[i]);
-      return workingTranspose(problem, ws, eta);
+      logisticRows(eta, y, n, eta, null);
+      const g = workingTranspose(problem, ws, eta);
+      for (let b = 0; b < ws.k; b++) g[b] = -g[b];
+      return g;
     },
   };
 }
 
-function bind(problem: Problem, ws: WorkingSet): BoundLoss {
-  const { n, y } = problem;
+/**
+ * The mean loss and the residual mu - y at the last image seen, with a copy of that image. The
+ * solver asks for the value, the gradient and the dual residual at the same image (a gap check, a
+ * FISTA step's value and gradient at y, the full check after the working set's), so one exp and one
+ * log1p per row serve them all; reused only when the image is the same to the bit.
+ */
+class ResidualMemo {
+  readonly residual: Float64Array;
+  private readonly seen: Float64Array;
+  private valid = false;
+  private loss = 0;
+
+  constructor(private readonly problem: Problem) {
+    this.residual = new Float64Array(problem.n);
+    this.seen = new Float64Array(problem.n);
+  }
+
+  /** Mean loss at eta; `residual` then holds mu - y there. */
+  at(eta: Float64Array): number {
+    if (this.valid && sameValues(this.seen, eta)) return this.loss;
+    const { n, y } = this.problem;
+    this.loss = logisticRows(eta, y, n, this.residual, null) / n;
+    this.seen.set(eta);
+    this.valid = true;
+    return this.loss;
+  }
+}
+
+function sameValues(a: Float64Array, b: Float64Array): boolean {
+  if (a.length === 0 || a.length > b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+function bind(problem: Problem, ws: WorkingSet, memo: ResidualMemo): BoundLoss {
+  const { n } = problem;
   const k = ws.k;
-  const residual = new Float64Array(n);
   const theta = new Float64Array(n);
   return {
     imageSize: n,
     image: (w, out) => designImage(problem, ws, w, out, w[k]),
-    value(img) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += softplus(img[i]) - y[i] * img[i];
-      return s / n;
-    },
+    value: (img) => memo.at(img),
     gradient(img, _w, out) {
+      memo.at(img);
+      const { residual } = memo;
       let sum = 0;
-      for (let i = 0; i < n; i++) {
-        residual[i] = sigmoid(img[i]) - y[i];
-        sum += residual[i];
-      }
+      for (let i = 0; i < n; i++) sum += residual[i];
       designTranspose(problem, ws, residual, out, 1 / n);
       out[k] = sum / n;
     },
@@ -76,7 +112,8 @@ function bind(problem: Problem, ws: WorkingSet): BoundLoss {
     // eigenvalue of [1 X]'[1 X]/n is max(1, that of X'X/n); the logistic curvature is <= 1/4.
     lipschitz: () => 0.25 * Math.max(1, designGramNorm(problem, ws)),
     residual(img) {
-      for (let i = 0; i < n; i++) theta[i] = (y[i] - sigmoid(img[i])) / n;
+      memo.at(img);
+      for (let i = 0; i < n; i++) theta[i] = -memo.residual[i] / n;
       return { ycTheta: 0, theta };
     },
   };
@@ -86,7 +123,7 @@ function bind(problem: Problem, ws: WorkingSet): BoundLoss {
  * The intercept alone is logit(mean y); with unpenalized columns U, the same Newton loop as the
  * polish (polishNewton.ts) on (b_U, b0) with every sign free and no penalty.
  */
-function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemory): NullFit {
+function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemory, scratch: NewtonScratch): NullFit {
   const { n, p } = problem;
   const m = unpenalized.length;
   const coef = new Float64Array(p);
@@ -104,14 +141,15 @@ function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemor
       l2: new Float64Array(m),
       lambda: 0,
     };
-    if (newtonOnSupport(problem, support, out, NULL_NEWTON_STEPS, memory).ok) {
+    if (newtonOnSupport(problem, support, out, NULL_NEWTON_STEPS, memory, scratch).ok) {
       for (let q = 0; q < m; q++) coef[unpenalized[q]] = out[q];
       intercept = out[m];
     }
   }
   const eta = fullImage(problem, coef, intercept);
   const theta = new Float64Array(n);
-  for (let i = 0; i < n; i++) theta[i] = (problem.y[i] - sigmoid(eta[i])) / n;
+  logisticRows(eta, problem.y, n, theta, null);
+  for (let i = 0; i < n; i++) theta[i] = -theta[i] / n;
   const g = new Float64Array(p);
   transposeTimes(problem.x, n, p, theta, g);
   return { coef, intercept, g, theta };
