@@ -29,7 +29,7 @@ const FINAL = 1e-10;
  * otherwise the Hessian is rebuilt at the current point. Near the solution this replaces the last
  * Hessian (m^2 n / 2 products) by one or two chord steps (about 3 m n each).
  */
-const CHORD = 1e-6;
+const CHORD = 1e-4;
 const CONTRACTION = 1e-2;
 
 /**
@@ -103,19 +103,22 @@ export function newtonOnSupport(
   const m = active.length + 1;
   const last = m - 1;
   scratch.solution = new Float64Array(0);
-  const offsets = Int32Array.from(active, (a) => ws.features[a] * n);
+  const features = new Int32Array(last);
+  const offsets = new Int32Array(last);
+  const signs = new Int8Array(last);
   const beta = new Float64Array(m);
-  for (let q = 0; q < last; q++) beta[q] = out[active[q]];
-  beta[last] = out[k];
   const linear = new Float64Array(m);
   const ridge = new Float64Array(m);
   for (let q = 0; q < last; q++) {
-    const s = sign[active[q]];
-    linear[q] = s === FREE ? 0 : l1[active[q]] * s;
-    ridge[q] = l2[active[q]];
+    const a = active[q];
+    features[q] = ws.features[a];
+    offsets[q] = features[q] * n;
+    signs[q] = sign[a];
+    beta[q] = out[a];
+    linear[q] = sign[a] === FREE ? 0 : l1[a] * sign[a];
+    ridge[q] = l2[a];
   }
-  const features = Int32Array.from(active, (a) => ws.features[a]);
-  const signs = Int8Array.from(active, (a) => sign[a]);
+  beta[last] = out[k];
   predict(memory, lambda, features, signs, beta);
   const penaltyOf = (v: Float64Array): number => {
     let s = 0;
@@ -196,7 +199,7 @@ export function newtonOnSupport(
   out.fill(0, 0, k);
   for (let q = 0; q < last; q++) out[active[q]] = beta[q];
   out[k] = beta[last];
-  scratch.solution = Float64Array.from(out.subarray(0, ws.size));
+  scratch.solution = out.slice(0, ws.size);
   scratch.features = ws.features;
   return { ok: true, steps };
 }
