@@ -76,6 +76,13 @@ export class NewtonScratch {
   }
 }
 
+/** Steps taken (Newton and chord, each one linear solve) and Hessians built. */
+export interface NewtonOutcome {
+  ok: boolean;
+  steps: number;
+  hessians: number;
+}
+
 /**
  * The one logistic Newton loop, used by the binomial active-set polish (polish.ts) and the binomial
  * null fit (loss/binomial.ts: every sign free, no penalty): Newton's method with step halving on the
@@ -96,7 +103,7 @@ export function newtonOnSupport(
   maxSteps: number,
   memory: SupportMemory,
   scratch: NewtonScratch,
-): { ok: boolean; steps: number } {
+): NewtonOutcome {
   const { ws, active, sign, l1, l2, lambda } = support;
   const { n, y, x } = problem;
   const k = ws.k;
@@ -138,6 +145,7 @@ export function newtonOnSupport(
   let chordFrom = 0;
   let previous = 0;
   let steps = 0;
+  let hessians = 0;
   let done = false;
   for (let it = 0; it < MAX_NEWTON && steps < maxSteps; it++) {
     steps++;
@@ -147,7 +155,7 @@ export function newtonOnSupport(
     let decrement = NaN;
     let chord = false;
     if (factor && chordFrom > 0) {
-      if (!factor.solve(grad, step)) return { ok: false, steps };
+      if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
       decrement = dot(grad, step, m);
       chord = decrement <= CONTRACTION * previous;
     }
@@ -156,7 +164,8 @@ export function newtonOnSupport(
       weightedGram(x, n, offsets, scratch.weight, weighted, hess);
       for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
       factor = new SymmetricFactor(hess, m);
-      if (!factor.solve(grad, step)) return { ok: false, steps };
+      hessians++;
+      if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
       decrement = dot(grad, step, m);
     }
     const relative = decrement / scale0;
@@ -194,14 +203,14 @@ export function newtonOnSupport(
     else if (!chord && relative <= CHORD) chordFrom = relative;
     previous = decrement;
   }
-  if (!done || !Number.isFinite(value) || !factor) return { ok: false, steps };
+  if (!done || !Number.isFinite(value) || !factor) return { ok: false, steps, hessians };
   recordTangent(memory, lambda, features, signs, beta, factor, linear, ridge);
   out.fill(0, 0, k);
   for (let q = 0; q < last; q++) out[active[q]] = beta[q];
   out[k] = beta[last];
   scratch.solution = out.slice(0, ws.size);
   scratch.features = ws.features;
-  return { ok: true, steps };
+  return { ok: true, steps, hessians };
 }
 
 /**
