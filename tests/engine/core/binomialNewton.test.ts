@@ -3,6 +3,7 @@
  * and its residual reuse (loss/binomial.ts), each against plain formulas computed here:
  * - logisticRows: log(1 + exp(eta)) - y eta, mu - y and mu (1 - mu) from one exp per row, finite at
  *   |eta| = 1000, against the textbook forms where those are exact;
+ * - the path tangent's second-order prediction is closer to the next solution than the first-order one;
  * - newtonOnSupport: the gradient of the smooth support objective vanishes at its answer (to what its
  *   stopping rule promises), and from a start near the answer one Hessian serves (the chord step);
  * - the bound loss's value, gradient and residual follow an image changed in place (the reuse is
@@ -12,6 +13,7 @@
 import { describe, expect, it } from 'vitest';
 import { FREE } from '../../../server/engine/core/loss';
 import { logisticRows } from '../../../server/engine/core/logisticRows';
+import { predict } from '../../../server/engine/core/pathTangent';
 import { NewtonScratch, newtonOnSupport } from '../../../server/engine/core/polishNewton';
 import { makeWorkingSet, type Problem } from '../../../server/engine/core/problem';
 import { prepareProblem } from '../../../server/engine/path/setup';
@@ -113,6 +115,34 @@ describe('newtonOnSupport', () => {
     expect(outcome.steps).toBeGreaterThanOrEqual(2);
     gradientAt(out).forEach((g, q) => expect(Math.abs(g), `gradient entry ${q}: ${g} (tolerance ${GRADIENT})`).toBeLessThanOrEqual(GRADIENT));
     for (let b = 0; b < ws.size; b++) expectClose(`coefficient ${b}`, out[b], solved[b], 1e-10);
+  });
+});
+
+describe('path tangent (predictor along lambda on a fixed support)', () => {
+  it('predicts the next solution with the quadratic term closer than with the tangent alone', () => {
+    const ws = makeWorkingSet(problem.penalty, Int32Array.from({ length: p }, (_, u) => u), true);
+    const active = [0, 1, 2];
+    const sign = new Int8Array(p);
+    sign.set([1, -1, 1]);
+    const at = (lambda: number) => ({ ws, active, sign, l1: new Float64Array(p).fill(0.7 * lambda), l2: new Float64Array(p).fill(0.3 * lambda), lambda });
+    const grid = [0.05, 0.045, 0.0405];
+    const memory = {};
+    const scratch = new NewtonScratch(n);
+    const out = new Float64Array(ws.size);
+    newtonOnSupport(problem, at(grid[0]), out, 100, memory, scratch);
+    newtonOnSupport(problem, at(grid[1]), out, 100, memory, scratch);
+    const truth = new Float64Array(ws.size);
+    newtonOnSupport(problem, at(grid[2]), truth, 100, {}, new NewtonScratch(n));
+    const start = Float64Array.from([...active.map((b) => out[b]), out[ws.k]]);
+    const second = Float64Array.from(start);
+    predict(memory, grid[2], Int32Array.from(active, (b) => ws.features[b]), Int8Array.from(active, (b) => sign[b]), second);
+    const tangent = (memory as { tangent?: { direction: Float64Array } }).tangent;
+    expect(tangent).toBeDefined();
+    const first = Float64Array.from(start, (v, q) => v + (grid[2] - grid[1]) * (tangent as { direction: Float64Array }).direction[q]);
+    const wanted = [...active.map((b) => truth[b]), truth[ws.k]];
+    const error = (v: Float64Array) => Math.max(...wanted.map((t, q) => Math.abs(v[q] - t)));
+    expect(error(first), 'the first-order prediction is not exact').toBeGreaterThan(0);
+    expect(error(second), `second-order error ${error(second)}, first-order ${error(first)}`).toBeLessThan(0.2 * error(first));
   });
 });
 
