@@ -32,13 +32,17 @@ function sameArrays(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   return true;
 }
 
-/** Moves `beta` (support values, then the intercept) to the prediction for `lambda` when it applies. */
-export function predict(memory: SupportMemory, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): void {
+/**
+ * Moves `beta` (support values, then the intercept) to the prediction for `lambda` when it applies;
+ * says whether it did.
+ */
+export function predict(memory: SupportMemory, lambda: number, features: Int32Array, signs: Int8Array, beta: Float64Array): boolean {
   const t = memory.tangent;
-  if (!t || !(lambda < t.lambda) || !sameArrays(t.features, features) || !sameArrays(t.signs, signs) || !sameArrays(t.solution, beta)) return;
+  if (!t || !(lambda < t.lambda) || !sameArrays(t.features, features) || !sameArrays(t.signs, signs) || !sameArrays(t.solution, beta)) return false;
   const delta = lambda - t.lambda;
   const change = t.change;
   for (let q = 0; q < beta.length; q++) beta[q] += delta * t.direction[q] + (change ? 0.5 * delta * delta * change[q] : 0);
+  return true;
 }
 
 /**

@@ -34,9 +34,21 @@ const CONTRACTION = 1e-2;
 
 /**
  * Buffers of length n (and m n for the weighted columns) reused by every Newton solve on one
- * problem: scratch only, no information passes from one call to the next through them except the
- * residual at the last solution (`solution`, `residual`), which the loss's negativeGradient reuses.
+ * problem. Information passes from one call to the next only as: the residual at the last solution
+ * (`solution`, `residual`), which the loss's negativeGradient reuses; and the last Hessian with the
+ * weights it was built from (`last`), which the next solve at the same lambda (the polish's next
+ * round, a column more or less) borders instead of rebuilding (see newtonOnSupport).
  */
+/** A Hessian kept for the next solve at the same lambda (NewtonScratch.last). */
+interface KeptHessian {
+  hessian: Float64Array;
+  features: Int32Array;
+  weight: Float64Array;
+  lambda: number;
+  /** Relative Newton decrement at the point it was built: how far that point was from the answer. */
+  decrement: number;
+}
+
 export class NewtonScratch {
   eta: Float64Array;
   trialEta: Float64Array;
@@ -52,6 +64,8 @@ export class NewtonScratch {
    */
   solution: Float64Array = new Float64Array(0);
   features: Int32Array = new Int32Array(0);
+  /** The last Hessian built (without the ridge; intercept last), its columns, weights, lambda and decrement. */
+  last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), lambda: NaN, decrement: 0 };
 
   constructor(readonly n: number) {
     this.eta = new Float64Array(n);
@@ -66,6 +80,16 @@ export class NewtonScratch {
   weightedFor(columns: number): Float64Array {
     if (this.weighted.length < columns * this.n) this.weighted = new Float64Array(columns * this.n);
     return this.weighted;
+  }
+
+  /** Keeps a copy of a Hessian just built (no ridge), its columns and the weights it used. */
+  remember(hessian: Float64Array, features: Int32Array, lambda: number): void {
+    const last = this.last;
+    last.hessian = hessian.slice();
+    last.features = features;
+    if (last.weight.length !== this.n) last.weight = new Float64Array(this.n);
+    last.weight.set(this.weight);
+    last.lambda = lambda;
   }
 
   /** Swaps the trial buffers in after an accepted step. */
@@ -126,7 +150,7 @@ export function newtonOnSupport(
     ridge[q] = l2[a];
   }
   beta[last] = out[k];
-  predict(memory, lambda, features, signs, beta);
+  const predicted = predict(memory, lambda, features, signs, beta);
   const penaltyOf = (v: Float64Array): number => {
     let s = 0;
     for (let q = 0; q < last; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
@@ -144,6 +168,17 @@ export function newtonOnSupport(
   // previous step's decrement.
   let chordFrom = 0;
   let previous = 0;
+  if (!predicted && scratch.last.lambda === lambda) {
+    // The polish's next round at this lambda starts where the last solve ended, a column more or
+    // less: the last Hessian, bordered with the new columns at the same weights, is that point's
+    // Hessian up to the last chord steps. Its first step is taken as a chord step (never a final
+    // one by itself), and the Hessian is rebuilt as soon as a step contracts too little.
+    bordered(x, n, scratch.last, features, hess);
+    for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
+    factor = new SymmetricFactor(hess, m);
+    chordFrom = Math.max(scratch.last.decrement, Number.MIN_VALUE);
+    previous = Infinity;
+  }
   let steps = 0;
   let hessians = 0;
   let done = false;
@@ -158,15 +193,19 @@ export function newtonOnSupport(
       if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
       decrement = dot(grad, step, m);
       chord = decrement <= CONTRACTION * previous;
+      // A bordered factor's point is about as far from the answer as the start (its first step).
+      if (chord) chordFrom = Math.max(chordFrom, decrement / Math.max(1, Math.abs(value)));
     }
     if (!chord) {
       chordFrom = 0;
       weightedGram(x, n, offsets, scratch.weight, weighted, hess);
+      scratch.remember(hess, features, lambda);
       for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
       factor = new SymmetricFactor(hess, m);
       hessians++;
       if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
       decrement = dot(grad, step, m);
+      scratch.last.decrement = decrement / scale0;
     }
     const relative = decrement / scale0;
     const atRounding = !chord && relative / 2 <= ROUNDING;
@@ -199,7 +238,7 @@ export function newtonOnSupport(
       done = true;
       break;
     }
-    if (!full) chordFrom = 0;
+    if (!full || (chord && chordFrom > CHORD)) chordFrom = 0;
     else if (!chord && relative <= CHORD) chordFrom = relative;
     previous = decrement;
   }
@@ -281,6 +320,36 @@ function gradientOf(x: Float64Array, n: number, offsets: Int32Array, r: Float64A
 /** out = from + t d */
 function moveAlong(from: Float64Array, d: Float64Array, t: number, out: Float64Array, n: number): void {
   for (let i = 0; i < n; i++) out[i] = from[i] + t * d[i];
+}
+
+/**
+ * hess (m x m, intercept last) = [X_F 1]' W [X_F 1] / n for the columns `features` at the weights of
+ * `last`: entries of columns it already has are copied, new columns' rows computed (m n each).
+ */
+function bordered(x: Float64Array, n: number, last: KeptHessian, features: Int32Array, hess: Float64Array): void {
+  const m = features.length + 1;
+  const mo = last.features.length + 1;
+  const index = new Int32Array(m);
+  for (let q = 0; q < m - 1; q++) index[q] = last.features.indexOf(features[q]);
+  index[m - 1] = mo - 1;
+  const w = last.weight;
+  for (let q = 0; q < m; q++) {
+    if (index[q] >= 0) {
+      for (let r = 0; r < m; r++) if (index[r] >= 0) hess[q * m + r] = last.hessian[index[q] * mo + index[r]];
+      continue;
+    }
+    const off = features[q] * n;
+    for (let r = 0; r < m; r++) {
+      let s = 0;
+      if (r === m - 1) for (let i = 0; i < n; i++) s += w[i] * x[off + i];
+      else {
+        const other = features[r] * n;
+        for (let i = 0; i < n; i++) s += w[i] * x[off + i] * x[other + i];
+      }
+      hess[q * m + r] = s / n;
+      hess[r * m + q] = s / n;
+    }
+  }
 }
 
 function dot(a: Float64Array, b: Float64Array, m: number): number {

@@ -3,6 +3,7 @@
  * and its residual reuse (loss/binomial.ts), each against plain formulas computed here:
  * - logisticRows: log(1 + exp(eta)) - y eta, mu - y and mu (1 - mu) from one exp per row, finite at
  *   |eta| = 1000, against the textbook forms where those are exact;
+ * - the polish's next round at the same lambda borders the last Hessian (fewer Hessians, same answer);
  * - the path tangent's second-order prediction is closer to the next solution than the first-order one;
  * - newtonOnSupport: the gradient of the smooth support objective vanishes at its answer (to what its
  *   stopping rule promises), and from a start near the answer one Hessian serves (the chord step);
@@ -115,6 +116,31 @@ describe('newtonOnSupport', () => {
     expect(outcome.steps).toBeGreaterThanOrEqual(2);
     gradientAt(out).forEach((g, q) => expect(Math.abs(g), `gradient entry ${q}: ${g} (tolerance ${GRADIENT})`).toBeLessThanOrEqual(GRADIENT));
     for (let b = 0; b < ws.size; b++) expectClose(`coefficient ${b}`, out[b], solved[b], 1e-10);
+  });
+});
+
+describe("the polish's next round at the same lambda", () => {
+  it('borders the last Hessian with the new column instead of building one, and reaches the same answer', () => {
+    const ws = makeWorkingSet(problem.penalty, Int32Array.from({ length: p }, (_, u) => u), true);
+    const lambda = 0.03;
+    const sign = new Int8Array(p);
+    sign.set([1, -1, 0, 0, 0, 0]);
+    const l1 = new Float64Array(p).fill(lambda);
+    const l2 = new Float64Array(p);
+    const scratch = new NewtonScratch(n);
+    const out = new Float64Array(ws.size);
+    expect(newtonOnSupport(problem, { ws, active: [0, 1], sign, l1, l2, lambda }, out, 100, {}, scratch).ok).toBe(true);
+    // Column 2 joins with the sign of its gradient, as the polish's KKT check would add it.
+    const joined = Int8Array.from(sign);
+    joined[2] = problem.loss.negativeGradient(ws, [0, 1], out)[2] > 0 ? 1 : -1;
+    const support = { ws, active: [0, 1, 2], sign: joined, l1, l2, lambda };
+    const next = Float64Array.from(out);
+    const outcome = newtonOnSupport(problem, support, next, 100, {}, scratch);
+    const fresh = Float64Array.from(out);
+    const reference = newtonOnSupport(problem, support, fresh, 100, {}, new NewtonScratch(n));
+    expect(outcome.ok && reference.ok).toBe(true);
+    expect(outcome.hessians, `Hessians bordered run ${outcome.hessians}, fresh run ${reference.hessians}`).toBeLessThan(reference.hessians);
+    for (let b = 0; b < ws.size; b++) expectClose(`coefficient ${b}`, next[b], fresh[b], 1e-10);
   });
 });
 
