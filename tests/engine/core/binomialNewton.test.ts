@@ -9,7 +9,9 @@
  *   stopping rule promises), and from a start near the answer one Hessian serves (the chord step);
  * - the bound loss's value, gradient and residual follow an image changed in place (the reuse is
  *   keyed on the image's values, never on the array);
- * - negativeGradient: x_j'(y - mu)/n off the support, as the polish's KKT check reads it.
+ * - negativeGradient: x_j'(y - mu)/n off the support, as the polish's KKT check reads it;
+ * - the duality gap of a point is the same to the bit whatever was asked before (the kept residual
+ *   and entropy sums are keyed on values, never on arrays or on the order of questions).
  */
 import { describe, expect, it } from 'vitest';
 import { FREE } from '../../../server/engine/core/loss';
@@ -17,6 +19,7 @@ import { logisticRows } from '../../../server/engine/core/logisticRows';
 import { predict } from '../../../server/engine/core/pathTangent';
 import { NewtonScratch, newtonOnSupport } from '../../../server/engine/core/polishNewton';
 import { makeWorkingSet, type Problem } from '../../../server/engine/core/problem';
+import { checkFull } from '../../../server/engine/path/check';
 import { prepareProblem } from '../../../server/engine/path/setup';
 import { createRng } from '../../../server/engine/random';
 import { expectClose } from '../../support/numbers';
@@ -226,5 +229,23 @@ describe('binomial loss: residual reuse and the KKT gradient', () => {
       const want = expected(w);
       for (let b = 0; b < ws.k; b++) if (!active.includes(b)) expectClose(`x_${b}'theta`, got[b], want[b], 1e-13);
     }
+  });
+
+  it('the full check gives the same gap to the bit after other questions as on a fresh problem', () => {
+    const at = (pr: typeof problem, dual: Parameters<typeof checkFull>[1], lambda: number) => {
+      const pen = pr.penalty;
+      const coef = Float64Array.from({ length: p }, (_, j) => (j < 3 ? 0.3 - 0.2 * j : 0));
+      return checkFull(pr, dual, Int32Array.from({ length: pen.nBlocks }, (_, u) => u), pen.start, coef, 0.1, lambda);
+    };
+    const options = { family: 'binomial' as const, penalty: 'lasso' as const, standardize: true };
+    const used = prepareProblem({ n, p, x, terms: ['a', 'b', 'c', 'd', 'e', 'f'] }, y, options);
+    at(used.problem, used.dual, 0.05);
+    at(used.problem, used.dual, 0.02);
+    const again = at(used.problem, used.dual, 0.05);
+    const fresh = prepareProblem({ n, p, x, terms: ['a', 'b', 'c', 'd', 'e', 'f'] }, y, options);
+    const first = at(fresh.problem, fresh.dual, 0.05);
+    expect(again.gap).toBe(first.gap);
+    expect(again.loss).toBe(first.loss);
+    expect(Array.from(again.g)).toEqual(Array.from(first.g));
   });
 });

@@ -15,6 +15,7 @@ import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRo
 export function binomialLoss(problem: Problem): LossRole {
   const { n, y, yMean } = problem;
   const thetaP = new Float64Array(n);
+  const entropy = new EntropyMemo(n);
   const scratch = new NewtonScratch(n);
   const memo = new ResidualMemo(problem);
   return {
@@ -34,7 +35,7 @@ export function binomialLoss(problem: Problem): LossRole {
       return { loss, g, residual: { ycTheta: 0, theta } };
     },
     nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory, scratch),
-    dual: (projection) => dual(problem, projection, thetaP),
+    dual: (projection) => dual(problem, projection, thetaP, entropy),
     solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory, scratch),
     negativeGradient(ws, active, w) {
       // Right after a Newton solve at w (the polish's KKT check), its residual mu - y is at hand.
@@ -123,6 +124,35 @@ function transposeColumns(x: Float64Array, n: number, columns: number[], v: Floa
   }
 }
 
+/**
+ * The dual's entropy sum at the last (projected residual, kappa, tau) seen: the full check right
+ * after the solver's gap check at the same point and lambda usually ends at the same dual point
+ * (the same box step tau), and then the sum (two logs a row) is the same to the bit.
+ */
+class EntropyMemo {
+  private readonly thetaP: Float64Array;
+  private kappa = NaN;
+  private tau = NaN;
+  private entropy = NaN;
+
+  constructor(n: number) {
+    this.thetaP = new Float64Array(n);
+  }
+
+  /** The kept sum when kappa, tau and the projected residual are the same to the bit; else NaN. */
+  lookup(thetaP: Float64Array, kappa: number, tau: number): number {
+    if (kappa !== this.kappa || tau !== this.tau || !sameValues(this.thetaP, thetaP)) return NaN;
+    return this.entropy;
+  }
+
+  keep(thetaP: Float64Array, kappa: number, tau: number, entropy: number): void {
+    this.thetaP.set(thetaP);
+    this.kappa = kappa;
+    this.tau = tau;
+    this.entropy = entropy;
+  }
+}
+
 function sameValues(a: Float64Array, b: Float64Array): boolean {
   if (a.length === 0 || a.length > b.length) return false;
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
@@ -200,7 +230,7 @@ const NULL_NEWTON_STEPS = 100;
  * kappa theta_null (kappa < 1 keeps s strictly inside (0, 1) and every block strictly feasible:
  * ||kappa X_u'theta_null|| <= kappa lambda_max w_u < lambda w_u) just far enough to be feasible.
  */
-function dual(problem: Problem, d: DualProjection, thetaP: Float64Array): number {
+function dual(problem: Problem, d: DualProjection, thetaP: Float64Array, memo: EntropyMemo): number {
   const pen = problem.penalty;
   const { lambda, blocks, a, uCols, delta } = d;
   const { n, x, y } = problem;
@@ -233,11 +263,15 @@ function dual(problem: Problem, d: DualProjection, thetaP: Float64Array): number
     }
   }
   tau = Math.max(0, tau);
-  let entropy = 0;
-  for (let i = 0; i < n; i++) {
-    const base = kappa * (anchor ? anchor[i] : 0);
-    const s = y[i] - n * (base + tau * (thetaP[i] - base));
-    if (s > 0 && s < 1) entropy += s * Math.log(s) + (1 - s) * Math.log1p(-s);
+  let entropy = memo.lookup(thetaP, kappa, tau);
+  if (Number.isNaN(entropy)) {
+    entropy = 0;
+    for (let i = 0; i < n; i++) {
+      const base = kappa * (anchor ? anchor[i] : 0);
+      const s = y[i] - n * (base + tau * (thetaP[i] - base));
+      if (s > 0 && s < 1) entropy += s * Math.log(s) + (1 - s) * Math.log1p(-s);
+    }
+    memo.keep(thetaP, kappa, tau, entropy);
   }
   scaleScope(pen.start, pen.features, blocks, a, tau, d.nullPoint.g, kappa);
   let conj = 0;
