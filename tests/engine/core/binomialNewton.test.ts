@@ -239,11 +239,17 @@ describe('binomial loss: residual reuse and the KKT gradient', () => {
     };
     const options = { family: 'binomial' as const, penalty: 'lasso' as const, standardize: true };
     const used = prepareProblem({ n, p, x, terms: ['a', 'b', 'c', 'd', 'e', 'f'] }, y, options);
-    at(used.problem, used.dual, 0.05);
-    at(used.problem, used.dual, 0.02);
-    const again = at(used.problem, used.dual, 0.05);
-    const fresh = prepareProblem({ n, p, x, terms: ['a', 'b', 'c', 'd', 'e', 'f'] }, y, options);
-    const first = at(fresh.problem, fresh.dual, 0.05);
+    // Below lambda_max, so the dual's anchor (kappa) and its box step differ between the lambdas.
+    const [high, low] = [0.5 * used.lambdaMax, 0.2 * used.lambdaMax];
+    const sequence = [high, low, high].map((lambda) => at(used.problem, used.dual, lambda));
+    const freshAt = (lambda: number) => {
+      const fresh = prepareProblem({ n, p, x, terms: ['a', 'b', 'c', 'd', 'e', 'f'] }, y, options);
+      return at(fresh.problem, fresh.dual, lambda);
+    };
+    const [first, second] = [freshAt(high), freshAt(low)];
+    expect(first.gap).not.toBe(second.gap);
+    expect(sequence.map((c) => c.gap)).toEqual([first.gap, second.gap, first.gap]);
+    const again = sequence[2];
     expect(again.gap).toBe(first.gap);
     expect(again.loss).toBe(first.loss);
     expect(Array.from(again.g)).toEqual(Array.from(first.g));
