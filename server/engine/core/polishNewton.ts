@@ -1,4 +1,5 @@
 import { FREE, type SupportMemory, type SupportProblem } from './loss/role';
+import { designImage } from './loss/design';
 import { logisticRows, weightedGram } from './logisticRows';
 import type { Problem } from './problem';
 import { predict, recordTangent } from './pathTangent';
@@ -64,6 +65,11 @@ export class NewtonScratch {
    */
   solution: Float64Array = new Float64Array(0);
   features: Int32Array = new Int32Array(0);
+  /**
+   * Told the image, residual mu - y and mean loss of an accepted ending step, whose image is exactly
+   * the working set's (designImage): the loss keeps them for the gap check at the same point.
+   */
+  exact: ((eta: Float64Array, residual: Float64Array, loss: number) => void) | null = null;
   /** The last Hessian built (without the ridge; intercept last), its columns, weights, lambda and decrement. */
   last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), lambda: NaN, decrement: 0 };
 
@@ -163,6 +169,8 @@ export function newtonOnSupport(
   const hess = new Float64Array(m * m);
   const step = new Float64Array(m);
   const trial = new Float64Array(m);
+  // The working vector (zero off the support) for the exact image of an ending step.
+  const full = new Float64Array(ws.size);
   let factor: SymmetricFactor | null = null;
   // Relative decrement at the factor's point when chord steps may follow (CHORD), else 0; and the
   // previous step's decrement.
@@ -209,14 +217,24 @@ export function newtonOnSupport(
     }
     const relative = decrement / scale0;
     const atRounding = !chord && relative / 2 <= ROUNDING;
-    // The step's image: eta moves by -scale * (X_A d + d_0).
-    imageOf(x, n, offsets, step, scratch.direction);
+    const predicted = chord ? chordFrom * relative : relative * relative;
+    // The step that ends the solve (if taken in full) gets its image exactly as the solver's working
+    // set computes it (designImage), so the gap check at the polished point finds its residual kept.
+    const ending = atRounding || predicted <= FINAL * FINAL;
+    // Otherwise eta moves by -scale * (X_A d + d_0), the step's image.
+    if (!ending) imageOf(x, n, offsets, step, scratch.direction);
     let scale = 1;
     let accepted = false;
+    let loss = NaN;
     for (let half = 0; half < 40; half++, scale /= 2) {
       for (let q = 0; q < m; q++) trial[q] = beta[q] - scale * step[q];
-      moveAlong(scratch.eta, scratch.direction, -scale, scratch.trialEta, n);
-      const candidate = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n + penaltyOf(trial);
+      if (ending) {
+        for (let q = 0; q < last; q++) full[active[q]] = trial[q];
+        full[k] = trial[last];
+        designImage(problem, ws, full, scratch.trialEta, trial[last]);
+      } else moveAlong(scratch.eta, scratch.direction, -scale, scratch.trialEta, n);
+      loss = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n;
+      const candidate = loss + penaltyOf(trial);
       // A chord step below the value's rounding is taken like a Newton step there (ROUNDING).
       if (candidate <= value || ((atRounding || (chord && relative / 2 <= ROUNDING)) && Number.isFinite(candidate))) {
         value = Math.min(value, candidate);
@@ -232,13 +250,13 @@ export function newtonOnSupport(
     for (let q = 0; q < m; q++) if (Math.abs(trial[q] - beta[q]) > 1e-13 * Math.max(1, Math.abs(beta[q]))) moved = true;
     beta.set(trial);
     scratch.accept();
-    const full = scale === 1;
-    const predicted = chord ? chordFrom * relative : relative * relative;
-    if (!moved || atRounding || (full && predicted <= FINAL * FINAL)) {
+    if (ending) scratch.exact?.(scratch.eta, scratch.residual, loss);
+    const whole = scale === 1;
+    if (!moved || atRounding || (whole && predicted <= FINAL * FINAL)) {
       done = true;
       break;
     }
-    if (!full || (chord && chordFrom > CHORD)) chordFrom = 0;
+    if (!whole || (chord && chordFrom > CHORD)) chordFrom = 0;
     else if (!chord && relative <= CHORD) chordFrom = relative;
     previous = decrement;
   }

@@ -254,4 +254,27 @@ describe('binomial loss: residual reuse and the KKT gradient', () => {
     expect(again.loss).toBe(first.loss);
     expect(Array.from(again.g)).toEqual(Array.from(first.g));
   });
+
+  it("after a solve on a support, the gap check's value and gradient at its answer are a fresh problem's, to the bit", () => {
+    const options = { family: 'binomial' as const, penalty: 'lasso' as const, standardize: true };
+    const terms = ['a', 'b', 'c', 'd', 'e', 'f'];
+    const [solved, fresh] = [prepareProblem({ n, p, x, terms }, y, options), prepareProblem({ n, p, x, terms }, y, options)];
+    const wsOf = (pr: typeof problem) => makeWorkingSet(pr.penalty, Int32Array.from({ length: p }, (_, u) => u), true);
+    const ws = wsOf(solved.problem);
+    const sign = new Int8Array(p);
+    sign.set([1, -1, 1]);
+    const lambda = 0.02;
+    const out = new Float64Array(ws.size);
+    const support = { ws, active: [0, 1, 2], sign, l1: new Float64Array(p).fill(lambda), l2: new Float64Array(p), lambda };
+    expect(solved.problem.loss.solveOnSupport(support, out, 100, {}).ok).toBe(true);
+    const answer = (pr: typeof problem, wsUsed: typeof ws) => {
+      const bound = pr.loss.bind(wsUsed);
+      const img = new Float64Array(n);
+      bound.image(out, img);
+      const grad = new Float64Array(wsUsed.size);
+      bound.gradient(img, out, grad);
+      return [bound.value(img, out), ...grad];
+    };
+    expect(answer(solved.problem, ws)).toEqual(answer(fresh.problem, wsOf(fresh.problem)));
+  });
 });

@@ -18,6 +18,7 @@ export function binomialLoss(problem: Problem): LossRole {
   const entropy = new EntropyMemo(n);
   const scratch = new NewtonScratch(n);
   const memo = new ResidualMemo(problem);
+  scratch.exact = (eta, residual, loss) => memo.seed(eta, residual, loss);
   return {
     family: 'binomial',
     form: 'design',
@@ -79,6 +80,14 @@ class ResidualMemo {
   constructor(private readonly problem: Problem) {
     this.residual = new Float64Array(problem.n);
     this.seen = new Float64Array(problem.n);
+  }
+
+  /** Keeps what logisticRows gave at eta (mean loss, mu - y), computed elsewhere (the Newton loop). */
+  seed(eta: Float64Array, residual: Float64Array, loss: number): void {
+    this.seen.set(eta);
+    this.residual.set(residual);
+    this.loss = loss;
+    this.valid = true;
   }
 
   /** Mean loss at eta; `residual` then holds mu - y there. */
