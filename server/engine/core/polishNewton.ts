@@ -156,7 +156,7 @@ export function newtonOnSupport(
     ridge[q] = l2[a];
   }
   beta[last] = out[k];
-  const predicted = predict(memory, lambda, features, signs, beta);
+  const onTangent = predict(memory, lambda, features, signs, beta);
   const penaltyOf = (v: Float64Array): number => {
     let s = 0;
     for (let q = 0; q < last; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
@@ -176,7 +176,7 @@ export function newtonOnSupport(
   // previous step's decrement.
   let chordFrom = 0;
   let previous = 0;
-  if (!predicted && scratch.last.lambda === lambda) {
+  if (!onTangent && scratch.last.lambda === lambda) {
     // The polish's next round at this lambda starts where the last solve ended, a column more or
     // less: the last Hessian, bordered with the new columns at the same weights, is that point's
     // Hessian up to the last chord steps. Its first step is taken as a chord step (never a final
