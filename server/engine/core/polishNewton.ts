@@ -70,6 +70,8 @@ export class NewtonScratch {
    * the working set's (designImage): the loss keeps them for the gap check at the same point.
    */
   exact: ((eta: Float64Array, residual: Float64Array, loss: number) => void) | null = null;
+  /** The mean loss at `solution` (whose image, residual and weights are in eta, residual, weight). */
+  loss = NaN;
   /** The last Hessian built (without the ridge; intercept last), its columns, weights, lambda and decrement. */
   last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), lambda: NaN, decrement: 0 };
 
@@ -139,6 +141,9 @@ export function newtonOnSupport(
   const k = ws.k;
   const m = active.length + 1;
   const last = m - 1;
+  // The polish's next round after a column joined starts at the last solution (the new column at 0):
+  // its image, residual and weights are still in the scratch buffers.
+  const resume = scratch.features === ws.features && sameStart(scratch.solution, out);
   scratch.solution = new Float64Array(0);
   const features = new Int32Array(last);
   const offsets = new Int32Array(last);
@@ -162,8 +167,12 @@ export function newtonOnSupport(
     for (let q = 0; q < last; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
     return s;
   };
-  imageOf(x, n, offsets, beta, scratch.eta);
-  let value = logisticRows(scratch.eta, y, n, scratch.residual, scratch.weight) / n + penaltyOf(beta);
+  let loss = scratch.loss;
+  if (onTangent || !resume) {
+    imageOf(x, n, offsets, beta, scratch.eta);
+    loss = logisticRows(scratch.eta, y, n, scratch.residual, scratch.weight) / n;
+  }
+  let value = loss + penaltyOf(beta);
   const weighted = scratch.weightedFor(last);
   const grad = new Float64Array(m);
   const hess = new Float64Array(m * m);
@@ -225,7 +234,7 @@ export function newtonOnSupport(
     if (!ending) imageOf(x, n, offsets, step, scratch.direction);
     let scale = 1;
     let accepted = false;
-    let loss = NaN;
+    let trialLoss = NaN;
     for (let half = 0; half < 40; half++, scale /= 2) {
       for (let q = 0; q < m; q++) trial[q] = beta[q] - scale * step[q];
       if (ending) {
@@ -233,8 +242,8 @@ export function newtonOnSupport(
         full[k] = trial[last];
         designImage(problem, ws, full, scratch.trialEta, trial[last]);
       } else moveAlong(scratch.eta, scratch.direction, -scale, scratch.trialEta, n);
-      loss = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n;
-      const candidate = loss + penaltyOf(trial);
+      trialLoss = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n;
+      const candidate = trialLoss + penaltyOf(trial);
       // A chord step below the value's rounding is taken like a Newton step there (ROUNDING).
       if (candidate <= value || ((atRounding || (chord && relative / 2 <= ROUNDING)) && Number.isFinite(candidate))) {
         value = Math.min(value, candidate);
@@ -250,6 +259,7 @@ export function newtonOnSupport(
     for (let q = 0; q < m; q++) if (Math.abs(trial[q] - beta[q]) > 1e-13 * Math.max(1, Math.abs(beta[q]))) moved = true;
     beta.set(trial);
     scratch.accept();
+    loss = trialLoss;
     if (ending) scratch.exact?.(scratch.eta, scratch.residual, loss);
     const whole = scale === 1;
     if (!moved || atRounding || (whole && predicted <= FINAL * FINAL)) {
@@ -266,6 +276,7 @@ export function newtonOnSupport(
   for (let q = 0; q < last; q++) out[active[q]] = beta[q];
   out[k] = beta[last];
   scratch.solution = out.slice(0, ws.size);
+  scratch.loss = loss;
   scratch.features = ws.features;
   return { ok: true, steps, hessians };
 }
@@ -368,6 +379,13 @@ function bordered(x: Float64Array, n: number, last: KeptHessian, features: Int32
       hess[r * m + q] = s / n;
     }
   }
+}
+
+/** The start is the last solution to the bit (a round that only added columns, at 0). */
+function sameStart(solution: Float64Array, out: Float64Array): boolean {
+  if (solution.length === 0 || solution.length > out.length) return false;
+  for (let b = 0; b < solution.length; b++) if (solution[b] !== out[b]) return false;
+  return true;
 }
 
 function dot(a: Float64Array, b: Float64Array, m: number): number {
