@@ -33,23 +33,25 @@ const FINAL = 1e-10;
 const CHORD = 1e-4;
 const CONTRACTION = 1e-2;
 
-/**
- * Buffers of length n (and m n for the weighted columns) reused by every Newton solve on one
- * problem. Information passes from one call to the next only as: the residual at the last solution
- * (`solution`, `residual`), which the loss's negativeGradient reuses; and the last Hessian with the
- * weights it was built from (`last`), which the next solve at the same lambda (the polish's next
- * round, a column more or less) borders instead of rebuilding (see newtonOnSupport).
- */
-/** A Hessian kept for the next solve at the same lambda (NewtonScratch.last). */
+/** The last Hessian built, kept for the polish's next round (NewtonScratch.last). */
 interface KeptHessian {
   hessian: Float64Array;
   features: Int32Array;
   weight: Float64Array;
-  lambda: number;
   /** Relative Newton decrement at the point it was built: how far that point was from the answer. */
   decrement: number;
+  /** The solve that built it (NewtonScratch.solves). */
+  solve: number;
 }
 
+/**
+ * Buffers of length n (and m n for the weighted columns) reused by every Newton solve on one
+ * problem. Information passes from one call to the next only as: the last solution with its image,
+ * residual, weights and loss (`solution`, `eta`, `residual`, `weight`, `loss`), which the loss's
+ * negativeGradient reads and a next round that only added columns resumes from; and the last
+ * Hessian with the weights it was built from (`last`), which that round borders with the new
+ * columns instead of rebuilding (see newtonOnSupport).
+ */
 export class NewtonScratch {
   eta: Float64Array;
   trialEta: Float64Array;
@@ -72,8 +74,10 @@ export class NewtonScratch {
   exact: ((eta: Float64Array, residual: Float64Array, loss: number) => void) | null = null;
   /** The mean loss at `solution` (whose image, residual and weights are in eta, residual, weight). */
   loss = NaN;
-  /** The last Hessian built (without the ridge; intercept last), its columns, weights, lambda and decrement. */
-  last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), lambda: NaN, decrement: 0 };
+  /** The last Hessian built (without the ridge; intercept last), its columns, weights and decrement. */
+  last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), decrement: 0, solve: 0 };
+  /** Solves started on this problem (numbers the solve that built `last`). */
+  solves = 0;
 
   constructor(readonly n: number) {
     this.eta = new Float64Array(n);
@@ -91,13 +95,13 @@ export class NewtonScratch {
   }
 
   /** Keeps a copy of a Hessian just built (no ridge), its columns and the weights it used. */
-  remember(hessian: Float64Array, features: Int32Array, lambda: number): void {
+  remember(hessian: Float64Array, features: Int32Array, solve: number): void {
     const last = this.last;
+    last.solve = solve;
     last.hessian = hessian.slice();
     last.features = features;
     if (last.weight.length !== this.n) last.weight = new Float64Array(this.n);
     last.weight.set(this.weight);
-    last.lambda = lambda;
   }
 
   /** Swaps the trial buffers in after an accepted step. */
@@ -144,6 +148,7 @@ export function newtonOnSupport(
   // The polish's next round after a column joined starts at the last solution (the new column at 0):
   // its image, residual and weights are still in the scratch buffers.
   const resume = scratch.features === ws.features && sameStart(scratch.solution, out);
+  const solve = ++scratch.solves;
   scratch.solution = new Float64Array(0);
   const features = new Int32Array(last);
   const offsets = new Int32Array(last);
@@ -185,16 +190,19 @@ export function newtonOnSupport(
   // previous step's decrement.
   let chordFrom = 0;
   let previous = 0;
-  if (!onTangent && scratch.last.lambda === lambda) {
-    // The polish's next round at this lambda starts where the last solve ended, a column more or
-    // less: the last Hessian, bordered with the new columns at the same weights, is that point's
-    // Hessian up to the last chord steps. Its first step is taken as a chord step (never a final
-    // one by itself), and the Hessian is rebuilt as soon as a step contracts too little.
+  let kept = false;
+  if (!onTangent && resume && scratch.last.solve === solve - 1) {
+    // The polish's next round after columns joined starts where the last solve ended, and that
+    // solve built the last Hessian: bordered with the new columns at the same weights, it is the
+    // Hessian at a point whose decrement was last.decrement. The first step is a chord step whose
+    // factor's point lies within (sqrt(last.decrement) + sqrt(d))^2 of the answer (d: its own
+    // decrement); the Hessian is rebuilt as soon as a step contracts too little.
     bordered(x, n, scratch.last, features, hess);
     for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
     factor = new SymmetricFactor(hess, m);
     chordFrom = Math.max(scratch.last.decrement, Number.MIN_VALUE);
     previous = Infinity;
+    kept = true;
   }
   let steps = 0;
   let hessians = 0;
@@ -210,13 +218,13 @@ export function newtonOnSupport(
       if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
       decrement = dot(grad, step, m);
       chord = decrement <= CONTRACTION * previous;
-      // A bordered factor's point is about as far from the answer as the start (its first step).
-      if (chord) chordFrom = Math.max(chordFrom, decrement / Math.max(1, Math.abs(value)));
+      if (kept) chordFrom = (Math.sqrt(chordFrom) + Math.sqrt(decrement / scale0)) ** 2;
+      kept = false;
     }
     if (!chord) {
       chordFrom = 0;
       weightedGram(x, n, offsets, scratch.weight, weighted, hess);
-      scratch.remember(hess, features, lambda);
+      scratch.remember(hess, features, solve);
       for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
       factor = new SymmetricFactor(hess, m);
       hessians++;
