@@ -1,3 +1,5 @@
+import type { KeptHessian } from './newtonScratch';
+
 /**
  * Row-wise kernels of the logistic loss shared by the binomial loss role (loss/binomial.ts), its
  * Newton loop (polishNewton.ts) and the unpenalized fit (unpenalized/binomial.ts). One exp per row
@@ -85,4 +87,113 @@ export function weightedGram(
     }
   }
   hess[last * m + last] = sumW / n;
+}
+
+/* Column kernels of the Newton loop (polishNewton.ts) on the support's columns at `offsets`. */
+
+/**
+ * out = v_last + sum_q v_q x_q over the columns at `offsets` (the intercept last in v), four
+ * columns per pass over out (a quarter of its loads and stores).
+ */
+export function imageOf(x: Float64Array, n: number, offsets: Int32Array, v: Float64Array, out: Float64Array): void {
+  const last = offsets.length;
+  out.fill(v[last], 0, n);
+  let q = 0;
+  for (; q + 4 <= last; q += 4) {
+    const c0 = v[q];
+    const c1 = v[q + 1];
+    const c2 = v[q + 2];
+    const c3 = v[q + 3];
+    const o0 = offsets[q];
+    const o1 = offsets[q + 1];
+    const o2 = offsets[q + 2];
+    const o3 = offsets[q + 3];
+    for (let i = 0; i < n; i++) out[i] += c0 * x[o0 + i] + c1 * x[o1 + i] + c2 * x[o2 + i] + c3 * x[o3 + i];
+  }
+  for (; q < last; q++) {
+    const c = v[q];
+    const off = offsets[q];
+    for (let i = 0; i < n; i++) out[i] += c * x[off + i];
+  }
+}
+
+/**
+ * grad_q = x_q'r / n over the columns at `offsets`, four per pass over r, and the intercept's
+ * sum(r) / n last.
+ */
+export function gradientOf(x: Float64Array, n: number, offsets: Int32Array, r: Float64Array, grad: Float64Array): void {
+  const last = offsets.length;
+  let sum = 0;
+  for (let i = 0; i < n; i++) sum += r[i];
+  let q = 0;
+  for (; q + 4 <= last; q += 4) {
+    const o0 = offsets[q];
+    const o1 = offsets[q + 1];
+    const o2 = offsets[q + 2];
+    const o3 = offsets[q + 3];
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = r[i];
+      s0 += t * x[o0 + i];
+      s1 += t * x[o1 + i];
+      s2 += t * x[o2 + i];
+      s3 += t * x[o3 + i];
+    }
+    grad[q] = s0 / n;
+    grad[q + 1] = s1 / n;
+    grad[q + 2] = s2 / n;
+    grad[q + 3] = s3 / n;
+  }
+  for (; q < last; q++) {
+    const off = offsets[q];
+    let g = 0;
+    for (let i = 0; i < n; i++) g += r[i] * x[off + i];
+    grad[q] = g / n;
+  }
+  grad[last] = sum / n;
+}
+
+/** out = from + t d */
+export function moveAlong(from: Float64Array, d: Float64Array, t: number, out: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) out[i] = from[i] + t * d[i];
+}
+
+/**
+ * hess (m x m, intercept last) = [X_F 1]' W [X_F 1] / n for the columns `features` at the weights of
+ * `last`: entries of columns it already has are copied, new columns' rows computed (m n each).
+ */
+export function bordered(x: Float64Array, n: number, last: KeptHessian, features: Int32Array, hess: Float64Array): void {
+  const m = features.length + 1;
+  const mo = last.features.length + 1;
+  const index = new Int32Array(m);
+  for (let q = 0; q < m - 1; q++) index[q] = last.features.indexOf(features[q]);
+  index[m - 1] = mo - 1;
+  const w = last.weight;
+  for (let q = 0; q < m; q++) {
+    if (index[q] >= 0) {
+      for (let r = 0; r < m; r++) if (index[r] >= 0) hess[q * m + r] = last.hessian[index[q] * mo + index[r]];
+      continue;
+    }
+    const off = features[q] * n;
+    for (let r = 0; r < m; r++) {
+      let s = 0;
+      if (r === m - 1) for (let i = 0; i < n; i++) s += w[i] * x[off + i];
+      else {
+        const other = features[r] * n;
+        for (let i = 0; i < n; i++) s += w[i] * x[off + i] * x[other + i];
+      }
+      hess[q * m + r] = s / n;
+      hess[r * m + q] = s / n;
+    }
+  }
+}
+
+/** The start is the last solution to the bit (a round that only added columns, at 0). */
+export function sameStart(solution: Float64Array, out: Float64Array): boolean {
+  if (solution.length === 0 || solution.length > out.length) return false;
+  for (let b = 0; b < solution.length; b++) if (solution[b] !== out[b]) return false;
+  return true;
 }

@@ -1,6 +1,7 @@
 import { FREE, type SupportMemory, type SupportProblem } from './loss/role';
 import { designImage } from './loss/design';
-import { logisticRows, weightedGram } from './logisticRows';
+import { bordered, gradientOf, imageOf, logisticRows, moveAlong, sameStart, weightedGram } from './logisticRows';
+import type { NewtonScratch } from './newtonScratch';
 import type { Problem } from './problem';
 import { predict, recordTangent } from './pathTangent';
 import { SymmetricFactor } from './symmetric';
@@ -33,84 +34,7 @@ const FINAL = 1e-10;
 const CHORD = 1e-4;
 const CONTRACTION = 1e-2;
 
-/** The last Hessian built, kept for the polish's next round (NewtonScratch.last). */
-interface KeptHessian {
-  hessian: Float64Array;
-  features: Int32Array;
-  weight: Float64Array;
-  /** Relative Newton decrement at the point it was built: how far that point was from the answer. */
-  decrement: number;
-  /** The solve that built it (NewtonScratch.solves). */
-  solve: number;
-}
-
-/**
- * Buffers of length n (and m n for the weighted columns) reused by every Newton solve on one
- * problem. Information passes from one call to the next only as: the last solution with its image,
- * residual, weights and loss (`solution`, `eta`, `residual`, `weight`, `loss`), which the loss's
- * negativeGradient reads and a next round that only added columns resumes from; and the last
- * Hessian with the weights it was built from (`last`), which that round borders with the new
- * columns instead of rebuilding (see newtonOnSupport).
- */
-export class NewtonScratch {
-  eta: Float64Array;
-  trialEta: Float64Array;
-  residual: Float64Array;
-  trialResidual: Float64Array;
-  weight: Float64Array;
-  trialWeight: Float64Array;
-  direction: Float64Array;
-  weighted = new Float64Array(0);
-  /**
-   * The working vector (coefficients, intercept) of the last successful solve and its features
-   * (empty when the last solve failed; typed arrays from the start keep the object's shape stable).
-   */
-  solution: Float64Array = new Float64Array(0);
-  features: Int32Array = new Int32Array(0);
-  /**
-   * Told the image, residual mu - y and mean loss of an accepted ending step, whose image is exactly
-   * the working set's (designImage): the loss keeps them for the gap check at the same point.
-   */
-  exact: ((eta: Float64Array, residual: Float64Array, loss: number) => void) | null = null;
-  /** The mean loss at `solution` (whose image, residual and weights are in eta, residual, weight). */
-  loss = NaN;
-  /** The last Hessian built (without the ridge; intercept last), its columns, weights and decrement. */
-  last: KeptHessian = { hessian: new Float64Array(0), features: new Int32Array(0), weight: new Float64Array(0), decrement: 0, solve: 0 };
-  /** Solves started on this problem (numbers the solve that built `last`). */
-  solves = 0;
-
-  constructor(readonly n: number) {
-    this.eta = new Float64Array(n);
-    this.trialEta = new Float64Array(n);
-    this.residual = new Float64Array(n);
-    this.trialResidual = new Float64Array(n);
-    this.weight = new Float64Array(n);
-    this.trialWeight = new Float64Array(n);
-    this.direction = new Float64Array(n);
-  }
-
-  weightedFor(columns: number): Float64Array {
-    if (this.weighted.length < columns * this.n) this.weighted = new Float64Array(columns * this.n);
-    return this.weighted;
-  }
-
-  /** Keeps a copy of a Hessian just built (no ridge), its columns and the weights it used. */
-  remember(hessian: Float64Array, features: Int32Array, solve: number): void {
-    const last = this.last;
-    last.solve = solve;
-    last.hessian = hessian.slice();
-    last.features = features;
-    if (last.weight.length !== this.n) last.weight = new Float64Array(this.n);
-    last.weight.set(this.weight);
-  }
-
-  /** Swaps the trial buffers in after an accepted step. */
-  accept(): void {
-    [this.eta, this.trialEta] = [this.trialEta, this.eta];
-    [this.residual, this.trialResidual] = [this.trialResidual, this.residual];
-    [this.weight, this.trialWeight] = [this.trialWeight, this.weight];
-  }
-}
+export { NewtonScratch } from './newtonScratch';
 
 /** Steps taken (Newton and chord, each one linear solve) and Hessians built. */
 export interface NewtonOutcome {
@@ -288,114 +212,6 @@ export function newtonOnSupport(
   scratch.features = ws.features;
   return { ok: true, steps, hessians };
 }
-
-/**
- * out = v_last + sum_q v_q x_q over the columns at `offsets` (the intercept last in v), four
- * columns per pass over out (a quarter of its loads and stores).
- */
-function imageOf(x: Float64Array, n: number, offsets: Int32Array, v: Float64Array, out: Float64Array): void {
-  const last = offsets.length;
-  out.fill(v[last], 0, n);
-  let q = 0;
-  for (; q + 4 <= last; q += 4) {
-    const c0 = v[q];
-    const c1 = v[q + 1];
-    const c2 = v[q + 2];
-    const c3 = v[q + 3];
-    const o0 = offsets[q];
-    const o1 = offsets[q + 1];
-    const o2 = offsets[q + 2];
-    const o3 = offsets[q + 3];
-    for (let i = 0; i < n; i++) out[i] += c0 * x[o0 + i] + c1 * x[o1 + i] + c2 * x[o2 + i] + c3 * x[o3 + i];
-  }
-  for (; q < last; q++) {
-    const c = v[q];
-    const off = offsets[q];
-    for (let i = 0; i < n; i++) out[i] += c * x[off + i];
-  }
-}
-
-/**
- * grad_q = x_q'r / n over the columns at `offsets`, four per pass over r, and the intercept's
- * sum(r) / n last.
- */
-function gradientOf(x: Float64Array, n: number, offsets: Int32Array, r: Float64Array, grad: Float64Array): void {
-  const last = offsets.length;
-  let sum = 0;
-  for (let i = 0; i < n; i++) sum += r[i];
-  let q = 0;
-  for (; q + 4 <= last; q += 4) {
-    const o0 = offsets[q];
-    const o1 = offsets[q + 1];
-    const o2 = offsets[q + 2];
-    const o3 = offsets[q + 3];
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    for (let i = 0; i < n; i++) {
-      const t = r[i];
-      s0 += t * x[o0 + i];
-      s1 += t * x[o1 + i];
-      s2 += t * x[o2 + i];
-      s3 += t * x[o3 + i];
-    }
-    grad[q] = s0 / n;
-    grad[q + 1] = s1 / n;
-    grad[q + 2] = s2 / n;
-    grad[q + 3] = s3 / n;
-  }
-  for (; q < last; q++) {
-    const off = offsets[q];
-    let g = 0;
-    for (let i = 0; i < n; i++) g += r[i] * x[off + i];
-    grad[q] = g / n;
-  }
-  grad[last] = sum / n;
-}
-
-/** out = from + t d */
-function moveAlong(from: Float64Array, d: Float64Array, t: number, out: Float64Array, n: number): void {
-  for (let i = 0; i < n; i++) out[i] = from[i] + t * d[i];
-}
-
-/**
- * hess (m x m, intercept last) = [X_F 1]' W [X_F 1] / n for the columns `features` at the weights of
- * `last`: entries of columns it already has are copied, new columns' rows computed (m n each).
- */
-function bordered(x: Float64Array, n: number, last: KeptHessian, features: Int32Array, hess: Float64Array): void {
-  const m = features.length + 1;
-  const mo = last.features.length + 1;
-  const index = new Int32Array(m);
-  for (let q = 0; q < m - 1; q++) index[q] = last.features.indexOf(features[q]);
-  index[m - 1] = mo - 1;
-  const w = last.weight;
-  for (let q = 0; q < m; q++) {
-    if (index[q] >= 0) {
-      for (let r = 0; r < m; r++) if (index[r] >= 0) hess[q * m + r] = last.hessian[index[q] * mo + index[r]];
-      continue;
-    }
-    const off = features[q] * n;
-    for (let r = 0; r < m; r++) {
-      let s = 0;
-      if (r === m - 1) for (let i = 0; i < n; i++) s += w[i] * x[off + i];
-      else {
-        const other = features[r] * n;
-        for (let i = 0; i < n; i++) s += w[i] * x[off + i] * x[other + i];
-      }
-      hess[q * m + r] = s / n;
-      hess[r * m + q] = s / n;
-    }
-  }
-}
-
-/** The start is the last solution to the bit (a round that only added columns, at 0). */
-function sameStart(solution: Float64Array, out: Float64Array): boolean {
-  if (solution.length === 0 || solution.length > out.length) return false;
-  for (let b = 0; b < solution.length; b++) if (solution[b] !== out[b]) return false;
-  return true;
-}
-
 function dot(a: Float64Array, b: Float64Array, m: number): number {
   let s = 0;
   for (let q = 0; q < m; q++) s += a[q] * b[q];
