@@ -1,8 +1,11 @@
 import { FREE, type SupportMemory, type SupportProblem } from './loss/role';
+import { designImage } from './loss/design';
+import { bordered, gradientOf, imageOf, logisticRows, moveAlong, sameStart, weightedGram } from './logisticRows';
+import type { NewtonScratch } from './newtonScratch';
 import type { Problem } from './problem';
-import { softplus } from './problem';
 import { predict, recordTangent } from './pathTangent';
-import { solveSymmetric } from './symmetric';
+import { SymmetricFactor } from './symmetric';
+
 const MAX_NEWTON = 50;
 /**
  * A Newton step whose predicted decrease (half the Newton decrement, Boyd & Vandenberghe 2004,
@@ -11,8 +14,34 @@ const MAX_NEWTON = 50;
  * (quadratic convergence makes it the most accurate point) and Newton stops.
  */
 const ROUNDING = 1e-15;
-/** After a full step with a decrement this small the next one would be below rounding (quadratic convergence). */
+/**
+ * After a full Newton step with decrement d (relative to the value) the next decrement is about d^2
+ * (quadratic convergence): with d <= FINAL it would be below FINAL^2 = 1e-20, past any digit the
+ * value or the KKT conditions can show, so Newton stops.
+ */
 const FINAL = 1e-10;
+/**
+ * After a full Newton step with decrement d_ref <= CHORD (relative to the value), the next steps
+ * first try the same factor (chord steps: the simplified Newton method, Shamanskii 1967; see Kelley
+ * 2003, "Solving Nonlinear Equations with Newton's Method", 5.4.3). Their contraction is
+ * proportional to the distance from the factor's point, so after a chord step with decrement d the
+ * next decrement is about d_ref d, as it is about d^2 after a Newton step: the same FINAL rule
+ * (predicted next decrement <= FINAL^2) stops either. A chord step is taken only when its decrement
+ * is at most CONTRACTION times the previous step's (at least one digit of the error per step);
+ * otherwise the Hessian is rebuilt at the current point. Near the solution this replaces the last
+ * Hessian (m^2 n / 2 products) by one or two chord steps (about 3 m n each).
+ */
+const CHORD = 1e-4;
+const CONTRACTION = 1e-2;
+
+export { NewtonScratch } from './newtonScratch';
+
+/** Steps taken (Newton and chord, each one linear solve) and Hessians built. */
+export interface NewtonOutcome {
+  ok: boolean;
+  steps: number;
+  hessians: number;
+}
 
 /**
  * The one logistic Newton loop, used by the binomial active-set polish (polish.ts) and the binomial
@@ -21,10 +50,11 @@ const FINAL = 1e-10;
  *   (1/n) sum [log(1 + exp(eta_i)) - y_i eta_i] + sum_A (l1_j s_j b_j + l2_j/2 b_j^2),
  * eta = b0 + X_A b_A, l1 = lambda alpha v, l2 = lambda (1 - alpha) v (0 for free columns).
  * Starts from `out` (slot k holds the intercept) and writes the minimizer there; zero off A.
- * Stops when a step moves every variable by < 1e-13 (relative) or its predicted decrease is at the
- * rounding level of the value (ROUNDING). The active columns are copied side by side once, so the
- * Hessian X_A'WX_A/n is formed by plain loops over contiguous rows.
- * Returns the Newton steps taken and ok = false on failure or when maxSteps do not suffice.
+ * Stops when a step moves every variable by < 1e-13 (relative), when its predicted decrease is at the
+ * rounding level of the value (ROUNDING), or when the next decrement would be below FINAL^2 (FINAL,
+ * CHORD). Each row's exp serves the value, the gradient and the Hessian weight at once
+ * (logisticRows), and eta moves along the step's image X_A d rather than being rebuilt.
+ * Returns the steps taken (Newton and chord) and ok = false on failure or when maxSteps do not suffice.
  */
 export function newtonOnSupport(
   problem: Problem,
@@ -32,72 +62,122 @@ export function newtonOnSupport(
   out: Float64Array,
   maxSteps: number,
   memory: SupportMemory,
-): { ok: boolean; steps: number } {
+  scratch: NewtonScratch,
+): NewtonOutcome {
   const { ws, active, sign, l1, l2, lambda } = support;
-  const { n, y } = problem;
+  const { n, y, x } = problem;
   const k = ws.k;
   const m = active.length + 1;
-  const xa = new Float64Array((m - 1) * n);
-  for (let q = 0; q < m - 1; q++) xa.set(problem.x.subarray(ws.features[active[q]] * n, (ws.features[active[q]] + 1) * n), q * n);
+  const last = m - 1;
+  // The polish's next round after a column joined starts at the last solution (the new column at 0):
+  // its image, residual and weights are still in the scratch buffers.
+  const resume = scratch.features === ws.features && sameStart(scratch.solution, out);
+  const solve = ++scratch.solves;
+  scratch.solution = new Float64Array(0);
+  const features = new Int32Array(last);
+  const offsets = new Int32Array(last);
+  const signs = new Int8Array(last);
   const beta = new Float64Array(m);
-  for (let q = 0; q < m - 1; q++) beta[q] = out[active[q]];
-  beta[m - 1] = out[k];
   const linear = new Float64Array(m);
   const ridge = new Float64Array(m);
-  for (let q = 0; q < m - 1; q++) {
-    const s = sign[active[q]];
-    linear[q] = s === FREE ? 0 : l1[active[q]] * s;
-    ridge[q] = l2[active[q]];
+  for (let q = 0; q < last; q++) {
+    const a = active[q];
+    features[q] = ws.features[a];
+    offsets[q] = features[q] * n;
+    signs[q] = sign[a];
+    beta[q] = out[a];
+    linear[q] = sign[a] === FREE ? 0 : l1[a] * sign[a];
+    ridge[q] = l2[a];
   }
-  const features = Int32Array.from(active, (a) => ws.features[a]);
-  const signs = Int8Array.from(active, (a) => sign[a]);
-  predict(memory, lambda, features, signs, beta);
-  const etaOf = (v: Float64Array, eta: Float64Array): void => {
-    eta.fill(v[m - 1]);
-    for (let q = 0; q < m - 1; q++) {
-      const coef = v[q];
-      if (coef === 0) continue;
-      const off = q * n;
-      for (let i = 0; i < n; i++) eta[i] += coef * xa[off + i];
-    }
-  };
-  const valueOf = (v: Float64Array, eta: Float64Array): number => {
+  beta[last] = out[k];
+  const onTangent = predict(memory, lambda, features, signs, beta);
+  const penaltyOf = (v: Float64Array): number => {
     let s = 0;
-    for (let i = 0; i < n; i++) s += softplus(eta[i]) - y[i] * eta[i];
-    s /= n;
-    for (let q = 0; q < m - 1; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
+    for (let q = 0; q < last; q++) s += v[q] * (linear[q] + 0.5 * ridge[q] * v[q]);
     return s;
   };
-  let eta = new Float64Array(n);
-  let trialEta = new Float64Array(n);
-  etaOf(beta, eta);
-  let value = valueOf(beta, eta);
-  const residual = new Float64Array(n);
-  const weighted = new Float64Array(m * n);
+  let loss = scratch.loss;
+  if (onTangent || !resume) {
+    imageOf(x, n, offsets, beta, scratch.eta);
+    loss = logisticRows(scratch.eta, y, n, scratch.residual, scratch.weight) / n;
+  }
+  let value = loss + penaltyOf(beta);
+  const weighted = scratch.weightedFor(last);
   const grad = new Float64Array(m);
   const hess = new Float64Array(m * m);
   const step = new Float64Array(m);
   const trial = new Float64Array(m);
+  // The working vector (zero off the support) for the exact image of an ending step.
+  const full = new Float64Array(ws.size);
+  let factor: SymmetricFactor | null = null;
+  // Relative decrement at the factor's point when chord steps may follow (CHORD), else 0; and the
+  // previous step's decrement.
+  let chordFrom = 0;
+  let previous = 0;
+  let kept = false;
+  if (!onTangent && resume && scratch.last.solve === solve - 1) {
+    // The polish's next round after columns joined starts where the last solve ended, and that
+    // solve built the last Hessian: bordered with the new columns at the same weights, it is the
+    // Hessian at a point whose decrement was last.decrement. The first step is a chord step whose
+    // factor's point lies within (sqrt(last.decrement) + sqrt(d))^2 of the answer (d: its own
+    // decrement); the Hessian is rebuilt as soon as a step contracts too little.
+    bordered(x, n, scratch.last, features, hess);
+    for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
+    factor = new SymmetricFactor(hess, m);
+    chordFrom = Math.max(scratch.last.decrement, Number.MIN_VALUE);
+    previous = Infinity;
+    kept = true;
+  }
   let steps = 0;
+  let hessians = 0;
   let done = false;
   for (let it = 0; it < MAX_NEWTON && steps < maxSteps; it++) {
     steps++;
-    hessianAndGradient(xa, n, m, eta, y, residual, weighted, hess, grad);
-    for (let q = 0; q < m; q++) {
-      grad[q] += linear[q] + ridge[q] * beta[q];
-      hess[q * m + q] += ridge[q];
+    gradientOf(x, n, offsets, scratch.residual, grad);
+    for (let q = 0; q < last; q++) grad[q] += linear[q] + ridge[q] * beta[q];
+    const scale0 = Math.max(1, Math.abs(value));
+    let decrement = NaN;
+    let chord = false;
+    if (factor && chordFrom > 0) {
+      if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
+      decrement = dot(grad, step, m);
+      chord = decrement <= CONTRACTION * previous;
+      if (kept) chordFrom = (Math.sqrt(chordFrom) + Math.sqrt(decrement / scale0)) ** 2;
+      kept = false;
     }
-    if (!solveSymmetric(hess, m, grad, step)) return { ok: false, steps };
-    let decrement = 0;
-    for (let q = 0; q < m; q++) decrement += grad[q] * step[q];
-    const atRounding = decrement / 2 <= ROUNDING * Math.max(1, Math.abs(value));
+    if (!chord) {
+      chordFrom = 0;
+      weightedGram(x, n, offsets, scratch.weight, weighted, hess);
+      scratch.remember(hess, features, solve);
+      for (let q = 0; q < last; q++) hess[q * m + q] += ridge[q];
+      factor = new SymmetricFactor(hess, m);
+      hessians++;
+      if (!factor.solve(grad, step)) return { ok: false, steps, hessians };
+      decrement = dot(grad, step, m);
+      scratch.last.decrement = decrement / scale0;
+    }
+    const relative = decrement / scale0;
+    const atRounding = !chord && relative / 2 <= ROUNDING;
+    const predicted = chord ? chordFrom * relative : relative * relative;
+    // The step that ends the solve (if taken in full) gets its image exactly as the solver's working
+    // set computes it (designImage), so the gap check at the polished point finds its residual kept.
+    const ending = atRounding || predicted <= FINAL * FINAL;
+    // Otherwise eta moves by -scale * (X_A d + d_0), the step's image.
+    if (!ending) imageOf(x, n, offsets, step, scratch.direction);
     let scale = 1;
     let accepted = false;
+    let trialLoss = NaN;
     for (let half = 0; half < 40; half++, scale /= 2) {
       for (let q = 0; q < m; q++) trial[q] = beta[q] - scale * step[q];
-      etaOf(trial, trialEta);
-      const candidate = valueOf(trial, trialEta);
-      if (candidate <= value || (atRounding && Number.isFinite(candidate))) {
+      if (ending) {
+        for (let q = 0; q < last; q++) full[active[q]] = trial[q];
+        full[k] = trial[last];
+        designImage(problem, ws, full, scratch.trialEta, trial[last]);
+      } else moveAlong(scratch.eta, scratch.direction, -scale, scratch.trialEta, n);
+      trialLoss = logisticRows(scratch.trialEta, y, n, scratch.trialResidual, scratch.trialWeight) / n;
+      const candidate = trialLoss + penaltyOf(trial);
+      // A chord step below the value's rounding is taken like a Newton step there (ROUNDING).
+      if (candidate <= value || ((atRounding || (chord && relative / 2 <= ROUNDING)) && Number.isFinite(candidate))) {
         value = Math.min(value, candidate);
         accepted = true;
         break;
@@ -110,94 +190,30 @@ export function newtonOnSupport(
     let moved = false;
     for (let q = 0; q < m; q++) if (Math.abs(trial[q] - beta[q]) > 1e-13 * Math.max(1, Math.abs(beta[q]))) moved = true;
     beta.set(trial);
-    [eta, trialEta] = [trialEta, eta];
-    const final = scale === 1 && decrement <= FINAL * Math.max(1, Math.abs(value));
-    if (!moved || atRounding || final) {
+    scratch.accept();
+    loss = trialLoss;
+    if (ending) scratch.exact?.(scratch.eta, scratch.residual, loss);
+    const whole = scale === 1;
+    if (!moved || atRounding || (whole && predicted <= FINAL * FINAL)) {
       done = true;
       break;
     }
+    if (!whole || (chord && chordFrom > CHORD)) chordFrom = 0;
+    else if (!chord && relative <= CHORD) chordFrom = relative;
+    previous = decrement;
   }
-  if (!done || !Number.isFinite(value)) return { ok: false, steps };
-  recordTangent(memory, lambda, features, signs, beta, hess, linear, ridge);
+  if (!done || !Number.isFinite(value) || !factor) return { ok: false, steps, hessians };
+  recordTangent(memory, lambda, features, signs, beta, factor, linear, ridge);
   out.fill(0, 0, k);
-  for (let q = 0; q < m - 1; q++) out[active[q]] = beta[q];
-  out[k] = beta[m - 1];
-  return { ok: true, steps };
+  for (let q = 0; q < last; q++) out[active[q]] = beta[q];
+  out[k] = beta[last];
+  scratch.solution = out.slice(0, ws.size);
+  scratch.loss = loss;
+  scratch.features = ws.features;
+  return { ok: true, steps, hessians };
 }
-
-/**
- * Gradient and Hessian of the mean logistic loss in (b_A, b0) at eta: grad = [X_A 1]'(mu - y)/n,
- * hess = [X_A 1]'W[X_A 1]/n with W = diag(mu (1 - mu)); the intercept is the last slot. The
- * slopes' block is summed two columns by two per pass over the rows (4 sums from 4 loads).
- */
-function hessianAndGradient(
-  xa: Float64Array,
-  n: number,
-  m: number,
-  eta: Float64Array,
-  y: Float64Array,
-  residual: Float64Array,
-  weighted: Float64Array,
-  hess: Float64Array,
-  grad: Float64Array,
-): void {
-  let sumR = 0;
-  let sumW = 0;
-  const last = m - 1;
-  const weight = weighted.subarray(last * n);
-  for (let i = 0; i < n; i++) {
-    const e = Math.exp(-Math.abs(eta[i]));
-    const mu = eta[i] >= 0 ? 1 / (1 + e) : e / (1 + e);
-    residual[i] = mu - y[i];
-    weight[i] = e / ((1 + e) * (1 + e));
-    sumR += residual[i];
-    sumW += weight[i];
-  }
-  for (let q = 0; q < last; q++) {
-    const off = q * n;
-    let g = 0;
-    let h0 = 0;
-    for (let i = 0; i < n; i++) {
-      const xq = xa[off + i];
-      g += residual[i] * xq;
-      const wx = weight[i] * xq;
-      weighted[off + i] = wx;
-      h0 += wx;
-    }
-    grad[q] = g / n;
-    hess[q * m + last] = h0 / n;
-    hess[last * m + q] = h0 / n;
-  }
-  const set = (q: number, r: number, h: number): void => {
-    hess[q * m + r] = h / n;
-    hess[r * m + q] = h / n;
-  };
-  for (let q = 0; q < last; q += 2) {
-    const a0 = q * n;
-    const pair = q + 1 < last;
-    const a1 = pair ? a0 + n : a0;
-    for (let r = 0; r <= q; r += 2) {
-      const b0 = r * n;
-      const b1 = r + 1 < last ? b0 + n : b0;
-      let s00 = 0, s01 = 0, s10 = 0, s11 = 0;
-      for (let i = 0; i < n; i++) {
-        const u0 = weighted[a0 + i];
-        const u1 = weighted[a1 + i];
-        const v0 = xa[b0 + i];
-        const v1 = xa[b1 + i];
-        s00 += u0 * v0;
-        s01 += u0 * v1;
-        s10 += u1 * v0;
-        s11 += u1 * v1;
-      }
-      set(q, r, s00);
-      if (r + 1 < last) set(q, r + 1, s01);
-      if (pair) {
-        set(q + 1, r, s10);
-        if (r + 1 < last) set(q + 1, r + 1, s11);
-      }
-    }
-  }
-  grad[last] = sumR / n;
-  hess[last * m + last] = sumW / n;
+function dot(a: Float64Array, b: Float64Array, m: number): number {
+  let s = 0;
+  for (let q = 0; q < m; q++) s += a[q] * b[q];
+  return s;
 }

@@ -1,3 +1,4 @@
+import { logisticRows } from '../core/logisticRows';
 import type { DesignMatrix } from '../types';
 import { aliasedMessage, checkDegreesOfFreedom } from './checks';
 import { waldRow } from './inference';
@@ -28,7 +29,11 @@ export function fitBinomial(design: DesignMatrix, y: Float64Array, options: Unpe
   const tolerance = options.tolerance ?? 1e-13;
 
   const ybar = y.reduce((s, v) => s + v, 0) / n;
-  const nullDeviance = deviance(y, new Float64Array(n).fill(Math.log(ybar / (1 - ybar))));
+  // The row kernel (loss, mu - y and the weight mu (1 - mu) from one exp per row) is the one the
+  // penalized path's Newton loop uses (core/logisticRows.ts); the steps differ (decision note 0023).
+  const residual = new Float64Array(n);
+  const deviance = (eta: Float64Array): number => 2 * logisticRows(eta, y, n, residual, null);
+  const nullDeviance = deviance(new Float64Array(n).fill(Math.log(ybar / (1 - ybar))));
   let eta: Float64Array = new Float64Array(n).fill(Math.log(ybar / (1 - ybar)));
   let dev = nullDeviance;
   let ls: LeastSquaresFit | null = null;
@@ -36,20 +41,23 @@ export function fitBinomial(design: DesignMatrix, y: Float64Array, options: Unpe
   let iterations = 0;
   const w = new Float64Array(n);
   const z = new Float64Array(n);
+  const working = (): void => {
+    logisticRows(eta, y, n, residual, w);
+    for (let i = 0; i < n; i++) {
+      w[i] = Math.max(w[i], 1e-300);
+      z[i] = eta[i] - residual[i] / w[i];
+    }
+  };
   while (iterations < maxIterations && !converged) {
     iterations++;
-    for (let i = 0; i < n; i++) {
-      const { mu, weight } = logistic(eta[i]);
-      w[i] = Math.max(weight, 1e-300);
-      z[i] = eta[i] + (y[i] - mu) / w[i];
-    }
+    working();
     ls = weightedLeastSquares(n, p, x, z, w);
     let next = linearPredictor(design, ls);
-    let nextDev = deviance(y, next);
+    let nextDev = deviance(next);
     // Step halving towards the previous iterate while the deviance rises (or overflows).
     for (let h = 0; h < MAX_HALVINGS && !(nextDev <= dev * (1 + 1e-15)); h++) {
       next = next.map((v, i) => (v + eta[i]) / 2);
-      nextDev = deviance(y, next);
+      nextDev = deviance(next);
     }
     converged = Math.abs(dev - nextDev) <= tolerance * (Math.abs(nextDev) + 0.1);
     eta = next;
@@ -58,11 +66,7 @@ export function fitBinomial(design: DesignMatrix, y: Float64Array, options: Unpe
   }
   if (ls === null) throw new Error('binomial fit: no iteration was run');
   // Recompute the estimates and information at the final linear predictor (after any halving).
-  for (let i = 0; i < n; i++) {
-    const { mu, weight } = logistic(eta[i]);
-    w[i] = Math.max(weight, 1e-300);
-    z[i] = eta[i] + (y[i] - mu) / w[i];
-  }
+  working();
   const final = weightedLeastSquares(n, p, x, z, w);
   checkDegreesOfFreedom(n, final.rank + 1);
   const separatedRows = countSeparated(y, eta);
@@ -93,20 +97,6 @@ export function fitBinomial(design: DesignMatrix, y: Float64Array, options: Unpe
     separatedRows,
     caution: null,
   };
-}
-
-/** mu = 1 / (1 + exp(-eta)) and weight mu (1 - mu), computed from exp(-|eta|) so neither rounds to 0/1 early. */
-function logistic(eta: number): { mu: number; weight: number } {
-  const e = Math.exp(-Math.abs(eta));
-  const mu = eta >= 0 ? 1 / (1 + e) : e / (1 + e);
-  return { mu, weight: e / (1 + e) ** 2 };
-}
-
-/** -2 log-likelihood, with log(1 + exp(eta)) = max(eta, 0) + log1p(exp(-|eta|)). */
-function deviance(y: Float64Array, eta: Float64Array): number {
-  let s = 0;
-  for (let i = 0; i < y.length; i++) s += Math.max(eta[i], 0) + Math.log1p(Math.exp(-Math.abs(eta[i]))) - y[i] * eta[i];
-  return 2 * s;
 }
 
 function linearPredictor(design: DesignMatrix, ls: LeastSquaresFit): Float64Array {

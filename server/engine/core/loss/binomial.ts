@@ -1,7 +1,8 @@
-import { newtonOnSupport } from '../polishNewton';
+import { logisticRows } from '../logisticRows';
+import { NewtonScratch, newtonOnSupport } from '../polishNewton';
 import { blockConjugate } from '../penalty';
-import { sigmoid, softplus, type Problem, type WorkingSet } from '../problem';
-import { designGramNorm, designImage, designTranspose, fullImage, transposeTimes, workingTranspose } from './design';
+import type { Problem, WorkingSet } from '../problem';
+import { designGramNorm, designImage, designTranspose, fullImage, transposeTimes } from './design';
 import { blockStep, normOf, scaleScope } from './dualSteps';
 import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory } from './role';
 
@@ -14,61 +15,172 @@ import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRo
 export function binomialLoss(problem: Problem): LossRole {
   const { n, y, yMean } = problem;
   const thetaP = new Float64Array(n);
+  const entropy = new EntropyMemo(n);
+  const scratch = new NewtonScratch(n);
+  const memo = new ResidualMemo(problem);
+  scratch.exact = (eta, residual, loss) => memo.seed(eta, residual, loss);
   return {
     family: 'binomial',
     form: 'design',
     intercept: true,
     dualConcavity: 4 * n,
     nullObjective: -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean)),
-    bind: (ws) => bind(problem, ws),
+    bind: (ws) => bind(problem, ws, memo),
     evaluate(coef, intercept): Evaluation {
-      const eta = fullImage(problem, coef, intercept);
+      // The full check usually follows a gap check at the same point (same image, to the bit).
+      const loss = memo.at(fullImage(problem, coef, intercept));
       const theta = new Float64Array(n);
-      let loss = 0;
-      for (let i = 0; i < n; i++) {
-        loss += softplus(eta[i]) - y[i] * eta[i];
-        theta[i] = (y[i] - sigmoid(eta[i])) / n;
-      }
+      for (let i = 0; i < n; i++) theta[i] = -memo.residual[i] / n;
       const g = new Float64Array(problem.p);
       transposeTimes(problem.x, n, problem.p, theta, g);
-      return { loss: loss / n, g, residual: { ycTheta: 0, theta } };
+      return { loss, g, residual: { ycTheta: 0, theta } };
     },
-    nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory),
-    dual: (projection) => dual(problem, projection, thetaP),
-    solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory),
+    nullFit: (unpenalized, memory) => nullFit(problem, unpenalized, memory, scratch),
+    dual: (projection) => dual(problem, projection, thetaP, entropy),
+    solveOnSupport: (support, out, maxSteps, memory) => newtonOnSupport(problem, support, out, maxSteps, memory, scratch),
     negativeGradient(ws, active, w) {
-      const eta = new Float64Array(n).fill(w[ws.k]);
-      for (const a of active) {
-        const coef = w[a];
-        if (coef === 0) continue;
-        const off = ws.features[a] * n;
-        for (let i = 0; i < n; i++) eta[i] += coef * problem.x[off + i];
+      // Right after a Newton solve at w (the polish's KKT check), its residual mu - y is at hand.
+      let residual = scratch.residual;
+      if (scratch.features !== ws.features || !sameValues(scratch.solution, w)) {
+        residual = new Float64Array(n).fill(w[ws.k]);
+        for (const a of active) {
+          const coef = w[a];
+          if (coef === 0) continue;
+          const off = ws.features[a] * n;
+          for (let i = 0; i < n; i++) residual[i] += coef * problem.x[off + i];
+        }
+        logisticRows(residual, y, n, residual, null);
       }
-      for (let i = 0; i < n; i++) eta[i] = y[i] - sigmoid(eta[i]);
-      return workingTranspose(problem, ws, eta);
+      // The polish reads x_j'theta off the support only; the active entries are left 0.
+      const onSupport = new Uint8Array(ws.k);
+      for (const a of active) onSupport[a] = 1;
+      const off: number[] = [];
+      for (let b = 0; b < ws.k; b++) if (!onSupport[b]) off.push(ws.features[b]);
+      const values = new Float64Array(off.length);
+      transposeColumns(problem.x, n, off, residual, values);
+      const g = new Float64Array(ws.k);
+      for (let b = 0, t = 0; b < ws.k; b++) if (!onSupport[b]) g[b] = -values[t++] / n;
+      return g;
     },
   };
 }
 
-function bind(problem: Problem, ws: WorkingSet): BoundLoss {
-  const { n, y } = problem;
+/**
+ * The mean loss and the residual mu - y at the last image seen, with a copy of that image. The
+ * solver asks for the value, the gradient and the dual residual at the same image (a gap check, a
+ * FISTA step's value and gradient at y, the full check after the working set's), so one exp and one
+ * log1p per row serve them all; reused only when the image is the same to the bit.
+ */
+class ResidualMemo {
+  readonly residual: Float64Array;
+  private readonly seen: Float64Array;
+  private valid = false;
+  private loss = 0;
+
+  constructor(private readonly problem: Problem) {
+    this.residual = new Float64Array(problem.n);
+    this.seen = new Float64Array(problem.n);
+  }
+
+  /** Keeps what logisticRows gave at eta (mean loss, mu - y), computed elsewhere (the Newton loop). */
+  seed(eta: Float64Array, residual: Float64Array, loss: number): void {
+    this.seen.set(eta);
+    this.residual.set(residual);
+    this.loss = loss;
+    this.valid = true;
+  }
+
+  /** Mean loss at eta; `residual` then holds mu - y there. */
+  at(eta: Float64Array): number {
+    if (this.valid && sameValues(this.seen, eta)) return this.loss;
+    const { n, y } = this.problem;
+    this.loss = logisticRows(eta, y, n, this.residual, null) / n;
+    this.seen.set(eta);
+    this.valid = true;
+    return this.loss;
+  }
+}
+
+/** out[t] = x_{columns[t]}'v, four columns per pass over v; each a left-to-right sum over rows. */
+function transposeColumns(x: Float64Array, n: number, columns: number[], v: Float64Array, out: Float64Array): void {
+  let t = 0;
+  for (; t + 4 <= columns.length; t += 4) {
+    const a0 = columns[t] * n;
+    const a1 = columns[t + 1] * n;
+    const a2 = columns[t + 2] * n;
+    const a3 = columns[t + 3] * n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const u = v[i];
+      s0 += x[a0 + i] * u;
+      s1 += x[a1 + i] * u;
+      s2 += x[a2 + i] * u;
+      s3 += x[a3 + i] * u;
+    }
+    out[t] = s0;
+    out[t + 1] = s1;
+    out[t + 2] = s2;
+    out[t + 3] = s3;
+  }
+  for (; t < columns.length; t++) {
+    const a = columns[t] * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[a + i] * v[i];
+    out[t] = s;
+  }
+}
+
+/**
+ * The dual's entropy sum at the last (projected residual, kappa, tau) seen: the full check right
+ * after the solver's gap check at the same point and lambda usually ends at the same dual point
+ * (the same box step tau), and then the sum (two logs a row) is the same to the bit.
+ */
+class EntropyMemo {
+  private readonly thetaP: Float64Array;
+  private kappa = NaN;
+  private tau = NaN;
+  private entropy = NaN;
+
+  constructor(n: number) {
+    this.thetaP = new Float64Array(n);
+  }
+
+  /** The kept sum when kappa, tau and the projected residual are the same to the bit; else NaN. */
+  lookup(thetaP: Float64Array, kappa: number, tau: number): number {
+    if (kappa !== this.kappa || tau !== this.tau || !sameValues(this.thetaP, thetaP)) return NaN;
+    return this.entropy;
+  }
+
+  keep(thetaP: Float64Array, kappa: number, tau: number, entropy: number): void {
+    this.thetaP.set(thetaP);
+    this.kappa = kappa;
+    this.tau = tau;
+    this.entropy = entropy;
+  }
+}
+
+function sameValues(a: Float64Array, b: Float64Array): boolean {
+  if (a.length === 0 || a.length > b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+function bind(problem: Problem, ws: WorkingSet, memo: ResidualMemo): BoundLoss {
+  const { n } = problem;
   const k = ws.k;
-  const residual = new Float64Array(n);
   const theta = new Float64Array(n);
   return {
     imageSize: n,
     image: (w, out) => designImage(problem, ws, w, out, w[k]),
-    value(img) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += softplus(img[i]) - y[i] * img[i];
-      return s / n;
-    },
+    value: (img) => memo.at(img),
     gradient(img, _w, out) {
+      memo.at(img);
+      const { residual } = memo;
       let sum = 0;
-      for (let i = 0; i < n; i++) {
-        residual[i] = sigmoid(img[i]) - y[i];
-        sum += residual[i];
-      }
+      for (let i = 0; i < n; i++) sum += residual[i];
       designTranspose(problem, ws, residual, out, 1 / n);
       out[k] = sum / n;
     },
@@ -76,7 +188,8 @@ function bind(problem: Problem, ws: WorkingSet): BoundLoss {
     // eigenvalue of [1 X]'[1 X]/n is max(1, that of X'X/n); the logistic curvature is <= 1/4.
     lipschitz: () => 0.25 * Math.max(1, designGramNorm(problem, ws)),
     residual(img) {
-      for (let i = 0; i < n; i++) theta[i] = (y[i] - sigmoid(img[i])) / n;
+      memo.at(img);
+      for (let i = 0; i < n; i++) theta[i] = -memo.residual[i] / n;
       return { ycTheta: 0, theta };
     },
   };
@@ -86,7 +199,7 @@ function bind(problem: Problem, ws: WorkingSet): BoundLoss {
  * The intercept alone is logit(mean y); with unpenalized columns U, the same Newton loop as the
  * polish (polishNewton.ts) on (b_U, b0) with every sign free and no penalty.
  */
-function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemory): NullFit {
+function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemory, scratch: NewtonScratch): NullFit {
   const { n, p } = problem;
   const m = unpenalized.length;
   const coef = new Float64Array(p);
@@ -104,14 +217,15 @@ function nullFit(problem: Problem, unpenalized: Int32Array, memory: SupportMemor
       l2: new Float64Array(m),
       lambda: 0,
     };
-    if (newtonOnSupport(problem, support, out, NULL_NEWTON_STEPS, memory).ok) {
+    if (newtonOnSupport(problem, support, out, NULL_NEWTON_STEPS, memory, scratch).ok) {
       for (let q = 0; q < m; q++) coef[unpenalized[q]] = out[q];
       intercept = out[m];
     }
   }
   const eta = fullImage(problem, coef, intercept);
   const theta = new Float64Array(n);
-  for (let i = 0; i < n; i++) theta[i] = (problem.y[i] - sigmoid(eta[i])) / n;
+  logisticRows(eta, problem.y, n, theta, null);
+  for (let i = 0; i < n; i++) theta[i] = -theta[i] / n;
   const g = new Float64Array(p);
   transposeTimes(problem.x, n, p, theta, g);
   return { coef, intercept, g, theta };
@@ -125,7 +239,7 @@ const NULL_NEWTON_STEPS = 100;
  * kappa theta_null (kappa < 1 keeps s strictly inside (0, 1) and every block strictly feasible:
  * ||kappa X_u'theta_null|| <= kappa lambda_max w_u < lambda w_u) just far enough to be feasible.
  */
-function dual(problem: Problem, d: DualProjection, thetaP: Float64Array): number {
+function dual(problem: Problem, d: DualProjection, thetaP: Float64Array, memo: EntropyMemo): number {
   const pen = problem.penalty;
   const { lambda, blocks, a, uCols, delta } = d;
   const { n, x, y } = problem;
@@ -158,11 +272,15 @@ function dual(problem: Problem, d: DualProjection, thetaP: Float64Array): number
     }
   }
   tau = Math.max(0, tau);
-  let entropy = 0;
-  for (let i = 0; i < n; i++) {
-    const base = kappa * (anchor ? anchor[i] : 0);
-    const s = y[i] - n * (base + tau * (thetaP[i] - base));
-    if (s > 0 && s < 1) entropy += s * Math.log(s) + (1 - s) * Math.log1p(-s);
+  let entropy = memo.lookup(thetaP, kappa, tau);
+  if (Number.isNaN(entropy)) {
+    entropy = 0;
+    for (let i = 0; i < n; i++) {
+      const base = kappa * (anchor ? anchor[i] : 0);
+      const s = y[i] - n * (base + tau * (thetaP[i] - base));
+      if (s > 0 && s < 1) entropy += s * Math.log(s) + (1 - s) * Math.log1p(-s);
+    }
+    memo.keep(thetaP, kappa, tau, entropy);
   }
   scaleScope(pen.start, pen.features, blocks, a, tau, d.nullPoint.g, kappa);
   let conj = 0;
