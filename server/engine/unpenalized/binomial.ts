@@ -30,7 +30,7 @@ export function fitBinomial(design: DesignMatrix, y: Float64Array, options: Unpe
 
   const ybar = y.reduce((s, v) => s + v, 0) / n;
   // The row kernel (loss, mu - y and the weight mu (1 - mu) from one exp per row) is the one the
-  // penalized path's Newton loop uses (core/logisticRows.ts); the steps differ (decision note 0023).
+  // penalized path's Newton loop uses (core/logisticRows.ts); the steps differ (decision note 0025).
   const residual = new Float64Array(n);
   const deviance = (eta: Float64Array): number => 2 * logisticRows(eta, y, n, residual, null);
   const nullDeviance = deviance(new Float64Array(n).fill(Math.log(ybar / (1 - ybar))));
