@@ -1,4 +1,5 @@
 import type { DualContext, DualResult } from '../core/dual';
+import { transposeColumns } from '../core/loss/design';
 import { penaltyValue } from '../core/penalty';
 import type { Problem } from '../core/problem';
 
@@ -6,16 +7,185 @@ export interface FullCheck {
   /** Relative duality gap of the full problem. */
   gap: number;
   absoluteGap: number;
-  /** X'theta_raw = -gradient of the loss, column-indexed (for KKT checks and strong rules). */
+  /**
+   * X'theta_raw = -gradient of the loss, column-indexed (for KKT checks and strong rules). With
+   * KktBounds, a column the bounds certify is left at 0: its |x_j'theta_raw| is below the KKT bound
+   * (bounds.exact[j] = 0, bounds.bound[j] holds the certificate).
+   */
   g: Float64Array;
   loss: number;
   dual: DualResult;
 }
 
 /**
+ * Bounds on |x_j'theta_raw| carried from one full check to the next along a path (path state), so
+ * that the check computes x_j'theta_raw only for the columns that can matter. By the triangle
+ * inequality (the argument of the Gap Safe spheres, Ndiaye et al. 2017, JMLR 18, section 3, with a
+ * past check's theta as the centre), |x_j'theta| <= |x_j'theta_ref| + ||x_j|| ||theta - theta_ref||,
+ * where theta_ref is the last theta at which x_j'theta was computed (kept while some column refers
+ * to it: the direct distance, not a sum of steps, so the small jitter of approximate solutions does
+ * not add up). A block whose bound stays below lambda alpha w_u can neither violate its KKT condition
+ * nor change the dual point (the gaussian dual scales theta only for blocks above lambda w_u and
+ * counts a conjugate only above lambda alpha w_u, dual.ts), so the full duality gap is the same with
+ * or without its product: the check stays exact. Used for losses with a dual residual (design forms,
+ * LossRole.residualAt) and no unpenalized columns (whose projection would move every product).
+ */
+export class KktBounds {
+  /** Upper bound on |x_j'theta| at the last check's theta; the computed |x_j'theta| where exact[j]. */
+  readonly bound: Float64Array;
+  readonly exact: Uint8Array;
+  private readonly colNorm: Float64Array;
+  private readonly columns: Int32Array;
+  /** Past thetas still referred to, each with its norm, its users and its distance to the latest. */
+  private refs: { theta: Float64Array; norm: number; users: number; move: number }[] = [];
+  /** Index into refs of the theta where column j was last computed (-1: never), and |x_j'theta| there. */
+  private readonly ref: Int32Array;
+  private readonly value: Float64Array;
+  /** refs index of the last check's theta, and the g array that check filled (resolve works only on it). */
+  private current = -1;
+  private g: Float64Array | null = null;
+
+  constructor(private readonly problem: Problem) {
+    const p = problem.p;
+    this.bound = new Float64Array(p);
+    this.exact = new Uint8Array(p);
+    this.colNorm = Float64Array.from(problem.colNormSq, Math.sqrt);
+    this.columns = new Int32Array(p);
+    this.ref = new Int32Array(p).fill(-1);
+    this.value = new Float64Array(p);
+  }
+
+  /** After a check without bounds: the next check computes every column. */
+  invalidate(): void {
+    this.refs = [];
+    this.ref.fill(-1);
+    this.current = -1;
+    this.g = null;
+    this.exact.fill(1);
+  }
+
+  /**
+   * Bounds at `theta`; computes x_j'theta (into g, bound and exact) for the columns of every block
+   * whose bound reaches lambda alpha w_u, or of every block when `all`.
+   */
+  update(theta: Float64Array, lambda: number, g: Float64Array, all: boolean): void {
+    const { problem, bound, exact, colNorm, ref, value } = this;
+    const pen = problem.penalty;
+    const n = theta.length;
+    if (all) this.invalidate();
+    const at = this.addRef(theta);
+    for (const r of this.refs) {
+      if (r.users === 0 || r === this.refs[at]) continue;
+      let sq = 0;
+      for (let i = 0; i < n; i++) {
+        const d = theta[i] - r.theta[i];
+        sq += d * d;
+      }
+      // Rounding of the dot products (at most n eps ||x_j|| ||theta|| each, Higham 2002, 3.1) and of
+      // the distance itself, with a wide margin: a certified column is never a rounding call.
+      r.move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (r.norm + this.refs[at].norm);
+    }
+    let count = 0;
+    for (let u = 0; u < pen.nBlocks; u++) {
+      let sq = 0;
+      let known = pen.weight[u] > 0;
+      for (let i = pen.start[u]; i < pen.start[u + 1] && known; i++) {
+        const j = pen.features[i];
+        if (ref[j] < 0) known = false;
+        else {
+          const b = value[j] + colNorm[j] * this.refs[ref[j]].move;
+          bound[j] = b;
+          sq += b * b;
+        }
+      }
+      if (known && Math.sqrt(sq) < lambda * pen.alpha * pen.weight[u]) {
+        for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
+          exact[pen.features[i]] = 0;
+          g[pen.features[i]] = 0;
+        }
+      } else {
+        for (let i = pen.start[u]; i < pen.start[u + 1]; i++) this.columns[count++] = pen.features[i];
+      }
+    }
+    this.compute(count, g, at);
+    this.current = at;
+    this.g = g;
+    this.dropUnused();
+  }
+
+  /**
+   * Makes g exact (at the last check's theta) on every block whose bound reaches `threshold(u)`:
+   * the strong rule then sees the same numbers as with a full check.
+   */
+  resolve(g: Float64Array, threshold: (u: number) => number): void {
+    const { problem, bound, exact } = this;
+    const pen = problem.penalty;
+    // A g from elsewhere (the null fit, a check without bounds) is exact everywhere.
+    if (g !== this.g) this.invalidate();
+    if (this.current < 0) return;
+    let count = 0;
+    for (let u = 0; u < pen.nBlocks; u++) {
+      let sq = 0;
+      let inexact = false;
+      for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
+        const j = pen.features[i];
+        sq += bound[j] * bound[j];
+        if (!exact[j]) inexact = true;
+      }
+      if (!inexact || Math.sqrt(sq) < threshold(u)) continue;
+      for (let i = pen.start[u]; i < pen.start[u + 1]; i++) if (!exact[pen.features[i]]) this.columns[count++] = pen.features[i];
+    }
+    this.compute(count, g, this.current);
+    this.dropUnused();
+  }
+
+  /** x_j'theta for the first `count` of `columns` at refs[at]; those columns now refer to it. */
+  private compute(count: number, g: Float64Array, at: number): void {
+    const { problem, bound, exact, ref, value } = this;
+    const target = this.refs[at];
+    transposeColumns(problem.x, target.theta.length, this.columns, count, target.theta, g);
+    for (let q = 0; q < count; q++) {
+      const j = this.columns[q];
+      if (ref[j] >= 0) this.refs[ref[j]].users--;
+      ref[j] = at;
+      target.users++;
+      value[j] = Math.abs(g[j]);
+      bound[j] = value[j];
+      exact[j] = 1;
+    }
+  }
+
+  private addRef(theta: Float64Array): number {
+    let norm = 0;
+    for (let i = 0; i < theta.length; i++) norm += theta[i] * theta[i];
+    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, move: 0 });
+    return this.refs.length - 1;
+  }
+
+  /** Forgets the thetas no column refers to (keeping the last check's, which resolve may use). */
+  private dropUnused(): void {
+    if (this.refs.every((r, k) => r.users > 0 || k === this.current)) return;
+    const index = new Int32Array(this.refs.length).fill(-1);
+    const kept: typeof this.refs = [];
+    this.refs.forEach((r, k) => {
+      if (r.users > 0 || k === this.current) {
+        index[k] = kept.length;
+        kept.push(r);
+      }
+    });
+    for (let j = 0; j < this.ref.length; j++) if (this.ref[j] >= 0) this.ref[j] = index[this.ref[j]];
+    this.current = index[this.current];
+    this.refs = kept;
+  }
+}
+
+/** Multiple of n eps ||x_j|| ||theta|| added to every move of the bounds (see KktBounds.update). */
+const ROUNDING_MARGIN = 4;
+
+/**
  * Loss, gradient and duality gap of the full problem at (coef, intercept): the loss evaluates
- * (design form: one product with all of X; Gram form: with the Gram columns of the non-zero
- * coefficients), the dual context builds the dual point.
+ * (design form: one product with X, on the columns `bounds` cannot certify; Gram form: with the
+ * Gram columns of the non-zero coefficients), the dual context builds the dual point.
  */
 export function checkFull(
   problem: Problem,
@@ -25,8 +195,21 @@ export function checkFull(
   coef: Float64Array,
   intercept: number,
   lambda: number,
+  bounds?: KktBounds,
 ): FullCheck {
-  const { loss, g, residual } = problem.loss.evaluate(coef, intercept);
+  let loss: number;
+  let g: Float64Array;
+  let residual;
+  const residualAt = problem.loss.residualAt;
+  if (bounds && residualAt && dual.unpenalized(lambda).length === 0) {
+    const at = residualAt(coef, intercept);
+    ({ loss, residual } = at);
+    g = new Float64Array(problem.p);
+    bounds.update(at.theta, lambda, g, lambda === 0);
+  } else {
+    ({ loss, g, residual } = problem.loss.evaluate(coef, intercept));
+    bounds?.invalidate();
+  }
   const packed = new Float64Array(problem.penalty.features.length);
   for (let i = 0; i < packed.length; i++) packed[i] = coef[problem.penalty.features[i]];
   const penalty = penaltyValue(problem.penalty, allBlocks, allStart, packed, lambda);

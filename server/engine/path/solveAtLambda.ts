@@ -6,7 +6,7 @@ import type { Problem, WorkingSet } from '../core/problem';
 import { makeWorkingSet } from '../core/problem';
 import { polishOnSupport } from '../core/polish';
 import type { Screening, SolveInfo, StopRule } from '../types';
-import { checkFull, type FullCheck } from './check';
+import { checkFull, KktBounds, type FullCheck } from './check';
 
 /**
  * Everything one path carries from one lambda to the next (explicit state, owned by fitPathOnDesign;
@@ -25,6 +25,11 @@ export interface PathState {
   lipschitz: number;
   /** The active-set polish's factor and Newton tangent (polish.ts). */
   support: SupportMemory;
+  /**
+   * Bounds on |x_j'theta| that let the full check skip the columns they certify (check.ts); made on
+   * the first check. Where they stand in for the product, `g` holds 0.
+   */
+  kkt?: KktBounds;
 }
 
 export interface LambdaOptions {
@@ -55,9 +60,10 @@ const MAX_ROUNDS = 50;
  * problems", JRSS B 74): keep block u if ||g_u(previous)|| >= w_u alpha (2 lambda - previous
  * lambda), plus the blocks already non-zero and the unpenalized ones; after solving, the KKT
  * conditions are checked on every discarded block and violators are added and the problem re-solved.
- * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda w_u,
- * r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong concavity
- * (alpha = 1 only; the elastic net falls back to the strong rule). 'none': every block.
+ * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda
+ * alpha w_u, r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong
+ * concavity; the same test serves the elastic net (alpha < 1; docs/decisions/0023-speed-wide-gap-safe-elastic-net.md).
+ * 'none': every block.
  */
 export function solveAtLambda(
   problem: Problem,
@@ -67,14 +73,19 @@ export function solveAtLambda(
 ): SolveInfo {
   const started = performance.now();
   const pen = problem.penalty;
-  const allBlocks = Int32Array.from({ length: pen.nBlocks }, (_, u) => u);
+  const allBlocks = new Int32Array(pen.nBlocks);
+  for (let u = 0; u < pen.nBlocks; u++) allBlocks[u] = u;
   const { lambda, tolerance } = options;
   const intercept = problem.loss.intercept;
   const keep = new Uint8Array(pen.nBlocks);
+  state.kkt ??= new KktBounds(problem);
   if (options.screening === 'none' || lambda === 0) keep.fill(1);
-  else if (options.screening === 'gap-safe' && pen.alpha >= 1) gapSafe(problem, dual, state, allBlocks, lambda, keep);
+  else if (options.screening === 'gap-safe') gapSafe(problem, dual, state, allBlocks, lambda, keep);
   else {
     const threshold = pen.alpha * (2 * lambda - options.previousLambda);
+    // Where the last check left a bound instead of x_j'theta, the rule needs the number only if
+    // the bound reaches the threshold.
+    state.kkt.resolve(state.g, (u) => pen.weight[u] * threshold);
     for (let u = 0; u < pen.nBlocks; u++) {
       if (pen.weight[u] === 0 || blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) {
         keep[u] = 1;
@@ -96,7 +107,7 @@ export function solveAtLambda(
     });
     iterations += outcome.iterations;
     stoppedBy = outcome.stoppedBy;
-    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt);
     state.g = check.g;
     state.loss = check.loss;
     if (outcome.status !== 'converged' || !Number.isFinite(check.gap)) {
@@ -155,9 +166,21 @@ export function describeSolve(status: SolveInfo['status'], gap: number, toleranc
   return `numerical failure (non-finite values) after ${iterationWords(iterations)}`;
 }
 
+/**
+ * Gap Safe screening at the warm start. The dual is gamma-strongly concave in theta (the -n/2
+ * ||theta||^2 of the gaussian dual, the entropy of the binomial one; the penalty's conjugate is
+ * convex, with or without its ridge part), so D(theta) <= D(theta*) - gamma/2 ||theta - theta*||^2
+ * <= P(b) - gamma/2 ||theta - theta*||^2: the optimum theta* lies within r = sqrt(2 gap / gamma) of
+ * any dual point theta. A block with ||X_u'theta|| + r ||X_u||_F < lambda alpha w_u then has
+ * ||X_u'theta*|| < lambda alpha w_u, which the optimality condition allows only with b_u = 0: the
+ * ridge part of the elastic net has zero gradient at 0, so its subdifferential there is the lasso's
+ * (Ndiaye et al. 2017, JMLR 18, sections 2-3). Where the check left a bound on |x_j'theta_raw|
+ * instead of the product, the bound serves (the gaussian dual point is tau theta_raw, tau <= 1).
+ */
 function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
   const pen = problem.penalty;
-  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+  const kkt = state.kkt;
+  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, kkt);
   const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / problem.loss.dualConcavity);
   for (let u = 0; u < pen.nBlocks; u++) {
     if (pen.weight[u] === 0) {
@@ -165,9 +188,15 @@ function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlock
       continue;
     }
     let frob = 0;
-    for (let i = pen.start[u]; i < pen.start[u + 1]; i++) frob += problem.colNormSq[pen.features[i]];
-    const bound = blockNorm(pen, u, check.dual.a) + radius * Math.sqrt(frob);
-    keep[u] = !Number.isFinite(bound) || bound >= lambda * pen.weight[u] ? 1 : 0;
+    let sq = 0;
+    for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
+      const j = pen.features[i];
+      frob += problem.colNormSq[j];
+      const a = kkt && !kkt.exact[j] ? kkt.bound[j] : check.dual.a[j];
+      sq += a * a;
+    }
+    const bound = Math.sqrt(sq) + radius * Math.sqrt(frob);
+    keep[u] = !Number.isFinite(bound) || bound >= lambda * pen.alpha * pen.weight[u] ? 1 : 0;
     if (!keep[u]) for (let i = pen.start[u]; i < pen.start[u + 1]; i++) state.coef[pen.features[i]] = 0;
   }
 }

@@ -101,6 +101,41 @@ export function transposeTimes(x: Float64Array, n: number, p: number, v: Float64
   }
 }
 
+/**
+ * g[j] = x_j'v for the `count` columns listed in `columns` (other entries untouched), four columns
+ * per pass over v as transposeTimes; each entry is the same left-to-right sum over rows.
+ */
+export function transposeColumns(x: Float64Array, n: number, columns: Int32Array, count: number, v: Float64Array, g: Float64Array): void {
+  let q = 0;
+  for (; q + 4 <= count; q += 4) {
+    const a0 = columns[q] * n;
+    const a1 = columns[q + 1] * n;
+    const a2 = columns[q + 2] * n;
+    const a3 = columns[q + 3] * n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = v[i];
+      s0 += x[a0 + i] * t;
+      s1 += x[a1 + i] * t;
+      s2 += x[a2 + i] * t;
+      s3 += x[a3 + i] * t;
+    }
+    g[columns[q]] = s0;
+    g[columns[q + 1]] = s1;
+    g[columns[q + 2]] = s2;
+    g[columns[q + 3]] = s3;
+  }
+  for (; q < count; q++) {
+    const off = columns[q] * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    g[columns[q]] = s;
+  }
+}
+
 /** x_j'v / n for every working column. */
 export function workingTranspose(problem: Problem, ws: WorkingSet, v: Float64Array): Float64Array {
   const { n, x } = problem;

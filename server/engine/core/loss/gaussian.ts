@@ -1,10 +1,10 @@
 import { SemidefiniteSolver } from '../gram';
 import { blockConjugate } from '../penalty';
 import type { Problem, WorkingSet } from '../problem';
-import { SupportSystem } from '../supportSystem';
-import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeTimes, workingTranspose } from './design';
+import { SupportSystem, type GramEntries } from '../supportSystem';
+import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeColumns, transposeTimes } from './design';
 import { normOf, scaleScope } from './dualSteps';
-import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
+import { FREE, type BoundLoss, type DualProjection, type DualResidual, type Evaluation, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
 
 /**
  * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
@@ -38,17 +38,8 @@ export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRol
     ...shared,
     bind: (ws) => bindDesign(problem, ws),
     evaluate: (coef) => evaluateDesign(problem, coef),
-    negativeGradient(ws, active, w) {
-      const eta = new Float64Array(problem.n);
-      for (const a of active) {
-        const coef = w[a];
-        if (coef === 0) continue;
-        const off = ws.features[a] * problem.n;
-        for (let i = 0; i < problem.n; i++) eta[i] += coef * problem.x[off + i];
-      }
-      for (let i = 0; i < problem.n; i++) eta[i] = problem.y[i] - eta[i];
-      return workingTranspose(problem, ws, eta);
-    },
+    residualAt: (coef) => residualDesign(problem, coef),
+    negativeGradient: (ws, active, w) => negativeGradientDesign(problem, ws, active, w),
   };
 }
 
@@ -119,20 +110,25 @@ function bindGram(problem: Problem, ws: WorkingSet): BoundLoss {
 }
 
 function evaluateDesign(problem: Problem, coef: Float64Array): Evaluation {
-  const { n, p, x, y } = problem;
+  const { loss, theta, residual } = residualDesign(problem, coef);
+  const g = new Float64Array(problem.p);
+  transposeTimes(problem.x, problem.n, problem.p, theta, g);
+  return { loss, g, residual };
+}
+
+/** The loss, theta_raw = (yc - X b)/n and yc'theta_raw at b (one product with the non-zero columns). */
+function residualDesign(problem: Problem, coef: Float64Array): { loss: number; theta: Float64Array; residual: DualResidual } {
+  const { n, y } = problem;
   const eta = fullImage(problem, coef, 0);
-  const theta = new Float64Array(n);
   let loss = 0;
   let ycTheta = 0;
   for (let i = 0; i < n; i++) {
     const r = y[i] - eta[i];
     loss += r * r;
     ycTheta += (y[i] * r) / n;
-    theta[i] = r / n;
+    eta[i] = r / n;
   }
-  const g = new Float64Array(p);
-  transposeTimes(x, n, p, theta, g);
-  return { loss: loss / (2 * n), g, residual: { ycTheta, theta: null } };
+  return { loss: loss / (2 * n), theta: eta, residual: { ycTheta, theta: null } };
 }
 
 /** One product with the Gram columns of the non-zero coefficients. */
@@ -218,7 +214,7 @@ function dual(problem: Problem, d: DualProjection): number {
  */
 function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: SupportProblem, out: Float64Array, memory: SupportMemory): boolean {
   const { ws, active, sign, l1, l2 } = support;
-  memory.system ??= new SupportSystem(form === 'gram' ? (f, g) => problem.gram.column(f)[g] : columnProduct(problem));
+  memory.system ??= form === 'gram' ? new SupportSystem((f, g) => problem.gram.column(f)[g]) : new SupportSystem(columnProduct(problem), columnProducts(problem));
   const m = active.length;
   const features = active.map((a) => ws.features[a]);
   const shifts = active.map((a) => l2[a]);
@@ -246,6 +242,70 @@ function columnProduct(problem: Problem): (f: number, g: number) => number {
   };
 }
 
+/** columnProduct of f with several columns, four per pass over x_f (each the same sum as columnProduct). */
+function columnProducts(problem: Problem): GramEntries {
+  const { n, x } = problem;
+  return (f, others, count, out) => {
+    const a = f * n;
+    let t = 0;
+    for (; t + 4 <= count; t += 4) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      const b2 = others[t + 2] * n;
+      const b3 = others[t + 3] * n;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+        s2 += v * x[b2 + i];
+        s3 += v * x[b3 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+      out[t + 2] = s2 / n;
+      out[t + 3] = s3 / n;
+    }
+    for (; t < count; t++) {
+      const b = others[t] * n;
+      let s = 0;
+      for (let i = 0; i < n; i++) s += x[a + i] * x[b + i];
+      out[t] = s / n;
+    }
+  };
+}
+
+/**
+ * x_j'theta for the working columns off the support: the residual once (a product with the support's
+ * columns), then one product per column. The polish needs no more: on the support the gradient is
+ * what the system solved for.
+ */
+function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
+  const { n, x, y } = problem;
+  const eta = new Float64Array(n);
+  const off = new Uint8Array(ws.k).fill(1);
+  for (const a of active) {
+    off[a] = 0;
+    const coef = w[a];
+    if (coef === 0) continue;
+    const at = ws.features[a] * n;
+    for (let i = 0; i < n; i++) eta[i] += coef * x[at + i];
+  }
+  for (let i = 0; i < n; i++) eta[i] = y[i] - eta[i];
+  const columns = new Int32Array(ws.k - active.length);
+  let count = 0;
+  for (let b = 0; b < ws.k; b++) if (off[b]) columns[count++] = ws.features[b];
+  const g = new Float64Array(problem.p);
+  transposeColumns(x, n, columns, count, eta, g);
+  const out = new Float64Array(ws.k);
+  for (let b = 0; b < ws.k; b++) if (off[b]) out[b] = g[ws.features[b]] / n;
+  return out;
+}
+
+/** As negativeGradientDesign, from the Gram columns of the support. */
 function negativeGradientGram(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
   const k = ws.k;
   const g = new Float64Array(k);

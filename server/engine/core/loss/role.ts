@@ -22,6 +22,12 @@ export interface LossRole {
   bind(ws: WorkingSet): BoundLoss;
   /** Loss, X'theta_raw (= -gradient) over every column, and the dual residual, at (coef, intercept). */
   evaluate(coef: Float64Array, intercept: number): Evaluation;
+  /**
+   * Design forms whose dual ignores a block with |X_u'theta| < lambda alpha w_u (gaussian): the loss,
+   * theta_raw = -d loss / d eta (length n) and the dual residual at (coef, intercept), without
+   * X'theta, so the full check computes only the columns it needs (path/check.ts, KktBounds).
+   */
+  residualAt?(coef: Float64Array, intercept: number): { loss: number; theta: Float64Array; residual: DualResidual };
   /** The null model: penalized coefficients 0, the intercept and the unpenalized columns U at their optimum. */
   nullFit(unpenalized: Int32Array, memory: SupportMemory): NullFit;
   /**
@@ -35,7 +41,10 @@ export interface LossRole {
    * minimizer into `out`; `steps` counts linear solves or Newton steps.
    */
   solveOnSupport(support: SupportProblem, out: Float64Array, maxSteps: number, memory: SupportMemory): { ok: boolean; steps: number };
-  /** x_j'theta (= -gradient) for every working column at `w`, whose non-zeros are among `active`. */
+  /**
+   * x_j'theta (= -gradient) at `w`, whose non-zeros are among `active`, for every working column off
+   * `active` (the entries of `active` are left unspecified: the polish does not read them).
+   */
   negativeGradient(ws: WorkingSet, active: number[], w: Float64Array): Float64Array;
 }
 
