@@ -61,8 +61,11 @@ export class SupportSystem {
       });
   }
 
-  /** Solves for the features in `features` (solution in the same order, into out). */
-  solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array): boolean {
+  /**
+   * Solves for the features in `features` (solution in the same order, into out), with the step of
+   * iterative refinement unless `refine` is false.
+   */
+  solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array, refine = true): boolean {
     const wanted = new Map<number, number>();
     features.forEach((f, q) => wanted.set(f, q));
     this.dropUnwanted(wanted, shifts);
@@ -97,6 +100,14 @@ export class SupportSystem {
     const { scale, shift, slotAt, gram, cap, b, z, dz, residual } = this;
     for (let q = 0; q < size; q++) b[q] = scale[q] * rhs[position[q]];
     this.substitute(b, z);
+    if (!refine) {
+      for (let q = 0; q < size; q++) {
+        const value = scale[q] * z[q];
+        if (!Number.isFinite(value)) return false;
+        out[position[q]] = value;
+      }
+      return true;
+    }
     // Refinement: r = D b - D (G + diag(shift)) D z, then the correction from the same factor.
     for (let r = 0; r < size; r++) dz[r] = scale[r] * z[r];
     for (let q = 0; q < size; q++) {
@@ -322,11 +333,14 @@ export class SupportSystem {
       for (let r = 0; r < q; r++) s -= l[q * stride + r] * z[r];
       z[q] = s / l[q * stride + q];
     }
+    // L' z = y by columns of L' (rows of L): contiguous reads where the dot-product form would
+    // stride down a column.
     for (let q = size - 1; q >= 0; q--) {
       if (skip[q]) continue;
-      let s = z[q];
-      for (let r = q + 1; r < size; r++) s -= l[r * stride + q] * z[r];
-      z[q] = s / l[q * stride + q];
+      const row = q * stride;
+      const v = z[q] / l[row + q];
+      z[q] = v;
+      if (v !== 0) for (let r = 0; r < q; r++) z[r] -= l[row + r] * v;
     }
   }
 }

@@ -235,7 +235,7 @@ function solveRestricted(
       gap,
       polish:
         options.polish && singleColumnBlocks(ws)
-          ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support)
+          ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance)
           : undefined,
     },
     w,

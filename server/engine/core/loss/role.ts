@@ -111,6 +111,8 @@ export interface SupportProblem {
   l1: Float64Array;
   l2: Float64Array;
   lambda: number;
+  /** The relative duality gap the solve asks for (absent: as accurate as the solve can be). */
+  tolerance?: number;
 }
 
 /**
