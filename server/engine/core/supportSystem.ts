@@ -41,6 +41,7 @@ export class SupportSystem {
   private position = new Int32Array(0);
   private others = new Int32Array(0);
   private values = new Float64Array(0);
+  private pivot = new Float64Array(0);
 
   // Slot space: the G cache.
   private cap = 0;
@@ -202,6 +203,7 @@ export class SupportSystem {
     this.position = new Int32Array(stride);
     this.others = new Int32Array(stride);
     this.values = new Float64Array(stride);
+    this.pivot = new Float64Array(stride);
     this.stride = stride;
   }
 
@@ -218,24 +220,78 @@ export class SupportSystem {
       this.slotAt[q] = this.slotFor(order[q], stamp);
       this.lastUse[this.slotAt[q]] = stamp;
     }
-    const { stride, l, scale, skip, slotAt, others, values } = this;
-    for (let q = keep; q < size; q++) {
-      // Row q of G (positions <= q): the cached entries, the missing ones in one batch.
-      const sq = slotAt[q];
+    const { stride, l, scale, skip, slotAt, others, values, pivot } = this;
+    // G entries of the new rows, column r of the support at a time: x_r is read once for all the
+    // new rows that miss its entry (they are few and stay in cache), not once per new row.
+    for (let r = 0; r < size; r++) {
+      const sr = slotAt[r];
       let missing = 0;
-      for (let r = 0; r <= q; r++) if (!this.known[sq * this.cap + slotAt[r]]) others[missing++] = order[r];
-      if (missing > 0) {
-        this.entries(order[q], others, missing, values);
-        for (let t = 0; t < missing; t++) this.store(sq, this.slotOf.get(others[t]) as number, values[t]);
-      }
-      const { gram, cap } = this;
-      const row = q * stride;
-      const grow = sq * cap;
-      const diag = gram[grow + sq] + shift[q];
+      for (let q = Math.max(keep, r); q < size; q++) if (!this.known[slotAt[q] * this.cap + sr]) others[missing++] = order[q];
+      if (missing === 0) continue;
+      this.entries(order[r], others, missing, values);
+      for (let t = 0; t < missing; t++) this.store(sr, this.slotOf.get(others[t]) as number, values[t]);
+    }
+    const { gram, cap } = this;
+    for (let q = keep; q < size; q++) {
+      const diag = gram[slotAt[q] * cap + slotAt[q]] + shift[q];
       scale[q] = diag > 0 ? 1 / Math.sqrt(diag) : 1;
-      // Row q of the factor: forward substitution against rows < q, then the pivot.
-      let d = scale[q] * diag * scale[q];
-      for (let r = 0; r < q; r++) {
+      pivot[q] = scale[q] * diag * scale[q];
+    }
+    // Rows q >= keep of the factor: forward substitution against rows < q, then the pivot. Against
+    // the kept rows the new rows are independent, so each kept row is read once for all of them.
+    for (let r = 0; r < keep; r++) {
+      const other = r * stride;
+      if (skip[r]) {
+        for (let q = keep; q < size; q++) l[q * stride + r] = 0;
+        continue;
+      }
+      const sr = slotAt[r];
+      const pivotR = l[other + r];
+      let q = keep;
+      // Four new rows per pass over row r (each the same sum as one row at a time).
+      for (; q + 4 <= size; q += 4) {
+        const r0 = q * stride;
+        const r1 = r0 + stride;
+        const r2 = r1 + stride;
+        const r3 = r2 + stride;
+        let s0 = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
+        let s1 = scale[q + 1] * gram[slotAt[q + 1] * cap + sr] * scale[r];
+        let s2 = scale[q + 2] * gram[slotAt[q + 2] * cap + sr] * scale[r];
+        let s3 = scale[q + 3] * gram[slotAt[q + 3] * cap + sr] * scale[r];
+        for (let t = 0; t < r; t++) {
+          const lt = l[other + t];
+          s0 -= l[r0 + t] * lt;
+          s1 -= l[r1 + t] * lt;
+          s2 -= l[r2 + t] * lt;
+          s3 -= l[r3 + t] * lt;
+        }
+        const v0 = s0 / pivotR;
+        const v1 = s1 / pivotR;
+        const v2 = s2 / pivotR;
+        const v3 = s3 / pivotR;
+        l[r0 + r] = v0;
+        l[r1 + r] = v1;
+        l[r2 + r] = v2;
+        l[r3 + r] = v3;
+        pivot[q] -= v0 * v0;
+        pivot[q + 1] -= v1 * v1;
+        pivot[q + 2] -= v2 * v2;
+        pivot[q + 3] -= v3 * v3;
+      }
+      for (; q < size; q++) {
+        const row = q * stride;
+        let s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
+        for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
+        const v = s / pivotR;
+        l[row + r] = v;
+        pivot[q] -= v * v;
+      }
+    }
+    for (let q = keep; q < size; q++) {
+      const row = q * stride;
+      const grow = slotAt[q] * cap;
+      let d = pivot[q];
+      for (let r = keep; r < q; r++) {
         if (skip[r]) {
           l[row + r] = 0;
           continue;

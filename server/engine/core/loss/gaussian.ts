@@ -256,12 +256,13 @@ function columnProducts(problem: Problem): GramEntries {
   const { n, x } = problem;
   return (f, others, count, out) => {
     const a = f * n;
-    let t = 0;
-    for (; t + 4 <= count; t += 4) {
+    // Four columns per pass; a last pass with fewer repeats its last column (x_f is read once
+    // either way, and the loop is bound by its loads).
+    for (let t = 0; t < count; t += 4) {
       const b0 = others[t] * n;
-      const b1 = others[t + 1] * n;
-      const b2 = others[t + 2] * n;
-      const b3 = others[t + 3] * n;
+      const b1 = others[Math.min(t + 1, count - 1)] * n;
+      const b2 = others[Math.min(t + 2, count - 1)] * n;
+      const b3 = others[Math.min(t + 3, count - 1)] * n;
       let s0 = 0;
       let s1 = 0;
       let s2 = 0;
@@ -274,15 +275,9 @@ function columnProducts(problem: Problem): GramEntries {
         s3 += v * x[b3 + i];
       }
       out[t] = s0 / n;
-      out[t + 1] = s1 / n;
-      out[t + 2] = s2 / n;
-      out[t + 3] = s3 / n;
-    }
-    for (; t < count; t++) {
-      const b = others[t] * n;
-      let s = 0;
-      for (let i = 0; i < n; i++) s += x[a + i] * x[b + i];
-      out[t] = s / n;
+      if (t + 1 < count) out[t + 1] = s1 / n;
+      if (t + 2 < count) out[t + 2] = s2 / n;
+      if (t + 3 < count) out[t + 3] = s3 / n;
     }
   };
 }
@@ -296,13 +291,12 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
   const { n, x, y } = problem;
   const eta = new Float64Array(n);
   const off = new Uint8Array(ws.k).fill(1);
+  const support = new Float64Array(ws.k);
   for (const a of active) {
     off[a] = 0;
-    const coef = w[a];
-    if (coef === 0) continue;
-    const at = ws.features[a] * n;
-    for (let i = 0; i < n; i++) eta[i] += coef * x[at + i];
+    support[a] = w[a];
   }
+  designImage(problem, ws, support, eta, 0);
   for (let i = 0; i < n; i++) eta[i] = y[i] - eta[i];
   const columns = new Int32Array(ws.k - active.length);
   let count = 0;
