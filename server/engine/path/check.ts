@@ -21,7 +21,8 @@ export interface FullCheck {
  * Bounds on |x_j'theta_raw| carried from one full check to the next along a path (path state), so
  * that the check computes x_j'theta_raw only for the columns that can matter. By the triangle
  * inequality (the argument of the Gap Safe spheres, Ndiaye et al. 2017, JMLR 18, section 3, with a
- * past check's theta as the centre), |x_j'theta| <= |x_j'theta_ref| + ||x_j|| ||theta - theta_ref||,
+ * multiple of a past check's theta as the centre), |x_j'theta| <= |c| |x_j'theta_ref| + ||x_j||
+ * ||theta - c theta_ref|| for any c,
  * where theta_ref is the last theta at which x_j'theta was computed (kept while some column refers
  * to it: the direct distance, not a sum of steps, so the small jitter of approximate solutions does
  * not add up). A block whose bound stays below lambda alpha w_u can neither violate its KKT condition
@@ -37,7 +38,7 @@ export class KktBounds {
   private readonly colNorm: Float64Array;
   private readonly columns: Int32Array;
   /** Past thetas still referred to, each with its norm, its users and its distance to the latest. */
-  private refs: { theta: Float64Array; norm: number; users: number; move: number }[] = [];
+  private refs: { theta: Float64Array; norm: number; users: number; factor: number; move: number }[] = [];
   /** Index into refs of the theta where column j was last computed (-1: never), and |x_j'theta| there. */
   private readonly ref: Int32Array;
   private readonly value: Float64Array;
@@ -76,14 +77,20 @@ export class KktBounds {
     const at = this.addRef(theta);
     for (const r of this.refs) {
       if (r.users === 0 || r === this.refs[at]) continue;
+      // Along a path theta shrinks with lambda much more than it turns: the bound is taken from the
+      // closest multiple c theta_ref, |x_j'theta| <= |c| |x_j'theta_ref| + ||x_j|| ||theta - c theta_ref||.
+      let dot = 0;
+      for (let i = 0; i < n; i++) dot += theta[i] * r.theta[i];
+      const c = r.norm > 0 ? dot / (r.norm * r.norm) : 0;
       let sq = 0;
       for (let i = 0; i < n; i++) {
-        const d = theta[i] - r.theta[i];
+        const d = theta[i] - c * r.theta[i];
         sq += d * d;
       }
+      r.factor = Math.abs(c);
       // Rounding of the dot products (at most n eps ||x_j|| ||theta|| each, Higham 2002, 3.1) and of
       // the distance itself, with a wide margin: a certified column is never a rounding call.
-      r.move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (r.norm + this.refs[at].norm);
+      r.move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (r.factor * r.norm + this.refs[at].norm);
     }
     let count = 0;
     for (let u = 0; u < pen.nBlocks; u++) {
@@ -93,7 +100,7 @@ export class KktBounds {
         const j = pen.features[i];
         if (ref[j] < 0) known = false;
         else {
-          const b = value[j] + colNorm[j] * this.refs[ref[j]].move;
+          const b = this.refs[ref[j]].factor * value[j] + colNorm[j] * this.refs[ref[j]].move;
           bound[j] = b;
           sq += b * b;
         }
@@ -158,7 +165,7 @@ export class KktBounds {
   private addRef(theta: Float64Array): number {
     let norm = 0;
     for (let i = 0; i < theta.length; i++) norm += theta[i] * theta[i];
-    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, move: 0 });
+    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, factor: 1, move: 0 });
     return this.refs.length - 1;
   }
 
