@@ -159,10 +159,19 @@ export function transposeTimes(x: Float64Array, n: number, p: number, v: Float64
 }
 
 /**
- * g[j] = x_j'v for the `count` columns listed in `columns` (other entries untouched), four columns
- * per pass over v as transposeTimes; each entry is the same left-to-right sum over rows.
+ * g[j] = x_j'v for the `count` columns j listed in `columns` (other entries untouched), or into
+ * g[slots[q]] when slots are given; four columns per pass over v as transposeTimes, each entry the
+ * same left-to-right sum over rows.
  */
-export function transposeColumns(x: Float64Array, n: number, columns: Int32Array, count: number, v: Float64Array, g: Float64Array): void {
+export function transposeColumns(
+  x: Float64Array,
+  n: number,
+  columns: Int32Array,
+  count: number,
+  v: Float64Array,
+  g: Float64Array,
+  slots: Int32Array = columns,
+): void {
   let q = 0;
   for (; q + 4 <= count; q += 4) {
     const a0 = columns[q] * n;
@@ -180,16 +189,16 @@ export function transposeColumns(x: Float64Array, n: number, columns: Int32Array
       s2 += x[a2 + i] * t;
       s3 += x[a3 + i] * t;
     }
-    g[columns[q]] = s0;
-    g[columns[q + 1]] = s1;
-    g[columns[q + 2]] = s2;
-    g[columns[q + 3]] = s3;
+    g[slots[q]] = s0;
+    g[slots[q + 1]] = s1;
+    g[slots[q + 2]] = s2;
+    g[slots[q + 3]] = s3;
   }
   for (; q < count; q++) {
     const off = columns[q] * n;
     let s = 0;
     for (let i = 0; i < n; i++) s += x[off + i] * v[i];
-    g[columns[q]] = s;
+    g[slots[q]] = s;
   }
 }
 

@@ -299,12 +299,16 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
   designImage(problem, ws, support, eta, 0);
   for (let i = 0; i < n; i++) eta[i] = y[i] - eta[i];
   const columns = new Int32Array(ws.k - active.length);
+  const slots = new Int32Array(columns.length);
   let count = 0;
-  for (let b = 0; b < ws.k; b++) if (off[b]) columns[count++] = ws.features[b];
-  const g = new Float64Array(problem.p);
-  transposeColumns(x, n, columns, count, eta, g);
+  for (let b = 0; b < ws.k; b++) {
+    if (!off[b]) continue;
+    columns[count] = ws.features[b];
+    slots[count++] = b;
+  }
   const out = new Float64Array(ws.k);
-  for (let b = 0; b < ws.k; b++) if (off[b]) out[b] = g[ws.features[b]] / n;
+  transposeColumns(x, n, columns, count, eta, out, slots);
+  for (let q = 0; q < count; q++) out[slots[q]] /= n;
   return out;
 }
 
