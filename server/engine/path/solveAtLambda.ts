@@ -176,8 +176,9 @@ export function describeSolve(status: SolveInfo['status'], gap: number, toleranc
  * ridge part of the elastic net has zero gradient at 0, so its subdifferential there is the lasso's
  * (Ndiaye et al. 2017, JMLR 18, sections 2-3). Where the check left a bound on |x_j'theta_raw|
  * instead of the product, the bound serves (the gaussian dual point is tau theta_raw, tau <= 1).
+ * Sets keep[u] = 1 for the blocks it cannot discard, zeroes the coefficients of the others.
  */
-function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
+export function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
   const pen = problem.penalty;
   const kkt = state.kkt;
   const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, kkt);
