@@ -251,18 +251,20 @@ function columnProduct(problem: Problem): (f: number, g: number) => number {
   };
 }
 
-/** columnProduct of f with several columns, four per pass over x_f (each the same sum as columnProduct). */
+/**
+ * columnProduct of f with several columns: four per pass over x_f, then the last one to three
+ * together (each the same left-to-right sum as columnProduct).
+ */
 function columnProducts(problem: Problem): GramEntries {
   const { n, x } = problem;
   return (f, others, count, out) => {
     const a = f * n;
-    // Four columns per pass; a last pass with fewer repeats its last column (x_f is read once
-    // either way, and the loop is bound by its loads).
-    for (let t = 0; t < count; t += 4) {
+    let t = 0;
+    for (; t + 4 <= count; t += 4) {
       const b0 = others[t] * n;
-      const b1 = others[Math.min(t + 1, count - 1)] * n;
-      const b2 = others[Math.min(t + 2, count - 1)] * n;
-      const b3 = others[Math.min(t + 3, count - 1)] * n;
+      const b1 = others[t + 1] * n;
+      const b2 = others[t + 2] * n;
+      const b3 = others[t + 3] * n;
       let s0 = 0;
       let s1 = 0;
       let s2 = 0;
@@ -275,9 +277,44 @@ function columnProducts(problem: Problem): GramEntries {
         s3 += v * x[b3 + i];
       }
       out[t] = s0 / n;
-      if (t + 1 < count) out[t + 1] = s1 / n;
-      if (t + 2 < count) out[t + 2] = s2 / n;
-      if (t + 3 < count) out[t + 3] = s3 / n;
+      out[t + 1] = s1 / n;
+      out[t + 2] = s2 / n;
+      out[t + 3] = s3 / n;
+    }
+    const left = count - t;
+    if (left === 3) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      const b2 = others[t + 2] * n;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+        s2 += v * x[b2 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+      out[t + 2] = s2 / n;
+    } else if (left === 2) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      let s0 = 0;
+      let s1 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+    } else if (left === 1) {
+      const b0 = others[t] * n;
+      let s0 = 0;
+      for (let i = 0; i < n; i++) s0 += x[a + i] * x[b0 + i];
+      out[t] = s0 / n;
     }
   };
 }
