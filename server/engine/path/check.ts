@@ -1,6 +1,6 @@
 import type { DualContext, DualResult } from '../core/dual';
 import { transposeColumns } from '../core/loss/design';
-import { penaltyValue } from '../core/penalty';
+
 import type { Problem } from '../core/problem';
 
 export interface FullCheck {
@@ -217,9 +217,21 @@ export function checkFull(
     ({ loss, g, residual } = problem.loss.evaluate(coef, intercept));
     bounds?.invalidate();
   }
-  const packed = new Float64Array(problem.penalty.features.length);
-  for (let i = 0; i < packed.length; i++) packed[i] = coef[problem.penalty.features[i]];
-  const penalty = penaltyValue(problem.penalty, allBlocks, allStart, packed, lambda);
+  const penalty = fullPenalty(problem, allBlocks, allStart, coef, lambda);
   const result = dual.gap({ lambda, blocks: allBlocks, g, loss, penalty, residual });
   return { gap: result.gap / problem.nullObjective, absoluteGap: result.gap, g, loss, dual: result };
+}
+
+/** lambda * P(coef) over the blocks (penaltyValue's sums, read from the column-indexed vector). */
+function fullPenalty(problem: Problem, blocks: Int32Array, start: Int32Array, coef: Float64Array, lambda: number): number {
+  const pen = problem.penalty;
+  let total = 0;
+  for (let b = 0; b < blocks.length; b++) {
+    const weight = pen.weight[blocks[b]];
+    if (weight === 0) continue;
+    let sq = 0;
+    for (let i = start[b]; i < start[b + 1]; i++) sq += coef[pen.features[i]] * coef[pen.features[i]];
+    total += weight * (pen.alpha * Math.sqrt(sq) + ((1 - pen.alpha) / 2) * sq);
+  }
+  return lambda * total;
 }

@@ -30,6 +30,8 @@ export interface PathState {
    * the first check. Where they stand in for the product, `g` holds 0.
    */
   kkt?: KktBounds;
+  /** A p-long vector the working-set gap reuses from one lambda to the next. */
+  scratch?: Float64Array;
 }
 
 export interface LambdaOptions {
@@ -215,7 +217,9 @@ function solveRestricted(
   const w = new Float64Array(ws.size);
   for (let b = 0; b < ws.k; b++) w[b] = state.coef[ws.features[b]];
   if (ws.size > ws.k) w[ws.k] = state.intercept;
-  const g = new Float64Array(problem.p);
+  // X'theta on the working set, column-indexed for the dual (which reads only those columns).
+  state.scratch ??= new Float64Array(problem.p);
+  const g = state.scratch;
   const grad = new Float64Array(ws.size);
   const gap = (v: Float64Array, img: Float64Array): number => {
     const value = loss.value(img, v);
