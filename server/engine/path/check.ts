@@ -45,6 +45,7 @@ export class KktBounds {
   /** refs index of the last check's theta, and the g array that check filled (resolve works only on it). */
   private current = -1;
   private g: Float64Array | null = null;
+  private readonly buffers: Float64Array[] = [];
 
   constructor(private readonly problem: Problem) {
     const p = problem.p;
@@ -54,6 +55,18 @@ export class KktBounds {
     this.columns = new Int32Array(p);
     this.ref = new Int32Array(p).fill(-1);
     this.value = new Float64Array(p);
+  }
+
+  /**
+   * A p-long vector for the next check's X'theta: two alternate, so the last check's (the path
+   * state's g, which resolve may still complete) is never the one written.
+   */
+  nextBuffer(): Float64Array {
+    const free = this.buffers.find((b) => b !== this.g);
+    if (free) return free;
+    const fresh = new Float64Array(this.problem.p);
+    this.buffers.push(fresh);
+    return fresh;
   }
 
   /** After a check without bounds: the next check computes every column. */
@@ -211,7 +224,7 @@ export function checkFull(
   if (bounds && residualAt && dual.unpenalized(lambda).length === 0) {
     const at = residualAt(coef, intercept);
     ({ loss, residual } = at);
-    g = new Float64Array(problem.p);
+    g = bounds.nextBuffer();
     bounds.update(at.theta, lambda, g, lambda === 0);
   } else {
     ({ loss, g, residual } = problem.loss.evaluate(coef, intercept));
@@ -231,6 +244,7 @@ function fullPenalty(problem: Problem, blocks: Int32Array, start: Int32Array, co
     if (weight === 0) continue;
     let sq = 0;
     for (let i = start[b]; i < start[b + 1]; i++) sq += coef[pen.features[i]] * coef[pen.features[i]];
+    if (sq === 0) continue;
     total += weight * (pen.alpha * Math.sqrt(sq) + ((1 - pen.alpha) / 2) * sq);
   }
   return lambda * total;
