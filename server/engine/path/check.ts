@@ -46,6 +46,7 @@ export class KktBounds {
   private current = -1;
   private g: Float64Array | null = null;
   private readonly buffers: Float64Array[] = [];
+  private readonly given: Uint8Array;
 
   constructor(private readonly problem: Problem) {
     const p = problem.p;
@@ -55,6 +56,7 @@ export class KktBounds {
     this.columns = new Int32Array(p);
     this.ref = new Int32Array(p).fill(-1);
     this.value = new Float64Array(p);
+    this.given = new Uint8Array(p);
   }
 
   /**
@@ -82,7 +84,7 @@ export class KktBounds {
    * Bounds at `theta`; computes x_j'theta (into g, bound and exact) for the columns of every block
    * whose bound reaches lambda alpha w_u, or of every block when `all`.
    */
-  update(theta: Float64Array, lambda: number, g: Float64Array, all: boolean): void {
+  update(theta: Float64Array, lambda: number, g: Float64Array, all: boolean, given?: KnownProducts): void {
     const { problem, bound, exact, colNorm, ref, value } = this;
     const pen = problem.penalty;
     const n = theta.length;
@@ -127,7 +129,7 @@ export class KktBounds {
         for (let i = pen.start[u]; i < pen.start[u + 1]; i++) this.columns[count++] = pen.features[i];
       }
     }
-    this.compute(count, g, at);
+    this.compute(count, g, at, given);
     this.current = at;
     this.g = g;
     this.dropUnused();
@@ -159,13 +161,35 @@ export class KktBounds {
     this.dropUnused();
   }
 
-  /** x_j'theta for the first `count` of `columns` at refs[at]; those columns now refer to it. */
-  private compute(count: number, g: Float64Array, at: number): void {
-    const { problem, bound, exact, ref, value } = this;
+  /**
+   * x_j'theta for the first `count` of `columns` at refs[at] (taken from `given` where it has them);
+   * those columns now refer to it.
+   */
+  private compute(count: number, g: Float64Array, at: number, given?: KnownProducts): void {
+    const { problem, bound, exact, ref, value, columns } = this;
     const target = this.refs[at];
-    transposeColumns(problem.x, target.theta.length, this.columns, count, target.theta, g);
+    let todo = count;
+    if (given) {
+      const mark = this.given;
+      for (let q = 0; q < given.count; q++) mark[given.features[q]] = 1;
+      // Columns the caller has go to the end of the list, the others are computed.
+      let front = 0;
+      let back = count;
+      while (front < back) {
+        if (mark[columns[front]]) {
+          back--;
+          const t = columns[front];
+          columns[front] = columns[back];
+          columns[back] = t;
+        } else front++;
+      }
+      todo = front;
+      for (let q = todo; q < count; q++) g[columns[q]] = given.values[columns[q]];
+      for (let q = 0; q < given.count; q++) mark[given.features[q]] = 0;
+    }
+    transposeColumns(problem.x, target.theta.length, columns, todo, target.theta, g);
     for (let q = 0; q < count; q++) {
-      const j = this.columns[q];
+      const j = columns[q];
       if (ref[j] >= 0) this.refs[ref[j]].users--;
       ref[j] = at;
       target.users++;
@@ -199,6 +223,16 @@ export class KktBounds {
   }
 }
 
+/**
+ * x_j'theta_raw at the point being checked, already computed by the solver (the working set's
+ * gradient at its last gap evaluation): values column-indexed, for features[0..count).
+ */
+export interface KnownProducts {
+  features: Int32Array;
+  count: number;
+  values: Float64Array;
+}
+
 /** Multiple of n eps ||x_j|| ||theta|| added to every move of the bounds (see KktBounds.update). */
 const ROUNDING_MARGIN = 4;
 
@@ -216,6 +250,7 @@ export function checkFull(
   intercept: number,
   lambda: number,
   bounds?: KktBounds,
+  given?: KnownProducts,
 ): FullCheck {
   let loss: number;
   let g: Float64Array;
@@ -225,7 +260,7 @@ export function checkFull(
     const at = residualAt(coef, intercept);
     ({ loss, residual } = at);
     g = bounds.nextBuffer();
-    bounds.update(at.theta, lambda, g, lambda === 0);
+    bounds.update(at.theta, lambda, g, lambda === 0, given);
   } else {
     ({ loss, g, residual } = problem.loss.evaluate(coef, intercept));
     bounds?.invalidate();

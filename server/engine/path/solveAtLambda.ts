@@ -6,7 +6,7 @@ import type { Problem, WorkingSet } from '../core/problem';
 import { makeWorkingSet } from '../core/problem';
 import { polishOnSupport } from '../core/polish';
 import type { Screening, SolveInfo, StopRule } from '../types';
-import { checkFull, KktBounds, type FullCheck } from './check';
+import { checkFull, KktBounds, type FullCheck, type KnownProducts } from './check';
 
 /**
  * Everything one path carries from one lambda to the next (explicit state, owned by fitPathOnDesign;
@@ -109,7 +109,7 @@ export function solveAtLambda(
     });
     iterations += outcome.iterations;
     stoppedBy = outcome.stoppedBy;
-    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt);
+    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt, outcome.known);
     state.g = check.g;
     state.loss = check.loss;
     if (outcome.status !== 'converged' || !Number.isFinite(check.gap)) {
@@ -221,7 +221,11 @@ function solveRestricted(
   state.scratch ??= new Float64Array(problem.p);
   const g = state.scratch;
   const grad = new Float64Array(ws.size);
+  // The point of the last gap evaluation: when the solve ends there, g holds the working set's
+  // x_j'theta at the solution, which the full check then need not compute again.
+  const evaluated = new Float64Array(ws.size).fill(NaN);
   const gap = (v: Float64Array, img: Float64Array): number => {
+    evaluated.set(v);
     const value = loss.value(img, v);
     const residual = loss.residual(img, v);
     loss.gradient(img, v, grad);
@@ -249,7 +253,10 @@ function solveRestricted(
   state.lipschitz = outcome.lipschitz;
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
   if (ws.size > ws.k) state.intercept = w[ws.k];
-  return outcome;
+  let atSolution = true;
+  for (let b = 0; b < ws.size && atSolution; b++) atSolution = w[b] === evaluated[b];
+  const known: KnownProducts | undefined = atSolution ? { features: ws.features, count: ws.k, values: g } : undefined;
+  return { ...outcome, known };
 }
 
 /** The active-set polish handles lasso and elastic-net blocks (one column each). */
