@@ -22,6 +22,8 @@ export interface SolverOptions {
   checkEvery: number;
   /** Starting Lipschitz estimate (backtracking doubles it when too small). */
   lipschitz: number;
+  /** The image of the warm start, when the caller has it (else computed). */
+  image?: Float64Array;
 }
 
 export interface SolverOutcome {
@@ -31,6 +33,8 @@ export interface SolverOutcome {
   lipschitz: number;
   /** Which point met the tolerance (or why the solver stopped). */
   stoppedBy: StopRule;
+  /** The image of the returned point (loss.image of it, as computed for its last gap). */
+  image: Float64Array;
 }
 
 /**
@@ -58,7 +62,8 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   let imgX = new Float64Array(m);
   let imgZ = new Float64Array(m);
   const imgY = new Float64Array(m);
-  loss.image(x, imgX);
+  if (options.image && options.image.length === m) imgX.set(options.image);
+  else loss.image(x, imgX);
   imgY.set(imgX);
   let lipschitz = options.lipschitz > 0 ? options.lipschitz : 1;
   let t = 1;
@@ -149,7 +154,7 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     // After a numerical failure the warm start is kept: never hand back non-finite coefficients.
     if (status !== 'numerical-failure') w.set(x);
     const stoppedBy: StopRule = status === 'converged' ? source : status;
-    return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy };
+    return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy, image: imgX };
   }
 }
 

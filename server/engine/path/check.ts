@@ -15,6 +15,8 @@ export interface FullCheck {
   g: Float64Array;
   loss: number;
   dual: DualResult;
+  /** Design forms with a dual residual: X b at the point checked (the next solve's starting image). */
+  image?: Float64Array;
 }
 
 /**
@@ -251,13 +253,16 @@ export function checkFull(
   lambda: number,
   bounds?: KktBounds,
   given?: KnownProducts,
+  image?: Float64Array,
 ): FullCheck {
   let loss: number;
   let g: Float64Array;
   let residual;
+  let checked: Float64Array | undefined;
   const residualAt = problem.loss.residualAt;
   if (bounds && residualAt && dual.unpenalized(lambda).length === 0) {
-    const at = residualAt(coef, intercept);
+    const at = residualAt(coef, intercept, image);
+    checked = at.image;
     ({ loss, residual } = at);
     g = bounds.nextBuffer();
     bounds.update(at.theta, lambda, g, lambda === 0, given);
@@ -267,7 +272,7 @@ export function checkFull(
   }
   const penalty = fullPenalty(problem, allBlocks, allStart, coef, lambda);
   const result = dual.gap({ lambda, blocks: allBlocks, g, loss, penalty, residual });
-  return { gap: result.gap / problem.nullObjective, absoluteGap: result.gap, g, loss, dual: result };
+  return { gap: result.gap / problem.nullObjective, absoluteGap: result.gap, g, loss, dual: result, image: checked };
 }
 
 /** lambda * P(coef) over the blocks (penaltyValue's sums, read from the column-indexed vector). */

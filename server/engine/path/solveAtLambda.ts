@@ -32,6 +32,11 @@ export interface PathState {
   kkt?: KktBounds;
   /** A p-long vector the working-set gap reuses from one lambda to the next. */
   scratch?: Float64Array;
+  /**
+   * X b at the last check and the coefficients b it belongs to: the next solve starts from this
+   * image when coef still equals b (anything may have moved coef since: screening, a warm start).
+   */
+  image?: { eta: Float64Array; coef: Float64Array };
 }
 
 export interface LambdaOptions {
@@ -109,7 +114,9 @@ export function solveAtLambda(
     });
     iterations += outcome.iterations;
     stoppedBy = outcome.stoppedBy;
-    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt, outcome.known);
+    const image = outcome.status === 'numerical-failure' ? undefined : outcome.image;
+    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt, outcome.known, image);
+    keepImage(state, check);
     state.g = check.g;
     state.loss = check.loss;
     if (outcome.status !== 'converged' || !Number.isFinite(check.gap)) {
@@ -183,7 +190,8 @@ export function describeSolve(status: SolveInfo['status'], gap: number, toleranc
 export function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
   const pen = problem.penalty;
   const kkt = state.kkt;
-  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, kkt);
+  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, kkt, undefined, imageOf(state));
+  keepImage(state, check);
   const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / problem.loss.dualConcavity);
   for (let u = 0; u < pen.nBlocks; u++) {
     if (pen.weight[u] === 0) {
@@ -236,6 +244,7 @@ function solveRestricted(
   };
   if (state.lipschitz <= 0) state.lipschitz = loss.lipschitz();
   const estimate = state.lipschitz;
+  const image = imageOf(state);
   const outcome = fista(
     {
       size: ws.size,
@@ -248,7 +257,7 @@ function solveRestricted(
           : undefined,
     },
     w,
-    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
+    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1, image },
   );
   state.lipschitz = outcome.lipschitz;
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
@@ -257,6 +266,26 @@ function solveRestricted(
   for (let b = 0; b < ws.size && atSolution; b++) atSolution = w[b] === evaluated[b];
   const known: KnownProducts | undefined = atSolution ? { features: ws.features, count: ws.k, values: g } : undefined;
   return { ...outcome, known };
+}
+
+/** Keeps the check's image of X b with the coefficients it belongs to (design forms that give one). */
+function keepImage(state: PathState, check: FullCheck): void {
+  if (!check.image) {
+    state.image = undefined;
+    return;
+  }
+  if (state.image && state.image.coef.length === state.coef.length && state.image.eta.length === check.image.length) {
+    state.image.eta.set(check.image);
+    state.image.coef.set(state.coef);
+  } else state.image = { eta: Float64Array.from(check.image), coef: Float64Array.from(state.coef) };
+}
+
+/** The kept image when the coefficients have not moved since it was computed. */
+function imageOf(state: PathState): Float64Array | undefined {
+  const kept = state.image;
+  if (!kept || kept.coef.length !== state.coef.length) return undefined;
+  for (let j = 0; j < state.coef.length; j++) if (kept.coef[j] !== state.coef[j]) return undefined;
+  return kept.eta;
 }
 
 /** The active-set polish handles lasso and elastic-net blocks (one column each). */

@@ -4,7 +4,7 @@ import type { Problem, WorkingSet } from '../problem';
 import { SupportSystem, type GramEntries } from '../supportSystem';
 import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeColumns, transposeTimes } from './design';
 import { normOf, scaleScope } from './dualSteps';
-import { FREE, type BoundLoss, type DualProjection, type DualResidual, type Evaluation, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
+import { FREE, type BoundLoss, type DualProjection, type DualResidual, type Evaluation, type ResidualPoint, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
 
 /**
  * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
@@ -38,7 +38,7 @@ export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRol
     ...shared,
     bind: (ws) => bindDesign(problem, ws),
     evaluate: (coef) => evaluateDesign(problem, coef),
-    residualAt: (coef) => residualDesign(problem, coef),
+    residualAt: (coef, _intercept, image) => residualDesign(problem, coef, image),
     negativeGradient: (ws, active, w) => negativeGradientDesign(problem, ws, active, w),
   };
 }
@@ -117,18 +117,19 @@ function evaluateDesign(problem: Problem, coef: Float64Array): Evaluation {
 }
 
 /** The loss, theta_raw = (yc - X b)/n and yc'theta_raw at b (one product with the non-zero columns). */
-function residualDesign(problem: Problem, coef: Float64Array): { loss: number; theta: Float64Array; residual: DualResidual } {
+function residualDesign(problem: Problem, coef: Float64Array, image?: Float64Array): ResidualPoint {
   const { n, y } = problem;
-  const eta = fullImage(problem, coef, 0);
+  const eta = image ?? fullImage(problem, coef, 0);
+  const theta = new Float64Array(n);
   let loss = 0;
   let ycTheta = 0;
   for (let i = 0; i < n; i++) {
     const r = y[i] - eta[i];
     loss += r * r;
     ycTheta += (y[i] * r) / n;
-    eta[i] = r / n;
+    theta[i] = r / n;
   }
-  return { loss: loss / (2 * n), theta: eta, residual: { ycTheta, theta: null } };
+  return { loss: loss / (2 * n), theta, residual: { ycTheta, theta: null }, image: eta };
 }
 
 /** One product with the Gram columns of the non-zero coefficients. */

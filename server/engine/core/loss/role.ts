@@ -26,8 +26,9 @@ export interface LossRole {
    * Design forms whose dual ignores a block with |X_u'theta| < lambda alpha w_u (gaussian): the loss,
    * theta_raw = -d loss / d eta (length n) and the dual residual at (coef, intercept), without
    * X'theta, so the full check computes only the columns it needs (path/check.ts, KktBounds).
+   * `image`, when given, is X b already computed (the solver's image of the same point).
    */
-  residualAt?(coef: Float64Array, intercept: number): { loss: number; theta: Float64Array; residual: DualResidual };
+  residualAt?(coef: Float64Array, intercept: number, image?: Float64Array): ResidualPoint;
   /** The null model: penalized coefficients 0, the intercept and the unpenalized columns U at their optimum. */
   nullFit(unpenalized: Int32Array, memory: SupportMemory): NullFit;
   /**
@@ -58,6 +59,17 @@ export interface BoundLoss {
   lipschitz(): number;
   /** What the dual needs from the current point besides X'theta (gradient() gives that). */
   residual(img: Float64Array, w: Float64Array): DualResidual;
+}
+
+/**
+ * LossRole.residualAt's answer: the loss, theta_raw, the dual residual, and the image X b it came
+ * from (given, or computed when not given).
+ */
+export interface ResidualPoint {
+  loss: number;
+  theta: Float64Array;
+  residual: DualResidual;
+  image: Float64Array;
 }
 
 /** gaussian: yc'theta_raw (theta null); binomial: theta_raw itself (length n). */
