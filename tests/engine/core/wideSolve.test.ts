@@ -12,7 +12,7 @@ import { SupportSystem } from '../../../server/engine/core/supportSystem';
 import { fitPathOnDesign } from '../../../server/engine/index';
 import { checkFull, KktBounds } from '../../../server/engine/path/check';
 import { prepareProblem } from '../../../server/engine/path/setup';
-import { gapSafe, type PathState } from '../../../server/engine/path/solveAtLambda';
+import { gapSafe, solveAtLambda, type PathState } from '../../../server/engine/path/solveAtLambda';
 import type { PathOptions } from '../../../server/engine/types';
 import { createRng } from '../../../server/engine/random';
 import { expectClose } from '../../support/numbers';
@@ -137,5 +137,34 @@ describe('SupportSystem G cache', () => {
       const fresh = solve(new SupportSystem(entry), features);
       features.forEach((f, q) => expectClose(`step ${step} support [${features}] column ${f}`, got[q], fresh[q], 1e-10));
     }
+  });
+});
+
+describe('path state carried between lambdas', () => {
+  const opts = options(1);
+  const path = fitPathOnDesign(design, y, opts);
+  const { problem, dual } = prepareProblem(design, y, opts);
+
+  function freshState(coef: Float64Array): PathState {
+    return { coef: Float64Array.from(coef), intercept: 0, g: new Float64Array(p), loss: 0, lipschitz: 0, support: {} };
+  }
+
+  it('a solve after the coefficients were moved from outside (a warm start) equals one from a fresh state', () => {
+    const lambdaOptions = (k: number) => ({ lambda: path.lambda[k], previousLambda: path.lambda[k - 1], tolerance: 1e-10, maxIterations: 10000, screening: 'strong' as const, polish: true });
+    // A state that has solved lambda 5 (its image, bounds and factor belong to that solution)...
+    const carried = freshState(path.standardizedCoefficients[4]);
+    solveAtLambda(problem, dual, carried, lambdaOptions(5));
+    // ...then is warm-started elsewhere, as a cross-validation fold from the full-data path.
+    carried.coef.set(path.standardizedCoefficients[20]);
+    carried.g = new Float64Array(p);
+    const fresh = freshState(path.standardizedCoefficients[20]);
+    const a = solveAtLambda(problem, dual, carried, lambdaOptions(20));
+    const b = solveAtLambda(problem, dual, fresh, lambdaOptions(20));
+    // The path's own solution meets the tolerance where it stands: both must see that.
+    expect(b.stoppedBy).toBe('warm-start');
+    expect(a.stoppedBy, 'how the moved state stopped').toBe(b.stoppedBy);
+    expect(a.iterations).toBe(b.iterations);
+    expectClose('relative gap', a.gap, b.gap, 1e-12);
+    for (let j = 0; j < p; j++) expectClose(`column ${j}`, carried.coef[j], fresh.coef[j], 1e-9);
   });
 });
