@@ -73,6 +73,13 @@ export class KktBounds {
     return fresh;
   }
 
+  /** True when g is the last check's and x_j'theta was computed there for every one of `features`. */
+  exactOn(g: Float64Array, features: Int32Array): boolean {
+    if (g !== this.g) return false;
+    for (let q = 0; q < features.length; q++) if (!this.exact[features[q]]) return false;
+    return true;
+  }
+
   /** After a check without bounds: the next check computes every column. */
   invalidate(): void {
     this.refs = [];

@@ -232,19 +232,27 @@ function solveRestricted(
   // The point of the last gap evaluation: when the solve ends there, g holds the working set's
   // x_j'theta at the solution, which the full check then need not compute again.
   const evaluated = new Float64Array(ws.size).fill(NaN);
+  const image = imageOf(state);
+  // At an unmoved warm start the last check's x_j'theta are the working set's (exact on every
+  // working column: the strong rule made them so): FISTA's first gap needs no products.
+  let warm = image && state.kkt?.exactOn(state.g, ws.features) ? state.g : null;
   const gap = (v: Float64Array, img: Float64Array): number => {
     evaluated.set(v);
     const value = loss.value(img, v);
     const residual = loss.residual(img, v);
-    loss.gradient(img, v, grad);
-    for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
+    if (warm) {
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = warm[ws.features[b]];
+      warm = null;
+    } else {
+      loss.gradient(img, v, grad);
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
+    }
     const penalty = penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda);
     const result = dual.gap({ lambda, blocks: ws.blocks, g, loss: value, penalty, residual });
     return result.gap / problem.nullObjective;
   };
   if (state.lipschitz <= 0) state.lipschitz = loss.lipschitz();
   const estimate = state.lipschitz;
-  const image = imageOf(state);
   const outcome = fista(
     {
       size: ws.size,
