@@ -93,10 +93,14 @@ export function solveAtLambda(
     // Where the last check left a bound instead of x_j'theta, the rule needs the number only if
     // the bound reaches the threshold.
     state.kkt.resolve(state.g, (u) => pen.weight[u] * threshold);
+    const single = pen.start[pen.nBlocks] === pen.nBlocks;
     for (let u = 0; u < pen.nBlocks; u++) {
-      if (pen.weight[u] === 0 || blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) {
-        keep[u] = 1;
-      }
+      if (pen.weight[u] === 0) keep[u] = 1;
+      else if (single) {
+        // One column per block (lasso, elastic net): the norms are absolute values.
+        const j = pen.features[u];
+        if (Math.abs(state.g[j]) >= pen.weight[u] * threshold || state.coef[j] !== 0) keep[u] = 1;
+      } else if (blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) keep[u] = 1;
     }
   }
 
@@ -106,7 +110,7 @@ export function solveAtLambda(
   let check: FullCheck | null = null;
   let restrictedTolerance = tolerance;
   for (let round = 0; round < MAX_ROUNDS; round++) {
-    const ws = makeWorkingSet(pen, allBlocks.filter((u) => keep[u] === 1), intercept);
+    const ws = makeWorkingSet(pen, keptBlocks(keep), intercept);
     const outcome = solveRestricted(problem, dual, ws, state, lambda, {
       polish: options.polish,
       tolerance: restrictedTolerance,
@@ -274,6 +278,15 @@ function solveRestricted(
   for (let b = 0; b < ws.size && atSolution; b++) atSolution = w[b] === evaluated[b];
   const known: KnownProducts | undefined = atSolution ? { features: ws.features, count: ws.k, values: g } : undefined;
   return { ...outcome, known };
+}
+
+function keptBlocks(keep: Uint8Array): Int32Array {
+  let count = 0;
+  for (let u = 0; u < keep.length; u++) count += keep[u];
+  const blocks = new Int32Array(count);
+  let at = 0;
+  for (let u = 0; u < keep.length; u++) if (keep[u]) blocks[at++] = u;
+  return blocks;
 }
 
 /** Keeps the check's image of X b with the coefficients it belongs to (design forms that give one). */
