@@ -65,7 +65,7 @@ export function polishOnSupport(
       }
     }
     if (flipped) continue;
-    const g = problem.loss.negativeGradient(ws, active, out);
+    const g = problem.loss.negativeGradient(ws, active, out, memory);
     let added = false;
     for (let b = 0; b < k; b++) {
       if (sign[b] === 0 && Math.abs(g[b]) > l1[b] * (1 + KKT_SLACK)) {

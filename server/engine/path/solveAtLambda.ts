@@ -1,5 +1,5 @@
 import type { DualContext } from '../core/dual';
-import { fista } from '../core/fista';
+import { fista, type KnownGradient, type PolishOutcome } from '../core/fista';
 import type { SupportMemory } from '../core/loss';
 import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
 import type { Problem, WorkingSet } from '../core/problem';
@@ -240,13 +240,20 @@ function solveRestricted(
   // At an unmoved warm start the last check's x_j'theta are the working set's (exact on every
   // working column: the strong rule made them so): FISTA's first gap needs no products.
   let warm = image && state.kkt?.exactOn(state.g, ws.features) ? state.g : null;
-  const gap = (v: Float64Array, img: Float64Array): number => {
+  const positions = new Int32Array(ws.k);
+  const gap = (v: Float64Array, img: Float64Array, known?: KnownGradient): number => {
     evaluated.set(v);
     const value = loss.value(img, v);
     const residual = loss.residual(img, v);
     if (warm) {
       for (let b = 0; b < ws.k; b++) g[ws.features[b]] = warm[ws.features[b]];
       warm = null;
+    } else if (known && loss.gradientOn) {
+      // The polish left x_b'theta off its support: the products on the support remain.
+      let count = 0;
+      for (let b = 0; b < ws.k; b++) if (!known.known[b]) positions[count++] = b;
+      loss.gradientOn(img, v, grad, positions, count);
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = known.known[b] ? known.values[b] : -grad[b];
     } else {
       loss.gradient(img, v, grad);
       for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
@@ -265,7 +272,14 @@ function solveRestricted(
       gap,
       polish:
         options.polish && singleColumnBlocks(ws)
-          ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance)
+          ? (v, out, maxSteps) => {
+              const result: PolishOutcome = polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance);
+              const last = state.support.last;
+              state.support.last = undefined;
+              if (!result.ok || !last || last.w.length !== ws.k) return result;
+              for (let b = 0; b < ws.k; b++) if (last.w[b] !== out[b]) return result;
+              return { ...result, image: last.image, gradient: last };
+            }
           : undefined,
     },
     w,

@@ -4,7 +4,7 @@ import type { Problem, WorkingSet } from '../problem';
 import { SupportSystem, type GramEntries } from '../supportSystem';
 import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeColumns, transposeTimes } from './design';
 import { normOf, scaleScope } from './dualSteps';
-import { FREE, type BoundLoss, type DualProjection, type DualResidual, type Evaluation, type ResidualPoint, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
+import { FREE, type BoundLoss, type DualProjection, type Evaluation, type ResidualPoint, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
 
 /**
  * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
@@ -39,7 +39,7 @@ export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRol
     bind: (ws) => bindDesign(problem, ws),
     evaluate: (coef) => evaluateDesign(problem, coef),
     residualAt: (coef, _intercept, image) => residualDesign(problem, coef, image),
-    negativeGradient: (ws, active, w) => negativeGradientDesign(problem, ws, active, w),
+    negativeGradient: (ws, active, w, memory) => negativeGradientDesign(problem, ws, active, w, memory),
   };
 }
 
@@ -60,6 +60,13 @@ function bindDesign(problem: Problem, ws: WorkingSet): BoundLoss {
     gradient(img, _w, out) {
       for (let i = 0; i < n; i++) residual[i] = img[i] - y[i];
       designTranspose(problem, ws, residual, out, 1 / n);
+    },
+    gradientOn(img, _w, out, positions, count) {
+      for (let i = 0; i < n; i++) residual[i] = img[i] - y[i];
+      const columns = new Int32Array(count);
+      for (let q = 0; q < count; q++) columns[q] = ws.features[positions[q]];
+      transposeColumns(problem.x, n, columns, count, residual, out, positions);
+      for (let q = 0; q < count; q++) out[positions[q]] *= 1 / n;
     },
     lipschitz: () => designGramNorm(problem, ws),
     residual(img) {
@@ -325,7 +332,7 @@ function columnProducts(problem: Problem): GramEntries {
  * columns), then one product per column. The polish needs no more: on the support the gradient is
  * what the system solved for.
  */
-function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
+function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array, memory?: SupportMemory): Float64Array {
   const { n, x, y } = problem;
   const eta = new Float64Array(n);
   const off = new Uint8Array(ws.k).fill(1);
@@ -335,6 +342,7 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
     support[a] = w[a];
   }
   designImage(problem, ws, support, eta, 0);
+  const image = memory ? Float64Array.from(eta) : null;
   for (let i = 0; i < n; i++) eta[i] = y[i] - eta[i];
   const columns = new Int32Array(ws.k - active.length);
   const slots = new Int32Array(columns.length);
@@ -347,6 +355,8 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
   const out = new Float64Array(ws.k);
   transposeColumns(x, n, columns, count, eta, out, slots);
   for (let q = 0; q < count; q++) out[slots[q]] /= n;
+  // Kept for the gap at this point (solveAtLambda.ts): its image and these products need no redoing.
+  if (memory && image) memory.last = { w: Float64Array.from(support), image, known: off, values: out };
   return out;
 }
 

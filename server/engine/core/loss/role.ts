@@ -46,7 +46,7 @@ export interface LossRole {
    * x_j'theta (= -gradient) at `w`, whose non-zeros are among `active`, for every working column off
    * `active` (the entries of `active` are left unspecified: the polish does not read them).
    */
-  negativeGradient(ws: WorkingSet, active: number[], w: Float64Array): Float64Array;
+  negativeGradient(ws: WorkingSet, active: number[], w: Float64Array, memory?: SupportMemory): Float64Array;
 }
 
 export interface BoundLoss {
@@ -55,6 +55,8 @@ export interface BoundLoss {
   image(w: Float64Array, out: Float64Array): void;
   value(img: Float64Array, w: Float64Array): number;
   gradient(img: Float64Array, w: Float64Array, out: Float64Array): void;
+  /** gradient() on the working positions positions[0..count) only (others untouched), when the loss has it. */
+  gradientOn?(img: Float64Array, w: Float64Array, out: Float64Array, positions: Int32Array, count: number): void;
   /** An estimate of the gradient's Lipschitz constant (backtracking corrects an underestimate). */
   lipschitz(): number;
   /** What the dual needs from the current point besides X'theta (gradient() gives that). */
@@ -134,4 +136,9 @@ export interface SupportProblem {
 export interface SupportMemory {
   system?: SupportSystem;
   tangent?: Tangent;
+  /**
+   * The last negativeGradient of a loss that records it (gaussian design form): the point w, its
+   * image X w, and x_b'theta at the positions b with known[b] (those off the support).
+   */
+  last?: { w: Float64Array; image: Float64Array; known: Uint8Array; values: Float64Array };
 }
