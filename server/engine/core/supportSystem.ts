@@ -12,8 +12,8 @@ export type GramEntries = (f: number, others: Int32Array, count: number, out: Fl
  * leading part are kept, the rest are appended, each at O(m^2). Rows are Jacobi-scaled (raw columns
  * can differ in scale by many orders; the pivot test is relative to the unit diagonal); a pivot below
  * 1e-10 marks a linearly dependent column, whose solution entry is 0. One step of iterative
- * refinement (Higham 2002, "Accuracy and Stability of Numerical Algorithms", ch. 12) recovers the
- * digits the factor loses on nearly collinear columns.
+ * refinement (Higham 2002, "Accuracy and Stability of Numerical Algorithms", ch. 12), unless the
+ * caller waives it, recovers the digits the factor loses on nearly collinear columns.
  *
  * Storage is allocation-free in the steady state: the factor lives in position space (row-major,
  * `stride` grown geometrically), the G entries in a cache of slots, one per column, that outlives

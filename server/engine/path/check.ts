@@ -1,6 +1,5 @@
 import type { DualContext, DualResult } from '../core/dual';
 import { transposeColumns } from '../core/loss/design';
-
 import type { Problem } from '../core/problem';
 
 export interface FullCheck {
@@ -24,10 +23,9 @@ export interface FullCheck {
  * that the check computes x_j'theta_raw only for the columns that can matter. By the triangle
  * inequality (the argument of the Gap Safe spheres, Ndiaye et al. 2017, JMLR 18, section 3, with a
  * multiple of a past check's theta as the centre), |x_j'theta| <= |c| |x_j'theta_ref| + ||x_j||
- * ||theta - c theta_ref|| for any c,
- * where theta_ref is the last theta at which x_j'theta was computed (kept while some column refers
- * to it: the direct distance, not a sum of steps, so the small jitter of approximate solutions does
- * not add up). A block whose bound stays below lambda alpha w_u can neither violate its KKT condition
+ * ||theta - c theta_ref|| for any c, where theta_ref is the last theta at which x_j'theta was
+ * computed (kept while some column refers to it: the direct distance, not a sum of steps, so the
+ * small jitter of approximate solutions does not add up). A block whose bound stays below lambda alpha w_u can neither violate its KKT condition
  * nor change the dual point (the gaussian dual scales theta only for blocks above lambda w_u and
  * counts a conjugate only above lambda alpha w_u, dual.ts), so the full duality gap is the same with
  * or without its product: the check stays exact. Used for losses with a dual residual (design forms,
