@@ -38,10 +38,13 @@ export class KktBounds {
   private readonly colNorm: Float64Array;
   private readonly columns: Int32Array;
   /** Past thetas still referred to, each with its norm, its users and its distance to the latest. */
-  private refs: { theta: Float64Array; norm: number; users: number; factor: number; move: number }[] = [];
-  /** Index into refs of the theta where column j was last computed (-1: never), and |x_j'theta| there. */
+  private refs: { theta: Float64Array; norm: number; users: number; factor: number; move: number; dot: number }[] = [];
+  /** Index into refs of the theta where column j was last computed (-1: never), and x_j'theta there. */
   private readonly ref: Int32Array;
   private readonly value: Float64Array;
+  /** The same for the computation before that (-1: none): two points of the path to extrapolate from. */
+  private readonly ref2: Int32Array;
+  private readonly value2: Float64Array;
   /** refs index of the last check's theta, and the g array that check filled (resolve works only on it). */
   private current = -1;
   private g: Float64Array | null = null;
@@ -59,6 +62,8 @@ export class KktBounds {
     this.columns = new Int32Array(p);
     this.ref = new Int32Array(p).fill(-1);
     this.value = new Float64Array(p);
+    this.ref2 = new Int32Array(p).fill(-1);
+    this.value2 = new Float64Array(p);
     this.given = new Uint8Array(p);
     this.checked = new Int32Array(problem.penalty.nBlocks);
   }
@@ -94,6 +99,7 @@ export class KktBounds {
   invalidate(): void {
     this.refs = [];
     this.ref.fill(-1);
+    this.ref2.fill(-1);
     this.current = -1;
     this.g = null;
     this.exact.fill(1);
@@ -122,10 +128,12 @@ export class KktBounds {
         sq += d * d;
       }
       r.factor = Math.abs(c);
+      r.dot = dot;
       // Rounding of the dot products (at most n eps ||x_j|| ||theta|| each, Higham 2002, 3.1) and of
       // the distance itself, with a wide margin: a certified column is never a rounding call.
       r.move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (r.factor * r.norm + this.refs[at].norm);
     }
+    const pairs = new Map<number, { a: number; b: number; move: number } | null>();
     let count = 0;
     this.checkedCount = 0;
     for (let u = 0; u < pen.nBlocks; u++) {
@@ -135,7 +143,11 @@ export class KktBounds {
         const j = pen.features[i];
         if (ref[j] < 0) known = false;
         else {
-          const b = this.refs[ref[j]].factor * value[j] + colNorm[j] * this.refs[ref[j]].move;
+          let b = this.refs[ref[j]].factor * Math.abs(value[j]) + colNorm[j] * this.refs[ref[j]].move;
+          if (this.ref2[j] >= 0) {
+            const pair = this.pair(theta, ref[j], this.ref2[j], pairs);
+            if (pair) b = Math.min(b, Math.abs(pair.a * value[j] + pair.b * this.value2[j]) + colNorm[j] * pair.move);
+          }
           bound[j] = b;
           sq += b * b;
         }
@@ -154,6 +166,41 @@ export class KktBounds {
     this.current = at;
     this.g = g;
     this.dropUnused();
+  }
+
+  /**
+   * The closest point a theta_1 + b theta_2 of the plane through the origin and two past thetas (the
+   * path moves nearly along it from one lambda to the next, so the distance is far smaller than to
+   * either): |x_j'theta| <= |a x_j'theta_1 + b x_j'theta_2| + ||x_j|| ||theta - a theta_1 - b theta_2||.
+   * null when the two are too close to parallel for the 2 x 2 normal equations.
+   */
+  private pair(theta: Float64Array, r1: number, r2: number, cache: Map<number, { a: number; b: number; move: number } | null>) {
+    const key = r1 * this.refs.length + r2;
+    const cached = cache.get(key);
+    if (cached !== undefined) return cached;
+    const one = this.refs[r1];
+    const two = this.refs[r2];
+    const n = theta.length;
+    let d12 = 0;
+    for (let i = 0; i < n; i++) d12 += one.theta[i] * two.theta[i];
+    const d11 = one.norm * one.norm;
+    const d22 = two.norm * two.norm;
+    const det = d11 * d22 - d12 * d12;
+    let result: { a: number; b: number; move: number } | null = null;
+    if (det > PARALLEL * d11 * d22) {
+      const a = (one.dot * d22 - two.dot * d12) / det;
+      const b = (two.dot * d11 - one.dot * d12) / det;
+      let sq = 0;
+      for (let i = 0; i < n; i++) {
+        const d = theta[i] - a * one.theta[i] - b * two.theta[i];
+        sq += d * d;
+      }
+      const norm = this.refs[this.refs.length - 1].norm;
+      const move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (Math.abs(a) * one.norm + Math.abs(b) * two.norm + norm);
+      result = { a, b, move };
+    }
+    cache.set(key, result);
+    return result;
   }
 
   /**
@@ -209,13 +256,17 @@ export class KktBounds {
       for (let q = 0; q < given.count; q++) mark[given.features[q]] = 0;
     }
     transposeColumns(problem.x, target.theta.length, columns, todo, target.theta, g);
+    const { ref2, value2 } = this;
     for (let q = 0; q < count; q++) {
       const j = columns[q];
-      if (ref[j] >= 0) this.refs[ref[j]].users--;
+      // The previous computation becomes the second point (its ref keeps its user).
+      if (ref2[j] >= 0) this.refs[ref2[j]].users--;
+      ref2[j] = ref[j];
+      value2[j] = value[j];
       ref[j] = at;
       target.users++;
-      value[j] = Math.abs(g[j]);
-      bound[j] = value[j];
+      value[j] = g[j];
+      bound[j] = Math.abs(g[j]);
       exact[j] = 1;
     }
   }
@@ -223,7 +274,7 @@ export class KktBounds {
   private addRef(theta: Float64Array): number {
     let norm = 0;
     for (let i = 0; i < theta.length; i++) norm += theta[i] * theta[i];
-    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, factor: 1, move: 0 });
+    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, factor: 1, move: 0, dot: 0 });
     return this.refs.length - 1;
   }
 
@@ -238,7 +289,10 @@ export class KktBounds {
         kept.push(r);
       }
     });
-    for (let j = 0; j < this.ref.length; j++) if (this.ref[j] >= 0) this.ref[j] = index[this.ref[j]];
+    for (let j = 0; j < this.ref.length; j++) {
+      if (this.ref[j] >= 0) this.ref[j] = index[this.ref[j]];
+      if (this.ref2[j] >= 0) this.ref2[j] = index[this.ref2[j]];
+    }
     this.current = index[this.current];
     this.refs = kept;
   }
@@ -253,6 +307,9 @@ export interface KnownProducts {
   count: number;
   values: Float64Array;
 }
+
+/** Below this relative determinant the two thetas count as parallel (the one-theta bound serves). */
+const PARALLEL = 1e-8;
 
 /** Multiple of n eps ||x_j|| ||theta|| added to every move of the bounds (see KktBounds.update). */
 const ROUNDING_MARGIN = 4;
