@@ -38,7 +38,7 @@ export class KktBounds {
   private readonly colNorm: Float64Array;
   private readonly columns: Int32Array;
   /** Past thetas still referred to, each with its norm, its users and its distance to the latest. */
-  private refs: { theta: Float64Array; norm: number; users: number; factor: number; move: number; dot: number }[] = [];
+  private refs: Ref[] = [];
   /** Index into refs of the theta where column j was last computed (-1: never), and x_j'theta there. */
   private readonly ref: Int32Array;
   private readonly value: Float64Array;
@@ -133,7 +133,7 @@ export class KktBounds {
       // the distance itself, with a wide margin: a certified column is never a rounding call.
       r.move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (r.factor * r.norm + this.refs[at].norm);
     }
-    const pairs = new Map<number, { a: number; b: number; move: number } | null>();
+    const pairs: (Plane | null | undefined)[] = new Array(this.refs.length * this.refs.length);
     let count = 0;
     this.checkedCount = 0;
     for (let u = 0; u < pen.nBlocks; u++) {
@@ -174,32 +174,38 @@ export class KktBounds {
    * either): |x_j'theta| <= |a x_j'theta_1 + b x_j'theta_2| + ||x_j|| ||theta - a theta_1 - b theta_2||.
    * null when the two are too close to parallel for the 2 x 2 normal equations.
    */
-  private pair(theta: Float64Array, r1: number, r2: number, cache: Map<number, { a: number; b: number; move: number } | null>) {
+  private pair(theta: Float64Array, r1: number, r2: number, cache: (Plane | null | undefined)[]): Plane | null {
     const key = r1 * this.refs.length + r2;
-    const cached = cache.get(key);
+    const cached = cache[key];
     if (cached !== undefined) return cached;
     const one = this.refs[r1];
     const two = this.refs[r2];
     const n = theta.length;
-    let d12 = 0;
-    for (let i = 0; i < n; i++) d12 += one.theta[i] * two.theta[i];
+    // theta_1'theta_2 once per pair of thetas (pairs recur from check to check).
+    let d12 = one.dots.get(two);
+    if (d12 === undefined) {
+      d12 = 0;
+      for (let i = 0; i < n; i++) d12 += one.theta[i] * two.theta[i];
+      one.dots.set(two, d12);
+    }
     const d11 = one.norm * one.norm;
     const d22 = two.norm * two.norm;
     const det = d11 * d22 - d12 * d12;
-    let result: { a: number; b: number; move: number } | null = null;
+    let result: Plane | null = null;
     if (det > PARALLEL * d11 * d22) {
       const a = (one.dot * d22 - two.dot * d12) / det;
       const b = (two.dot * d11 - one.dot * d12) / det;
-      let sq = 0;
-      for (let i = 0; i < n; i++) {
-        const d = theta[i] - a * one.theta[i] - b * two.theta[i];
-        sq += d * d;
-      }
       const norm = this.refs[this.refs.length - 1].norm;
-      const move = Math.sqrt(sq) + ROUNDING_MARGIN * n * Number.EPSILON * (Math.abs(a) * one.norm + Math.abs(b) * two.norm + norm);
+      // ||theta - a theta_1 - b theta_2||^2 from the inner products already at hand. It cancels when
+      // small; the error of the sum and of its n-long inner products is below (n + 8) eps S^2
+      // (S = ||theta|| + |a| ||theta_1|| + |b| ||theta_2||; Higham 2002, 3.1), added twice over.
+      const scale = norm + Math.abs(a) * one.norm + Math.abs(b) * two.norm;
+      const sq = norm * norm - 2 * a * one.dot - 2 * b * two.dot + a * a * d11 + 2 * a * b * d12 + b * b * d22;
+      const slack = 2 * (n + 8) * Number.EPSILON * scale * scale;
+      const move = Math.sqrt(Math.max(0, sq) + slack) + ROUNDING_MARGIN * n * Number.EPSILON * scale;
       result = { a, b, move };
     }
-    cache.set(key, result);
+    cache[key] = result;
     return result;
   }
 
@@ -274,7 +280,7 @@ export class KktBounds {
   private addRef(theta: Float64Array): number {
     let norm = 0;
     for (let i = 0; i < theta.length; i++) norm += theta[i] * theta[i];
-    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, factor: 1, move: 0, dot: 0 });
+    this.refs.push({ theta: Float64Array.from(theta), norm: Math.sqrt(norm), users: 0, factor: 1, move: 0, dot: 0, dots: new Map() });
     return this.refs.length - 1;
   }
 
@@ -306,6 +312,27 @@ export interface KnownProducts {
   features: Int32Array;
   count: number;
   values: Float64Array;
+}
+
+/** A past theta the bounds refer to: its norm, users, and its relation to the latest theta. */
+interface Ref {
+  theta: Float64Array;
+  norm: number;
+  /** Columns whose ref or ref2 it is. */
+  users: number;
+  /** |c| and ||theta - c theta_ref|| (with the rounding margin) for the closest multiple c. */
+  factor: number;
+  move: number;
+  /** theta'theta_ref for the latest theta, and theta_ref'theta_other for other refs (cached). */
+  dot: number;
+  dots: Map<Ref, number>;
+}
+
+/** The closest point a theta_1 + b theta_2 of a plane of two past thetas, and the distance to it. */
+interface Plane {
+  a: number;
+  b: number;
+  move: number;
 }
 
 /** Below this relative determinant the two thetas count as parallel (the one-theta bound serves). */
