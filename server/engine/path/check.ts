@@ -300,6 +300,10 @@ export class KktBounds {
       if (this.ref2[j] >= 0) this.ref2[j] = index[this.ref2[j]];
     }
     this.current = index[this.current];
+    // The cached inner products with forgotten thetas go too (they would keep those thetas alive).
+    this.refs.forEach((r, k) => {
+      if (index[k] < 0) for (const other of kept) other.dots.delete(r);
+    });
     this.refs = kept;
   }
 }
