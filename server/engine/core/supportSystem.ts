@@ -42,6 +42,9 @@ export class SupportSystem {
   private others = new Int32Array(0);
   private values = new Float64Array(0);
   private pivot = new Float64Array(0);
+  /** By column index: position in the features of the current solve (-1: none), and a mark; reset after each solve. */
+  private wantedAt = new Int32Array(0);
+  private placed = new Uint8Array(0);
 
   // Slot space: the G cache.
   private cap = 0;
@@ -67,13 +70,21 @@ export class SupportSystem {
    * iterative refinement unless `refine` is false.
    */
   solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array, refine = true): boolean {
-    const wanted = new Map<number, number>();
-    features.forEach((f, q) => wanted.set(f, q));
-    this.dropUnwanted(wanted, shifts);
+    // Position in `features` of every wanted column (-1: not wanted), by column index.
+    let top = 0;
+    for (const f of features) if (f >= top) top = f + 1;
+    for (let q = 0; q < this.size; q++) if (this.order[q] >= top) top = this.order[q] + 1;
+    if (this.wantedAt.length < top) {
+      this.wantedAt = new Int32Array(Math.max(top, 2 * this.wantedAt.length)).fill(-1);
+      this.placed = new Uint8Array(this.wantedAt.length);
+    }
+    const { wantedAt, placed } = this;
+    features.forEach((f, q) => (wantedAt[f] = q));
+    this.dropUnwanted(shifts);
     let keep = 0;
     while (keep < this.size) {
-      const q = wanted.get(this.order[keep]);
-      if (q === undefined || this.shift[keep] !== shifts[q]) break;
+      const q = wantedAt[this.order[keep]];
+      if (q < 0 || this.shift[keep] !== shifts[q]) break;
       keep++;
     }
     // The new order: the kept prefix, the old rows after it that are still wanted, then the rest.
@@ -81,19 +92,22 @@ export class SupportSystem {
     const oldOrder = this.order.subarray(0, this.size).slice();
     this.reserve(size);
     const { order, position } = this;
-    const placed = new Set<number>();
     let count = keep;
-    for (let q = 0; q < keep; q++) placed.add(order[q]);
+    for (let q = 0; q < keep; q++) placed[order[q]] = 1;
     for (let q = keep; q < oldOrder.length; q++) {
-      if (wanted.has(oldOrder[q])) {
+      if (wantedAt[oldOrder[q]] >= 0) {
         order[count++] = oldOrder[q];
-        placed.add(oldOrder[q]);
+        placed[oldOrder[q]] = 1;
       }
     }
-    for (const f of features) if (!placed.has(f)) order[count++] = f;
+    for (const f of features) if (!placed[f]) order[count++] = f;
     for (let q = 0; q < size; q++) {
-      position[q] = wanted.get(order[q]) as number;
+      position[q] = wantedAt[order[q]];
       this.shift[q] = shifts[position[q]];
+    }
+    for (const f of features) {
+      wantedAt[f] = -1;
+      placed[f] = 0;
     }
     this.size = size;
     this.extend(keep);
@@ -133,16 +147,17 @@ export class SupportSystem {
    * L33 L33' + l32 l32', done by rotations at O(k^2) (Golub & Van Loan 2013, 6.5.4) instead of
    * refactoring every row after q at O(k m^2).
    */
-  private dropUnwanted(wanted: Map<number, number>, shifts: number[]): void {
+  private dropUnwanted(shifts: number[]): void {
+    const { wantedAt } = this;
     let drop = 0;
     for (let q = 0; q < this.size; q++) {
       if (this.skip[q]) return;
-      const at = wanted.get(this.order[q]);
-      if (at === undefined) drop++;
+      const at = wantedAt[this.order[q]];
+      if (at < 0) drop++;
       else if (this.shift[q] !== shifts[at]) return;
     }
     if (drop === 0) return;
-    for (let q = this.size - 1; q >= 0; q--) if (!wanted.has(this.order[q])) this.removeRow(q);
+    for (let q = this.size - 1; q >= 0; q--) if (wantedAt[this.order[q]] < 0) this.removeRow(q);
   }
 
   private removeRow(q: number): void {
