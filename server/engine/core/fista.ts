@@ -6,13 +6,27 @@ export interface SolverRoles {
   size: number;
   loss: BoundLoss;
   prox(z: Float64Array, out: Float64Array, step: number): void;
-  /** Relative duality gap at w (image img). */
-  gap(w: Float64Array, img: Float64Array): number;
+  /** Relative duality gap at w (image img); `known`: x_b'theta at w already computed for some positions. */
+  gap(w: Float64Array, img: Float64Array, known?: KnownGradient): number;
   /**
    * Optional active-set polish (polish.ts): a candidate computed from w into out, using at most
    * maxSteps linear solves or Newton steps; `steps` counts them (they count as iterations).
    */
-  polish?(w: Float64Array, out: Float64Array, maxSteps: number): { ok: boolean; steps: number };
+  polish?(w: Float64Array, out: Float64Array, maxSteps: number): PolishOutcome;
+}
+
+/** x_b'theta (= -gradient) at a point for the working positions b with known[b]. */
+export interface KnownGradient {
+  known: Uint8Array;
+  values: Float64Array;
+}
+
+/** What a polish gives back: besides the candidate, its image and part of its gradient when it has them. */
+export interface PolishOutcome {
+  ok: boolean;
+  steps: number;
+  image?: Float64Array;
+  gradient?: KnownGradient;
 }
 
 export interface SolverOptions {
@@ -22,6 +36,8 @@ export interface SolverOptions {
   checkEvery: number;
   /** Starting Lipschitz estimate (backtracking doubles it when too small). */
   lipschitz: number;
+  /** The image of the warm start, when the caller has it (else computed). */
+  image?: Float64Array;
 }
 
 export interface SolverOutcome {
@@ -31,6 +47,8 @@ export interface SolverOutcome {
   lipschitz: number;
   /** Which point met the tolerance (or why the solver stopped). */
   stoppedBy: StopRule;
+  /** The image of the returned point (loss.image of it, as computed for its last gap). */
+  image: Float64Array;
 }
 
 /**
@@ -58,7 +76,8 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   let imgX = new Float64Array(m);
   let imgZ = new Float64Array(m);
   const imgY = new Float64Array(m);
-  loss.image(x, imgX);
+  if (options.image && options.image.length === m) imgX.set(options.image);
+  else loss.image(x, imgX);
   imgY.set(imgX);
   let lipschitz = options.lipschitz > 0 ? options.lipschitz : 1;
   let t = 1;
@@ -71,13 +90,16 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   const polish = (): void => {
     const budget = options.maxIterations - it - spent;
     if (!polisher || !roles.polish || budget <= 0 || !polisher.wants(x)) return;
+    let extra: PolishOutcome | null = null;
     const found = polisher.attempt(x, (out) => {
-      const outcome = roles.polish!(x, out, budget);
-      spent += outcome.steps;
-      return outcome.ok;
+      extra = roles.polish!(x, out, budget);
+      spent += extra.steps;
+      return extra.ok;
     }, (cand, img) => {
-      loss.image(cand, img);
-      return roles.gap(cand, img);
+      const given: PolishOutcome | null = extra;
+      if (given?.image && given.image.length === m) img.set(given.image);
+      else loss.image(cand, img);
+      return roles.gap(cand, img, given?.gradient);
     });
     if (!found || !(found.gap <= gap)) return;
     x.set(found.point);
@@ -149,7 +171,7 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     // After a numerical failure the warm start is kept: never hand back non-finite coefficients.
     if (status !== 'numerical-failure') w.set(x);
     const stoppedBy: StopRule = status === 'converged' ? source : status;
-    return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy };
+    return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy, image: imgX };
   }
 }
 

@@ -22,7 +22,8 @@ const MAX_ROUNDS = 12;
  * is solved again (a primal active-set method), for at most MAX_ROUNDS rounds.
  * Only for penalties whose blocks are single columns (lasso, elastic net). The caller recomputes the
  * duality gap at the polished point and keeps it only if it is no worse: the gap stays the
- * certificate. Writes the working vector (intercept in slot k for binomial) into `out`.
+ * certificate. Writes the working vector (intercept in slot k for binomial) into `out`. `tolerance`
+ * is the relative gap the solve asks for (the support solve may spend less accuracy on a loose one).
  */
 export function polishOnSupport(
   problem: Problem,
@@ -32,6 +33,7 @@ export function polishOnSupport(
   out: Float64Array,
   maxSteps: number,
   memory: SupportMemory,
+  tolerance?: number,
 ): { ok: boolean; steps: number } {
   const k = ws.k;
   const pen = problem.penalty;
@@ -51,7 +53,7 @@ export function polishOnSupport(
     for (let b = 0; b < k; b++) if (sign[b] !== 0) active.push(b);
     const budget = maxSteps - steps;
     if (budget <= 0) return { ok: false, steps };
-    const solved = problem.loss.solveOnSupport({ ws, active, sign, l1, l2, lambda }, out, budget, memory);
+    const solved = problem.loss.solveOnSupport({ ws, active, sign, l1, l2, lambda, tolerance }, out, budget, memory);
     steps += solved.steps;
     if (!solved.ok) return { ok: false, steps };
     let flipped = false;
@@ -63,7 +65,7 @@ export function polishOnSupport(
       }
     }
     if (flipped) continue;
-    const g = problem.loss.negativeGradient(ws, active, out);
+    const g = problem.loss.negativeGradient(ws, active, out, memory);
     let added = false;
     for (let b = 0; b < k; b++) {
       if (sign[b] === 0 && Math.abs(g[b]) > l1[b] * (1 + KKT_SLACK)) {

@@ -1,4 +1,10 @@
 /**
+ * Gram entries of a column against several others: out[t] = G(f, others[t]) for t < count.
+ * The design form batches them (several columns per pass over x_f); each must equal entry(f, g).
+ */
+export type GramEntries = (f: number, others: Int32Array, count: number, out: Float64Array) => void;
+
+/**
  * The linear system of the gaussian active-set polish, (G_AA + diag(shift)) b = rhs with
  * G = X'X/n, kept factorized between calls: supports change little from one polish (or one lambda)
  * to the next, so the Cholesky factor is extended a row at a time ("bordered" Cholesky, Golub & Van
@@ -6,53 +12,123 @@
  * leading part are kept, the rest are appended, each at O(m^2). Rows are Jacobi-scaled (raw columns
  * can differ in scale by many orders; the pivot test is relative to the unit diagonal); a pivot below
  * 1e-10 marks a linearly dependent column, whose solution entry is 0. One step of iterative
- * refinement (Higham 2002, "Accuracy and Stability of Numerical Algorithms", ch. 12) recovers the
- * digits the factor loses on nearly collinear columns.
+ * refinement (Higham 2002, "Accuracy and Stability of Numerical Algorithms", ch. 12), unless the
+ * caller waives it, recovers the digits the factor loses on nearly collinear columns.
+ *
+ * Storage is allocation-free in the steady state: the factor lives in position space (row-major,
+ * `stride` grown geometrically), the G entries in a cache of slots, one per column, that outlives
+ * the column's stay in the support. Along a path columns leave and join again (the polish's sign
+ * flips, the working-set rounds), and an entry is an n-long dot product in the design form: a
+ * column that returns finds its entries with the columns still there. Slots not in the support are
+ * evicted least recently used first once the cache holds CACHE_SLACK times the support.
  */
 export class SupportSystem {
-  private order: number[] = [];
-  private shift: Float64Array = new Float64Array(0);
+  // Position space: the factored order.
+  private size = 0;
   private stride = 0;
-  /** Raw G_AA entries and the factor of the scaled G_AA + diag(shift), row-major with `stride`. */
-  private m: Float64Array = new Float64Array(0);
-  private l: Float64Array = new Float64Array(0);
-  private scale: number[] = [];
-  private skip: number[] = [];
+  private order = new Int32Array(0);
+  private slotAt = new Int32Array(0);
+  private shift = new Float64Array(0);
+  private scale = new Float64Array(0);
+  private skip = new Uint8Array(0);
+  /** Factor of the scaled G_AA + diag(shift), row-major with `stride`. */
+  private l = new Float64Array(0);
+  // Scratch vectors of length stride.
+  private b = new Float64Array(0);
+  private z = new Float64Array(0);
+  private dz = new Float64Array(0);
+  private residual = new Float64Array(0);
+  private position = new Int32Array(0);
+  private others = new Int32Array(0);
+  private values = new Float64Array(0);
+  private pivot = new Float64Array(0);
+  /** By column index: position in the features of the current solve (-1: none), and a mark; reset after each solve. */
+  private wantedAt = new Int32Array(0);
+  private placed = new Uint8Array(0);
 
-  constructor(private readonly entry: (f: number, g: number) => number) {}
+  // Slot space: the G cache.
+  private cap = 0;
+  private gram = new Float64Array(0);
+  private known = new Uint8Array(0);
+  private slotFeature = new Int32Array(0);
+  private lastUse = new Float64Array(0);
+  private readonly slotOf = new Map<number, number>();
+  private clock = 0;
 
-  /** Solves for the features in `features` (solution in the same order, into out). */
-  solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array): boolean {
-    const wanted = new Map<number, number>();
-    features.forEach((f, q) => wanted.set(f, q));
-    this.dropUnwanted(wanted, shifts);
+  private readonly entries: GramEntries;
+
+  constructor(entry: (f: number, g: number) => number, entries?: GramEntries) {
+    this.entries =
+      entries ??
+      ((f, others, count, out) => {
+        for (let t = 0; t < count; t++) out[t] = entry(f, others[t]);
+      });
+  }
+
+  /**
+   * Solves for the features in `features` (solution in the same order, into out), with the step of
+   * iterative refinement unless `refine` is false.
+   */
+  solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array, refine = true): boolean {
+    // Position in `features` of every wanted column (-1: not wanted), by column index.
+    let top = 0;
+    for (const f of features) if (f >= top) top = f + 1;
+    for (let q = 0; q < this.size; q++) if (this.order[q] >= top) top = this.order[q] + 1;
+    if (this.wantedAt.length < top) {
+      this.wantedAt = new Int32Array(Math.max(top, 2 * this.wantedAt.length)).fill(-1);
+      this.placed = new Uint8Array(this.wantedAt.length);
+    }
+    const { wantedAt, placed } = this;
+    features.forEach((f, q) => (wantedAt[f] = q));
+    this.dropUnwanted(shifts);
     let keep = 0;
-    while (keep < this.order.length) {
-      const q = wanted.get(this.order[keep]);
-      if (q === undefined || this.shift[keep] !== shifts[q]) break;
+    while (keep < this.size) {
+      const q = wantedAt[this.order[keep]];
+      if (q < 0 || this.shift[keep] !== shifts[q]) break;
       keep++;
     }
-    const order = this.order.slice(0, keep);
-    for (const f of this.order.slice(keep)) if (wanted.has(f)) order.push(f);
-    const placed = new Set(order);
-    for (const f of features) if (!placed.has(f)) order.push(f);
-    const position = Int32Array.from(order, (f) => wanted.get(f) as number);
-    this.rebuild(order, keep, Float64Array.from(position, (q) => shifts[q]));
+    // The new order: the kept prefix, the old rows after it that are still wanted, then the rest.
+    const size = features.length;
+    const oldOrder = this.order.subarray(0, this.size).slice();
+    this.reserve(size);
+    const { order, position } = this;
+    let count = keep;
+    for (let q = 0; q < keep; q++) placed[order[q]] = 1;
+    for (let q = keep; q < oldOrder.length; q++) {
+      if (wantedAt[oldOrder[q]] >= 0) {
+        order[count++] = oldOrder[q];
+        placed[oldOrder[q]] = 1;
+      }
+    }
+    for (const f of features) if (!placed[f]) order[count++] = f;
+    for (let q = 0; q < size; q++) {
+      position[q] = wantedAt[order[q]];
+      this.shift[q] = shifts[position[q]];
+    }
+    for (const f of features) {
+      wantedAt[f] = -1;
+      placed[f] = 0;
+    }
+    this.size = size;
+    this.extend(keep);
 
-    const size = order.length;
-    const { stride, m, scale, shift } = this;
-    const b = new Float64Array(size);
+    const { scale, shift, slotAt, gram, cap, b, z, dz, residual } = this;
     for (let q = 0; q < size; q++) b[q] = scale[q] * rhs[position[q]];
-    const z = new Float64Array(size);
     this.substitute(b, z);
+    if (!refine) {
+      for (let q = 0; q < size; q++) {
+        const value = scale[q] * z[q];
+        if (!Number.isFinite(value)) return false;
+        out[position[q]] = value;
+      }
+      return true;
+    }
     // Refinement: r = D b - D (G + diag(shift)) D z, then the correction from the same factor.
-    const dz = new Float64Array(size);
     for (let r = 0; r < size; r++) dz[r] = scale[r] * z[r];
-    const residual = new Float64Array(size);
     for (let q = 0; q < size; q++) {
       let s = 0;
-      const row = q * stride;
-      for (let r = 0; r < size; r++) s += m[row + r] * dz[r];
+      const row = slotAt[q] * cap;
+      for (let r = 0; r < size; r++) s += gram[row + slotAt[r]] * dz[r];
       residual[q] = b[q] - scale[q] * (s + shift[q] * dz[q]);
     }
     this.substitute(residual, dz);
@@ -71,32 +147,31 @@ export class SupportSystem {
    * L33 L33' + l32 l32', done by rotations at O(k^2) (Golub & Van Loan 2013, 6.5.4) instead of
    * refactoring every row after q at O(k m^2).
    */
-  private dropUnwanted(wanted: Map<number, number>, shifts: number[]): void {
-    const size = this.order.length;
+  private dropUnwanted(shifts: number[]): void {
+    const { wantedAt } = this;
     let drop = 0;
-    for (let q = 0; q < size; q++) {
+    for (let q = 0; q < this.size; q++) {
       if (this.skip[q]) return;
-      const at = wanted.get(this.order[q]);
-      if (at === undefined) drop++;
+      const at = wantedAt[this.order[q]];
+      if (at < 0) drop++;
       else if (this.shift[q] !== shifts[at]) return;
     }
     if (drop === 0) return;
-    for (let q = size - 1; q >= 0; q--) if (!wanted.has(this.order[q])) this.removeRow(q);
+    for (let q = this.size - 1; q >= 0; q--) if (wantedAt[this.order[q]] < 0) this.removeRow(q);
   }
 
   private removeRow(q: number): void {
-    const { stride, m, l } = this;
-    const size = this.order.length;
+    const { stride, l } = this;
+    const size = this.size;
     const k = size - q - 1;
-    const x = new Float64Array(k);
+    const x = this.dz;
     for (let i = 0; i < k; i++) x[i] = l[(q + 1 + i) * stride + q];
-    // Shift the entries after row / column q up and left (each source lies after its target).
-    const from = (i: number): number => (i < q ? i : i + 1);
-    for (let r = 0; r < size - 1; r++) {
-      for (let c = 0; c < size - 1; c++) m[r * stride + c] = m[from(r) * stride + from(c)];
-    }
+    // Rows after q move up one, dropping column q (each source lies after its target).
     for (let r = q; r < size - 1; r++) {
-      for (let c = 0; c <= r; c++) l[r * stride + c] = l[(r + 1) * stride + from(c)];
+      const to = r * stride;
+      const from = (r + 1) * stride;
+      l.copyWithin(to, from, from + q);
+      l.copyWithin(to + q, from + q + 1, from + r + 2);
     }
     for (let j = 0; j < k; j++) {
       const jj = (q + j) * stride + q + j;
@@ -111,65 +186,132 @@ export class SupportSystem {
         x[i] = cos * x[i] - sin * l[at];
       }
     }
-    this.order.splice(q, 1);
-    this.scale.splice(q, 1);
-    this.skip.splice(q, 1);
-    const shift = new Float64Array(size - 1);
-    for (let i = 0; i < size - 1; i++) shift[i] = this.shift[from(i)];
-    this.shift = shift;
+    this.order.copyWithin(q, q + 1, size);
+    this.slotAt.copyWithin(q, q + 1, size);
+    this.shift.copyWithin(q, q + 1, size);
+    this.scale.copyWithin(q, q + 1, size);
+    this.skip.copyWithin(q, q + 1, size);
+    this.size = size - 1;
   }
 
-  /**
-   * Keeps rows [0, keep) of the factor, re-lays the matrix for `order`, appends the other rows. When
-   * the old order is kept whole the arrays are extended in place.
-   */
-  private rebuild(order: number[], keep: number, shift: Float64Array): void {
-    const size = order.length;
-    const inPlace = keep === this.order.length && size <= this.stride;
-    const stride = size <= this.stride ? this.stride : Math.max(size, 2 * this.stride, 16);
-    let { m, l } = this;
-    if (!inPlace) {
-      const oldIndex = new Map<number, number>();
-      this.order.forEach((f, q) => oldIndex.set(f, q));
-      const old = Int32Array.from(order, (f) => oldIndex.get(f) ?? -1);
-      m = new Float64Array(stride * stride);
-      l = new Float64Array(stride * stride);
-      for (let q = 0; q < size; q++) {
-        if (old[q] < 0) continue;
-        const from = old[q] * this.stride;
-        for (let r = 0; r <= q; r++) {
-          if (old[r] < 0) continue;
-          m[q * stride + r] = this.m[from + old[r]];
-          m[r * stride + q] = this.m[from + old[r]];
-        }
-        if (q < keep) for (let r = 0; r <= q; r++) l[q * stride + r] = this.l[q * this.stride + r];
-      }
-    }
-    const wasKnown = new Set(this.order);
-    const known = Uint8Array.from(order, (f) => (wasKnown.has(f) ? 1 : 0));
+  /** Room for `size` positions (the factor and the scratch vectors grow geometrically). */
+  private reserve(size: number): void {
+    if (size <= this.stride) return;
+    const stride = Math.max(size, 2 * this.stride, 16);
+    const l = new Float64Array(stride * stride);
+    for (let q = 0; q < this.size; q++) l.set(this.l.subarray(q * this.stride, q * this.stride + q + 1), q * stride);
+    this.l = l;
+    const grow = <T extends Float64Array | Int32Array | Uint8Array>(old: T, make: (m: number) => T): T => {
+      const next = make(stride);
+      next.set(old);
+      return next;
+    };
+    this.order = grow(this.order, (m) => new Int32Array(m));
+    this.slotAt = grow(this.slotAt, (m) => new Int32Array(m));
+    this.shift = grow(this.shift, (m) => new Float64Array(m));
+    this.scale = grow(this.scale, (m) => new Float64Array(m));
+    this.skip = grow(this.skip, (m) => new Uint8Array(m));
+    this.b = new Float64Array(stride);
+    this.z = new Float64Array(stride);
+    this.dz = new Float64Array(stride);
+    this.residual = new Float64Array(stride);
+    this.position = new Int32Array(stride);
+    this.others = new Int32Array(stride);
+    this.values = new Float64Array(stride);
+    this.pivot = new Float64Array(stride);
+    this.stride = stride;
+  }
+
+  /** Rows [0, keep) of the factor stay; rows keep.. are computed for the current order. */
+  private extend(keep: number): void {
+    const { size, order, shift } = this;
+    const stamp = ++this.clock;
+    // Every cached column of the support is stamped before any eviction can pick it.
     for (let q = 0; q < size; q++) {
-      const row = q * stride;
-      for (let r = 0; r <= q; r++) {
-        if (known[q] && known[r]) continue;
-        const value = this.entry(order[q], order[r]);
-        m[row + r] = value;
-        m[r * stride + q] = value;
+      const cached = this.slotOf.get(order[q]);
+      if (cached !== undefined) this.lastUse[cached] = stamp;
+    }
+    for (let q = keep; q < size; q++) {
+      this.slotAt[q] = this.slotFor(order[q], stamp);
+      this.lastUse[this.slotAt[q]] = stamp;
+    }
+    const { stride, l, scale, skip, slotAt, others, values, pivot } = this;
+    // G entries of the new rows, column r of the support at a time: x_r is read once for all the
+    // new rows that miss its entry (they are few and stay in cache), not once per new row.
+    for (let r = 0; r < size; r++) {
+      const sr = slotAt[r];
+      let missing = 0;
+      for (let q = Math.max(keep, r); q < size; q++) if (!this.known[slotAt[q] * this.cap + sr]) others[missing++] = order[q];
+      if (missing === 0) continue;
+      this.entries(order[r], others, missing, values);
+      for (let t = 0; t < missing; t++) this.store(sr, this.slotOf.get(others[t]) as number, values[t]);
+    }
+    const { gram, cap } = this;
+    for (let q = keep; q < size; q++) {
+      const diag = gram[slotAt[q] * cap + slotAt[q]] + shift[q];
+      scale[q] = diag > 0 ? 1 / Math.sqrt(diag) : 1;
+      pivot[q] = scale[q] * diag * scale[q];
+    }
+    // Rows q >= keep of the factor: forward substitution against rows < q, then the pivot. Against
+    // the kept rows the new rows are independent, so each kept row is read once for all of them.
+    for (let r = 0; r < keep; r++) {
+      const other = r * stride;
+      if (skip[r]) {
+        for (let q = keep; q < size; q++) l[q * stride + r] = 0;
+        continue;
+      }
+      const sr = slotAt[r];
+      const pivotR = l[other + r];
+      let q = keep;
+      // Four new rows per pass over row r (each the same sum as one row at a time).
+      for (; q + 4 <= size; q += 4) {
+        const r0 = q * stride;
+        const r1 = r0 + stride;
+        const r2 = r1 + stride;
+        const r3 = r2 + stride;
+        let s0 = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
+        let s1 = scale[q + 1] * gram[slotAt[q + 1] * cap + sr] * scale[r];
+        let s2 = scale[q + 2] * gram[slotAt[q + 2] * cap + sr] * scale[r];
+        let s3 = scale[q + 3] * gram[slotAt[q + 3] * cap + sr] * scale[r];
+        for (let t = 0; t < r; t++) {
+          const lt = l[other + t];
+          s0 -= l[r0 + t] * lt;
+          s1 -= l[r1 + t] * lt;
+          s2 -= l[r2 + t] * lt;
+          s3 -= l[r3 + t] * lt;
+        }
+        const v0 = s0 / pivotR;
+        const v1 = s1 / pivotR;
+        const v2 = s2 / pivotR;
+        const v3 = s3 / pivotR;
+        l[r0 + r] = v0;
+        l[r1 + r] = v1;
+        l[r2 + r] = v2;
+        l[r3 + r] = v3;
+        pivot[q] -= v0 * v0;
+        pivot[q + 1] -= v1 * v1;
+        pivot[q + 2] -= v2 * v2;
+        pivot[q + 3] -= v3 * v3;
+      }
+      for (; q < size; q++) {
+        const row = q * stride;
+        let s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
+        for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
+        const v = s / pivotR;
+        l[row + r] = v;
+        pivot[q] -= v * v;
       }
     }
-    const scale = this.scale.slice(0, keep);
-    const skip = this.skip.slice(0, keep);
     for (let q = keep; q < size; q++) {
       const row = q * stride;
-      const diag = m[row + q] + shift[q];
-      scale.push(diag > 0 ? 1 / Math.sqrt(diag) : 1);
-      // Row q of the factor: forward substitution against rows < q, then the pivot.
-      let d = scale[q] * diag * scale[q];
-      for (let r = 0; r < q; r++) {
+      const grow = slotAt[q] * cap;
+      let d = pivot[q];
+      for (let r = keep; r < q; r++) {
         if (skip[r]) {
           l[row + r] = 0;
           continue;
         }
-        let s = scale[q] * m[row + r] * scale[r];
+        let s = scale[q] * gram[grow + slotAt[r]] * scale[r];
         const other = r * stride;
         for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
         const v = s / l[other + r];
@@ -177,26 +319,82 @@ export class SupportSystem {
         d -= v * v;
       }
       if (d <= 1e-10) {
-        skip.push(1);
+        skip[q] = 1;
         l[row + q] = 0;
       } else {
-        skip.push(0);
+        skip[q] = 0;
         l[row + q] = Math.sqrt(d);
       }
     }
-    this.order = order;
-    this.shift = shift;
-    this.stride = stride;
-    this.m = m;
-    this.l = l;
-    this.scale = scale;
-    this.skip = skip;
+  }
+
+  private store(s: number, t: number, value: number): void {
+    const { cap } = this;
+    this.gram[s * cap + t] = value;
+    this.gram[t * cap + s] = value;
+    this.known[s * cap + t] = 1;
+    this.known[t * cap + s] = 1;
+  }
+
+  /** The slot of feature f: its cached one, a free one, the least recently used outside the support, or a new one. */
+  private slotFor(f: number, stamp: number): number {
+    const cached = this.slotOf.get(f);
+    if (cached !== undefined) return cached;
+    let slot = -1;
+    if (this.slotOf.size < this.cap) {
+      for (let s = 0; s < this.cap; s++) {
+        if (this.slotFeature[s] < 0) {
+          slot = s;
+          break;
+        }
+      }
+    } else if (this.cap >= CACHE_SLACK * this.size) {
+      // Least recently used slot outside the current support (stamped before this solve).
+      let oldest = Infinity;
+      for (let s = 0; s < this.cap; s++) {
+        if (this.lastUse[s] < stamp && this.lastUse[s] < oldest) {
+          oldest = this.lastUse[s];
+          slot = s;
+        }
+      }
+      if (slot >= 0) this.slotOf.delete(this.slotFeature[slot]);
+    }
+    if (slot < 0) {
+      slot = this.cap;
+      this.growCache(Math.max(Math.ceil(CACHE_SLACK * this.size), Math.ceil(1.5 * this.cap), 16));
+    }
+    const { cap } = this;
+    for (let t = 0; t < cap; t++) {
+      this.known[slot * cap + t] = 0;
+      this.known[t * cap + slot] = 0;
+    }
+    this.slotFeature[slot] = f;
+    this.slotOf.set(f, slot);
+    return slot;
+  }
+
+  private growCache(cap: number): void {
+    const old = this.cap;
+    const gram = new Float64Array(cap * cap);
+    const known = new Uint8Array(cap * cap);
+    for (let s = 0; s < old; s++) {
+      gram.set(this.gram.subarray(s * old, (s + 1) * old), s * cap);
+      known.set(this.known.subarray(s * old, (s + 1) * old), s * cap);
+    }
+    const slotFeature = new Int32Array(cap).fill(-1);
+    slotFeature.set(this.slotFeature);
+    const lastUse = new Float64Array(cap);
+    lastUse.set(this.lastUse);
+    this.gram = gram;
+    this.known = known;
+    this.slotFeature = slotFeature;
+    this.lastUse = lastUse;
+    this.cap = cap;
   }
 
   /** L L' z = b on the non-skipped rows; skipped entries 0. */
   private substitute(b: Float64Array, z: Float64Array): void {
-    const { l, stride, skip } = this;
-    const size = this.order.length;
+    const { l, stride, skip, size } = this;
     for (let q = 0; q < size; q++) {
       if (skip[q]) {
         z[q] = 0;
@@ -206,11 +404,20 @@ export class SupportSystem {
       for (let r = 0; r < q; r++) s -= l[q * stride + r] * z[r];
       z[q] = s / l[q * stride + q];
     }
+    // L' z = y by columns of L' (rows of L): contiguous reads where the dot-product form would
+    // stride down a column.
     for (let q = size - 1; q >= 0; q--) {
       if (skip[q]) continue;
-      let s = z[q];
-      for (let r = q + 1; r < size; r++) s -= l[r * stride + q] * z[r];
-      z[q] = s / l[q * stride + q];
+      const row = q * stride;
+      const v = z[q] / l[row + q];
+      z[q] = v;
+      if (v !== 0) for (let r = 0; r < q; r++) z[r] -= l[row + r] * v;
     }
   }
 }
+
+/**
+ * The G cache holds up to this many times the support's columns before it evicts: room for the
+ * columns that leave and come back along a path, at (1.5 m)^2 * 9 bytes (about 6 MB at m = 540).
+ */
+const CACHE_SLACK = 1.5;

@@ -53,9 +53,6 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
   for (let j = 0; j < p; j++) {
     if (std.constant[j]) notes.push(`column "${terms[j]}" is constant over the rows fitted; its coefficient is 0`);
   }
-  if (options.screening === 'gap-safe' && options.penalty === 'elastic-net' && (options.l1Share ?? 1) < 1) {
-    notes.push('Gap Safe screening is used for an L1 share of 1 only; this elastic-net fit uses the strong rule with KKT checks');
-  }
   // maxTerms shapes the automatic path only: explicit lambdas (a user's list, or the full-data grid
   // each cross-validation fold refits) are all fitted.
   const automatic = !options.lambda;

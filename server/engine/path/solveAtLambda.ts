@@ -1,12 +1,12 @@
 import type { DualContext } from '../core/dual';
-import { fista } from '../core/fista';
+import { fista, type KnownGradient, type PolishOutcome } from '../core/fista';
 import type { SupportMemory } from '../core/loss';
 import { blockNorm, penaltyProx, penaltyValue } from '../core/penalty';
 import type { Problem, WorkingSet } from '../core/problem';
 import { makeWorkingSet } from '../core/problem';
 import { polishOnSupport } from '../core/polish';
 import type { Screening, SolveInfo, StopRule } from '../types';
-import { checkFull, type FullCheck } from './check';
+import { checkFull, KktBounds, type FullCheck, type KnownProducts } from './check';
 
 /**
  * Everything one path carries from one lambda to the next (explicit state, owned by fitPathOnDesign;
@@ -25,6 +25,18 @@ export interface PathState {
   lipschitz: number;
   /** The active-set polish's factor and Newton tangent (polish.ts). */
   support: SupportMemory;
+  /**
+   * Bounds on |x_j'theta| that let the full check skip the columns they certify (check.ts); made on
+   * the first check. Where they stand in for the product, `g` holds 0.
+   */
+  kkt?: KktBounds;
+  /** A p-long vector the working-set gap reuses from one lambda to the next. */
+  scratch?: Float64Array;
+  /**
+   * X b at the last check and the coefficients b it belongs to: the next solve starts from this
+   * image when coef still equals b (anything may have moved coef since: screening, a warm start).
+   */
+  image?: { eta: Float64Array; coef: Float64Array };
 }
 
 export interface LambdaOptions {
@@ -55,9 +67,10 @@ const MAX_ROUNDS = 50;
  * problems", JRSS B 74): keep block u if ||g_u(previous)|| >= w_u alpha (2 lambda - previous
  * lambda), plus the blocks already non-zero and the unpenalized ones; after solving, the KKT
  * conditions are checked on every discarded block and violators are added and the problem re-solved.
- * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda w_u,
- * r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong concavity
- * (alpha = 1 only; the elastic net falls back to the strong rule). 'none': every block.
+ * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda
+ * alpha w_u, r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong
+ * concavity; the same test serves the elastic net (alpha < 1; docs/decisions/0023-speed-wide-gap-safe-elastic-net.md).
+ * 'none': every block.
  */
 export function solveAtLambda(
   problem: Problem,
@@ -67,18 +80,27 @@ export function solveAtLambda(
 ): SolveInfo {
   const started = performance.now();
   const pen = problem.penalty;
-  const allBlocks = Int32Array.from({ length: pen.nBlocks }, (_, u) => u);
+  const allBlocks = new Int32Array(pen.nBlocks);
+  for (let u = 0; u < pen.nBlocks; u++) allBlocks[u] = u;
   const { lambda, tolerance } = options;
   const intercept = problem.loss.intercept;
   const keep = new Uint8Array(pen.nBlocks);
+  state.kkt ??= new KktBounds(problem);
   if (options.screening === 'none' || lambda === 0) keep.fill(1);
-  else if (options.screening === 'gap-safe' && pen.alpha >= 1) gapSafe(problem, dual, state, allBlocks, lambda, keep);
+  else if (options.screening === 'gap-safe') gapSafe(problem, dual, state, allBlocks, lambda, keep);
   else {
     const threshold = pen.alpha * (2 * lambda - options.previousLambda);
+    // Where the last check left a bound instead of x_j'theta, the rule needs the number only if
+    // the bound reaches the threshold.
+    state.kkt.resolve(state.g, (u) => pen.weight[u] * threshold);
+    const single = pen.start[pen.nBlocks] === pen.nBlocks;
     for (let u = 0; u < pen.nBlocks; u++) {
-      if (pen.weight[u] === 0 || blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) {
-        keep[u] = 1;
-      }
+      if (pen.weight[u] === 0) keep[u] = 1;
+      else if (single) {
+        // One column per block (lasso, elastic net): the norms are absolute values.
+        const j = pen.features[u];
+        if (Math.abs(state.g[j]) >= pen.weight[u] * threshold || state.coef[j] !== 0) keep[u] = 1;
+      } else if (blockNorm(pen, u, state.g) >= pen.weight[u] * threshold || blockNorm(pen, u, state.coef) > 0) keep[u] = 1;
     }
   }
 
@@ -88,7 +110,7 @@ export function solveAtLambda(
   let check: FullCheck | null = null;
   let restrictedTolerance = tolerance;
   for (let round = 0; round < MAX_ROUNDS; round++) {
-    const ws = makeWorkingSet(pen, allBlocks.filter((u) => keep[u] === 1), intercept);
+    const ws = makeWorkingSet(pen, keptBlocks(keep), intercept);
     const outcome = solveRestricted(problem, dual, ws, state, lambda, {
       polish: options.polish,
       tolerance: restrictedTolerance,
@@ -96,7 +118,9 @@ export function solveAtLambda(
     });
     iterations += outcome.iterations;
     stoppedBy = outcome.stoppedBy;
-    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+    const image = outcome.status === 'numerical-failure' ? undefined : outcome.image;
+    check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, state.kkt, outcome.known, image);
+    keepImage(state, check);
     state.g = check.g;
     state.loss = check.loss;
     if (outcome.status !== 'converged' || !Number.isFinite(check.gap)) {
@@ -155,9 +179,23 @@ export function describeSolve(status: SolveInfo['status'], gap: number, toleranc
   return `numerical failure (non-finite values) after ${iterationWords(iterations)}`;
 }
 
-function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
+/**
+ * Gap Safe screening at the warm start. The dual is gamma-strongly concave in theta (the -n/2
+ * ||theta||^2 of the gaussian dual, the entropy of the binomial one; the penalty's conjugate is
+ * convex, with or without its ridge part), so D(theta) <= D(theta*) - gamma/2 ||theta - theta*||^2
+ * <= P(b) - gamma/2 ||theta - theta*||^2: the optimum theta* lies within r = sqrt(2 gap / gamma) of
+ * any dual point theta. A block with ||X_u'theta|| + r ||X_u||_F < lambda alpha w_u then has
+ * ||X_u'theta*|| < lambda alpha w_u, which the optimality condition allows only with b_u = 0: the
+ * ridge part of the elastic net has zero gradient at 0, so its subdifferential there is the lasso's
+ * (Ndiaye et al. 2017, JMLR 18, sections 2-3). Where the check left a bound on |x_j'theta_raw|
+ * instead of the product, the bound serves (the gaussian dual point is tau theta_raw, tau <= 1).
+ * Sets keep[u] = 1 for the blocks it cannot discard, zeroes the coefficients of the others.
+ */
+export function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlocks: Int32Array, lambda: number, keep: Uint8Array): void {
   const pen = problem.penalty;
-  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda);
+  const kkt = state.kkt;
+  const check = checkFull(problem, dual, allBlocks, pen.start, state.coef, state.intercept, lambda, kkt, undefined, imageOf(state));
+  keepImage(state, check);
   const radius = Math.sqrt((2 * Math.max(0, check.absoluteGap)) / problem.loss.dualConcavity);
   for (let u = 0; u < pen.nBlocks; u++) {
     if (pen.weight[u] === 0) {
@@ -165,9 +203,15 @@ function gapSafe(problem: Problem, dual: DualContext, state: PathState, allBlock
       continue;
     }
     let frob = 0;
-    for (let i = pen.start[u]; i < pen.start[u + 1]; i++) frob += problem.colNormSq[pen.features[i]];
-    const bound = blockNorm(pen, u, check.dual.a) + radius * Math.sqrt(frob);
-    keep[u] = !Number.isFinite(bound) || bound >= lambda * pen.weight[u] ? 1 : 0;
+    let sq = 0;
+    for (let i = pen.start[u]; i < pen.start[u + 1]; i++) {
+      const j = pen.features[i];
+      frob += problem.colNormSq[j];
+      const a = kkt && !kkt.exact[j] ? kkt.bound[j] : check.dual.a[j];
+      sq += a * a;
+    }
+    const bound = Math.sqrt(sq) + radius * Math.sqrt(frob);
+    keep[u] = !Number.isFinite(bound) || bound >= lambda * pen.alpha * pen.weight[u] ? 1 : 0;
     if (!keep[u]) for (let i = pen.start[u]; i < pen.start[u + 1]; i++) state.coef[pen.features[i]] = 0;
   }
 }
@@ -185,13 +229,35 @@ function solveRestricted(
   const w = new Float64Array(ws.size);
   for (let b = 0; b < ws.k; b++) w[b] = state.coef[ws.features[b]];
   if (ws.size > ws.k) w[ws.k] = state.intercept;
-  const g = new Float64Array(problem.p);
+  // X'theta on the working set, column-indexed for the dual (which reads only those columns).
+  state.scratch ??= new Float64Array(problem.p);
+  const g = state.scratch;
   const grad = new Float64Array(ws.size);
-  const gap = (v: Float64Array, img: Float64Array): number => {
+  // The point of the last gap evaluation: when the solve ends there, g holds the working set's
+  // x_j'theta at the solution, which the full check then need not compute again.
+  const evaluated = new Float64Array(ws.size).fill(NaN);
+  const image = imageOf(state);
+  // At an unmoved warm start the last check's x_j'theta are the working set's (exact on every
+  // working column: the strong rule made them so): FISTA's first gap needs no products.
+  let warm = image && state.kkt?.exactOn(state.g, ws.features) ? state.g : null;
+  const positions = new Int32Array(ws.k);
+  const gap = (v: Float64Array, img: Float64Array, known?: KnownGradient): number => {
+    evaluated.set(v);
     const value = loss.value(img, v);
     const residual = loss.residual(img, v);
-    loss.gradient(img, v, grad);
-    for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
+    if (warm) {
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = warm[ws.features[b]];
+      warm = null;
+    } else if (known && loss.gradientOn) {
+      // The polish left x_b'theta off its support: the products on the support remain.
+      let count = 0;
+      for (let b = 0; b < ws.k; b++) if (!known.known[b]) positions[count++] = b;
+      loss.gradientOn(img, v, grad, positions, count);
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = known.known[b] ? known.values[b] : -grad[b];
+    } else {
+      loss.gradient(img, v, grad);
+      for (let b = 0; b < ws.k; b++) g[ws.features[b]] = -grad[b];
+    }
     const penalty = penaltyValue(pen, ws.blocks, ws.blockStart, v, lambda);
     const result = dual.gap({ lambda, blocks: ws.blocks, g, loss: value, penalty, residual });
     return result.gap / problem.nullObjective;
@@ -206,16 +272,55 @@ function solveRestricted(
       gap,
       polish:
         options.polish && singleColumnBlocks(ws)
-          ? (v, out, maxSteps) => polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support)
+          ? (v, out, maxSteps) => {
+              const result: PolishOutcome = polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance);
+              const last = state.support.last;
+              state.support.last = undefined;
+              if (!result.ok || !last || last.w.length !== ws.k) return result;
+              for (let b = 0; b < ws.k; b++) if (last.w[b] !== out[b]) return result;
+              return { ...result, image: last.image, gradient: last };
+            }
           : undefined,
     },
     w,
-    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1 },
+    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1, image },
   );
   state.lipschitz = outcome.lipschitz;
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
   if (ws.size > ws.k) state.intercept = w[ws.k];
-  return outcome;
+  let atSolution = true;
+  for (let b = 0; b < ws.size && atSolution; b++) atSolution = w[b] === evaluated[b];
+  const known: KnownProducts | undefined = atSolution ? { features: ws.features, count: ws.k, values: g } : undefined;
+  return { ...outcome, known };
+}
+
+function keptBlocks(keep: Uint8Array): Int32Array {
+  let count = 0;
+  for (let u = 0; u < keep.length; u++) count += keep[u];
+  const blocks = new Int32Array(count);
+  let at = 0;
+  for (let u = 0; u < keep.length; u++) if (keep[u]) blocks[at++] = u;
+  return blocks;
+}
+
+/** Keeps the check's image of X b with the coefficients it belongs to (design forms that give one). */
+function keepImage(state: PathState, check: FullCheck): void {
+  if (!check.image) {
+    state.image = undefined;
+    return;
+  }
+  if (state.image && state.image.coef.length === state.coef.length && state.image.eta.length === check.image.length) {
+    state.image.eta.set(check.image);
+    state.image.coef.set(state.coef);
+  } else state.image = { eta: Float64Array.from(check.image), coef: Float64Array.from(state.coef) };
+}
+
+/** The kept image when the coefficients have not moved since it was computed. */
+function imageOf(state: PathState): Float64Array | undefined {
+  const kept = state.image;
+  if (!kept || kept.coef.length !== state.coef.length) return undefined;
+  for (let j = 0; j < state.coef.length; j++) if (kept.coef[j] !== state.coef[j]) return undefined;
+  return kept.eta;
 }
 
 /** The active-set polish handles lasso and elastic-net blocks (one column each). */

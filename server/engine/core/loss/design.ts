@@ -2,37 +2,94 @@ import type { Problem, WorkingSet } from '../problem';
 
 /** Products with the design shared by the losses' design forms. */
 
-/** out = offset + X_W w */
+/**
+ * out = offset + X_W w, four non-zero columns per pass over out (a quarter of the loads and stores of
+ * out that one column at a time would take).
+ */
 export function designImage(problem: Problem, ws: WorkingSet, w: Float64Array, out: Float64Array, offset: number): void {
   const { n, x } = problem;
   out.fill(offset);
+  const cols = [0, 0, 0, 0];
+  const coefs = [0, 0, 0, 0];
+  let held = 0;
   for (let b = 0; b < ws.k; b++) {
-    const coef = w[b];
-    if (coef === 0) continue;
-    const off = ws.features[b] * n;
+    if (w[b] === 0) continue;
+    cols[held] = ws.features[b] * n;
+    coefs[held] = w[b];
+    held++;
+    if (held === 4) {
+      addFour(x, n, cols, coefs, out);
+      held = 0;
+    }
+  }
+  for (let h = 0; h < held; h++) {
+    const off = cols[h];
+    const coef = coefs[h];
     for (let i = 0; i < n; i++) out[i] += coef * x[off + i];
   }
 }
 
-/** out[b] = scale * x_{W_b}' v */
+/** out += sum of four scaled columns of x (offsets into x). */
+export function addFour(x: Float64Array, n: number, cols: number[], coefs: number[], out: Float64Array): void {
+  const [a0, a1, a2, a3] = cols;
+  const [c0, c1, c2, c3] = coefs;
+  for (let i = 0; i < n; i++) out[i] += c0 * x[a0 + i] + c1 * x[a1 + i] + c2 * x[a2 + i] + c3 * x[a3 + i];
+}
+
+/** out[b] = scale * x_{W_b}' v, four columns per pass over v (each the same left-to-right sum as one at a time). */
 export function designTranspose(problem: Problem, ws: WorkingSet, v: Float64Array, out: Float64Array, scale: number): void {
   const { n, x } = problem;
-  for (let b = 0; b < ws.k; b++) {
-    const off = ws.features[b] * n;
+  const features = ws.features;
+  let b = 0;
+  for (; b + 4 <= ws.k; b += 4) {
+    const a0 = features[b] * n;
+    const a1 = features[b + 1] * n;
+    const a2 = features[b + 2] * n;
+    const a3 = features[b + 3] * n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = v[i];
+      s0 += x[a0 + i] * t;
+      s1 += x[a1 + i] * t;
+      s2 += x[a2 + i] * t;
+      s3 += x[a3 + i] * t;
+    }
+    out[b] = scale * s0;
+    out[b + 1] = scale * s1;
+    out[b + 2] = scale * s2;
+    out[b + 3] = scale * s3;
+  }
+  for (; b < ws.k; b++) {
+    const off = features[b] * n;
     let s = 0;
     for (let i = 0; i < n; i++) s += x[off + i] * v[i];
     out[b] = scale * s;
   }
 }
 
-/** eta = offset + X b over every column with b_j != 0. */
+/** eta = offset + X b over every column with b_j != 0 (four columns per pass, as designImage). */
 export function fullImage(problem: Problem, coef: Float64Array, offset: number): Float64Array {
   const { n, p, x } = problem;
   const eta = new Float64Array(n).fill(offset);
+  const cols = [0, 0, 0, 0];
+  const coefs = [0, 0, 0, 0];
+  let held = 0;
   for (let k = 0; k < p; k++) {
-    const beta = coef[k];
-    if (beta === 0) continue;
-    const off = k * n;
+    if (coef[k] === 0) continue;
+    cols[held] = k * n;
+    coefs[held] = coef[k];
+    held++;
+    if (held === 4) {
+      addFour(x, n, cols, coefs, eta);
+      held = 0;
+    }
+  }
+  for (let h = 0; h < held; h++) {
+    const off = cols[h];
+    const beta = coefs[h];
     for (let i = 0; i < n; i++) eta[i] += beta * x[off + i];
   }
   return eta;
@@ -98,6 +155,50 @@ export function transposeTimes(x: Float64Array, n: number, p: number, v: Float64
     let s = 0;
     for (let i = 0; i < n; i++) s += x[off + i] * v[i];
     g[j] = s;
+  }
+}
+
+/**
+ * g[j] = x_j'v for the `count` columns j listed in `columns` (other entries untouched), or into
+ * g[slots[q]] when slots are given; four columns per pass over v as transposeTimes, each entry the
+ * same left-to-right sum over rows.
+ */
+export function transposeColumns(
+  x: Float64Array,
+  n: number,
+  columns: Int32Array,
+  count: number,
+  v: Float64Array,
+  g: Float64Array,
+  slots: Int32Array = columns,
+): void {
+  let q = 0;
+  for (; q + 4 <= count; q += 4) {
+    const a0 = columns[q] * n;
+    const a1 = columns[q + 1] * n;
+    const a2 = columns[q + 2] * n;
+    const a3 = columns[q + 3] * n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let i = 0; i < n; i++) {
+      const t = v[i];
+      s0 += x[a0 + i] * t;
+      s1 += x[a1 + i] * t;
+      s2 += x[a2 + i] * t;
+      s3 += x[a3 + i] * t;
+    }
+    g[slots[q]] = s0;
+    g[slots[q + 1]] = s1;
+    g[slots[q + 2]] = s2;
+    g[slots[q + 3]] = s3;
+  }
+  for (; q < count; q++) {
+    const off = columns[q] * n;
+    let s = 0;
+    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
+    g[slots[q]] = s;
   }
 }
 

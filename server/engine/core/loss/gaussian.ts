@@ -1,10 +1,10 @@
 import { SemidefiniteSolver } from '../gram';
 import { blockConjugate } from '../penalty';
 import type { Problem, WorkingSet } from '../problem';
-import { SupportSystem } from '../supportSystem';
-import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeTimes, workingTranspose } from './design';
+import { SupportSystem, type GramEntries } from '../supportSystem';
+import { designGramNorm, designImage, designTranspose, fullImage, powerIteration, transposeColumns, transposeTimes } from './design';
 import { normOf, scaleScope } from './dualSteps';
-import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
+import { FREE, type BoundLoss, type DualProjection, type Evaluation, type ResidualPoint, type LossRole, type NullFit, type SupportMemory, type SupportProblem } from './role';
 
 /**
  * Gaussian loss 1/(2n) ||yc - X b||^2 on centred columns (the intercept is mean(y) - centers'b in
@@ -38,17 +38,8 @@ export function gaussianLoss(problem: Problem, form: 'design' | 'gram'): LossRol
     ...shared,
     bind: (ws) => bindDesign(problem, ws),
     evaluate: (coef) => evaluateDesign(problem, coef),
-    negativeGradient(ws, active, w) {
-      const eta = new Float64Array(problem.n);
-      for (const a of active) {
-        const coef = w[a];
-        if (coef === 0) continue;
-        const off = ws.features[a] * problem.n;
-        for (let i = 0; i < problem.n; i++) eta[i] += coef * problem.x[off + i];
-      }
-      for (let i = 0; i < problem.n; i++) eta[i] = problem.y[i] - eta[i];
-      return workingTranspose(problem, ws, eta);
-    },
+    residualAt: (coef, _intercept, image) => residualDesign(problem, coef, image),
+    negativeGradient: (ws, active, w, memory) => negativeGradientDesign(problem, ws, active, w, memory),
   };
 }
 
@@ -69,6 +60,13 @@ function bindDesign(problem: Problem, ws: WorkingSet): BoundLoss {
     gradient(img, _w, out) {
       for (let i = 0; i < n; i++) residual[i] = img[i] - y[i];
       designTranspose(problem, ws, residual, out, 1 / n);
+    },
+    gradientOn(img, _w, out, positions, count) {
+      for (let i = 0; i < n; i++) residual[i] = img[i] - y[i];
+      const columns = new Int32Array(count);
+      for (let q = 0; q < count; q++) columns[q] = ws.features[positions[q]];
+      transposeColumns(problem.x, n, columns, count, residual, out, positions);
+      for (let q = 0; q < count; q++) out[positions[q]] *= 1 / n;
     },
     lipschitz: () => designGramNorm(problem, ws),
     residual(img) {
@@ -119,8 +117,16 @@ function bindGram(problem: Problem, ws: WorkingSet): BoundLoss {
 }
 
 function evaluateDesign(problem: Problem, coef: Float64Array): Evaluation {
-  const { n, p, x, y } = problem;
-  const eta = fullImage(problem, coef, 0);
+  const { loss, theta, residual } = residualDesign(problem, coef);
+  const g = new Float64Array(problem.p);
+  transposeTimes(problem.x, problem.n, problem.p, theta, g);
+  return { loss, g, residual };
+}
+
+/** The loss, theta_raw = (yc - X b)/n and yc'theta_raw at b (one product with the non-zero columns). */
+function residualDesign(problem: Problem, coef: Float64Array, image?: Float64Array): ResidualPoint {
+  const { n, y } = problem;
+  const eta = image ?? fullImage(problem, coef, 0);
   const theta = new Float64Array(n);
   let loss = 0;
   let ycTheta = 0;
@@ -130,9 +136,7 @@ function evaluateDesign(problem: Problem, coef: Float64Array): Evaluation {
     ycTheta += (y[i] * r) / n;
     theta[i] = r / n;
   }
-  const g = new Float64Array(p);
-  transposeTimes(x, n, p, theta, g);
-  return { loss: loss / (2 * n), g, residual: { ycTheta, theta: null } };
+  return { loss: loss / (2 * n), theta, residual: { ycTheta, theta: null }, image: eta };
 }
 
 /** One product with the Gram columns of the non-zero coefficients. */
@@ -213,12 +217,21 @@ function dual(problem: Problem, d: DualProjection): number {
 }
 
 /**
+ * Tolerances from which the support solve skips its step of iterative refinement. Unrefined, the
+ * Cholesky solution's relative error is about m eps kappa (Higham 2002, 10.1), below 1e-8 up to a
+ * condition number near 1e6: the polished point's relative gap then stays far below 1e-6 (the
+ * gap moves with the error of the solution on the support), and the gap still decides whether the
+ * polished point is taken. Tighter requests keep the refinement's digits.
+ */
+const REFINE_BELOW = 1e-6;
+
+/**
  * (X_A'X_A/n + diag(l2)) b_A = X_A'yc/n - l1 s exactly, through the support system kept in the
  * path's memory (extended a row at a time as supports change).
  */
 function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: SupportProblem, out: Float64Array, memory: SupportMemory): boolean {
   const { ws, active, sign, l1, l2 } = support;
-  memory.system ??= new SupportSystem(form === 'gram' ? (f, g) => problem.gram.column(f)[g] : columnProduct(problem));
+  memory.system ??= form === 'gram' ? new SupportSystem((f, g) => problem.gram.column(f)[g]) : new SupportSystem(columnProduct(problem), columnProducts(problem));
   const m = active.length;
   const features = active.map((a) => ws.features[a]);
   const shifts = active.map((a) => l2[a]);
@@ -228,7 +241,7 @@ function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: Supp
     rhs[q] = problem.c[features[q]] - (s === FREE ? 0 : l1[active[q]] * s);
   }
   const solution = new Float64Array(m);
-  if (!memory.system.solve(features, shifts, rhs, solution)) return false;
+  if (!memory.system.solve(features, shifts, rhs, solution, !(support.tolerance !== undefined && support.tolerance >= REFINE_BELOW))) return false;
   out.fill(0, 0, ws.k);
   for (let q = 0; q < m; q++) out[active[q]] = solution[q];
   return true;
@@ -246,6 +259,108 @@ function columnProduct(problem: Problem): (f: number, g: number) => number {
   };
 }
 
+/**
+ * columnProduct of f with several columns: four per pass over x_f, then the last one to three
+ * together (each the same left-to-right sum as columnProduct).
+ */
+function columnProducts(problem: Problem): GramEntries {
+  const { n, x } = problem;
+  return (f, others, count, out) => {
+    const a = f * n;
+    let t = 0;
+    for (; t + 4 <= count; t += 4) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      const b2 = others[t + 2] * n;
+      const b3 = others[t + 3] * n;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+        s2 += v * x[b2 + i];
+        s3 += v * x[b3 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+      out[t + 2] = s2 / n;
+      out[t + 3] = s3 / n;
+    }
+    const left = count - t;
+    if (left === 3) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      const b2 = others[t + 2] * n;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+        s2 += v * x[b2 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+      out[t + 2] = s2 / n;
+    } else if (left === 2) {
+      const b0 = others[t] * n;
+      const b1 = others[t + 1] * n;
+      let s0 = 0;
+      let s1 = 0;
+      for (let i = 0; i < n; i++) {
+        const v = x[a + i];
+        s0 += v * x[b0 + i];
+        s1 += v * x[b1 + i];
+      }
+      out[t] = s0 / n;
+      out[t + 1] = s1 / n;
+    } else if (left === 1) {
+      const b0 = others[t] * n;
+      let s0 = 0;
+      for (let i = 0; i < n; i++) s0 += x[a + i] * x[b0 + i];
+      out[t] = s0 / n;
+    }
+  };
+}
+
+/**
+ * x_j'theta for the working columns off the support: the residual once (a product with the support's
+ * columns), then one product per column. The polish needs no more: on the support the gradient is
+ * what the system solved for.
+ */
+function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array, memory?: SupportMemory): Float64Array {
+  const { n, x, y } = problem;
+  const eta = new Float64Array(n);
+  const off = new Uint8Array(ws.k).fill(1);
+  const support = new Float64Array(ws.k);
+  for (const a of active) {
+    off[a] = 0;
+    support[a] = w[a];
+  }
+  designImage(problem, ws, support, eta, 0);
+  const image = memory ? Float64Array.from(eta) : null;
+  for (let i = 0; i < n; i++) eta[i] = y[i] - eta[i];
+  const columns = new Int32Array(ws.k - active.length);
+  const slots = new Int32Array(columns.length);
+  let count = 0;
+  for (let b = 0; b < ws.k; b++) {
+    if (!off[b]) continue;
+    columns[count] = ws.features[b];
+    slots[count++] = b;
+  }
+  const out = new Float64Array(ws.k);
+  transposeColumns(x, n, columns, count, eta, out, slots);
+  for (let q = 0; q < count; q++) out[slots[q]] /= n;
+  // Kept for the gap at this point (solveAtLambda.ts): its image and these products need no redoing.
+  if (memory && image) memory.last = { w: Float64Array.from(support), image, known: off, values: out };
+  return out;
+}
+
+/** As negativeGradientDesign, from the Gram columns of the support. */
 function negativeGradientGram(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
   const k = ws.k;
   const g = new Float64Array(k);

@@ -20,5 +20,5 @@ export function lossFor(problem: Problem, form: 'design' | 'gram'): LossRole {
   return FAMILIES[problem.family](problem, form);
 }
 
-export type { BoundLoss, DualProjection, DualResidual, Evaluation, LossRole, NullFit, SupportMemory, SupportProblem } from './role';
+export type { BoundLoss, DualProjection, DualResidual, Evaluation, LossRole, NullFit, ResidualPoint, SupportMemory, SupportProblem } from './role';
 export { FREE } from './role';

@@ -22,6 +22,13 @@ export interface LossRole {
   bind(ws: WorkingSet): BoundLoss;
   /** Loss, X'theta_raw (= -gradient) over every column, and the dual residual, at (coef, intercept). */
   evaluate(coef: Float64Array, intercept: number): Evaluation;
+  /**
+   * Design forms whose dual ignores a block with |X_u'theta| < lambda alpha w_u (gaussian): the loss,
+   * theta_raw = -d loss / d eta (length n) and the dual residual at (coef, intercept), without
+   * X'theta, so the full check computes only the columns it needs (path/check.ts, KktBounds).
+   * `image`, when given, is X b already computed (the solver's image of the same point).
+   */
+  residualAt?(coef: Float64Array, intercept: number, image?: Float64Array): ResidualPoint;
   /** The null model: penalized coefficients 0, the intercept and the unpenalized columns U at their optimum. */
   nullFit(unpenalized: Int32Array, memory: SupportMemory): NullFit;
   /**
@@ -35,8 +42,11 @@ export interface LossRole {
    * minimizer into `out`; `steps` counts linear solves or Newton steps.
    */
   solveOnSupport(support: SupportProblem, out: Float64Array, maxSteps: number, memory: SupportMemory): { ok: boolean; steps: number };
-  /** x_j'theta (= -gradient) for every working column at `w`, whose non-zeros are among `active`. */
-  negativeGradient(ws: WorkingSet, active: number[], w: Float64Array): Float64Array;
+  /**
+   * x_j'theta (= -gradient) at `w`, whose non-zeros are among `active`, for every working column off
+   * `active` (the entries of `active` are left unspecified: the polish does not read them).
+   */
+  negativeGradient(ws: WorkingSet, active: number[], w: Float64Array, memory?: SupportMemory): Float64Array;
 }
 
 export interface BoundLoss {
@@ -45,10 +55,23 @@ export interface BoundLoss {
   image(w: Float64Array, out: Float64Array): void;
   value(img: Float64Array, w: Float64Array): number;
   gradient(img: Float64Array, w: Float64Array, out: Float64Array): void;
+  /** gradient() on the working positions positions[0..count) only (others untouched), when the loss has it. */
+  gradientOn?(img: Float64Array, w: Float64Array, out: Float64Array, positions: Int32Array, count: number): void;
   /** An estimate of the gradient's Lipschitz constant (backtracking corrects an underestimate). */
   lipschitz(): number;
   /** What the dual needs from the current point besides X'theta (gradient() gives that). */
   residual(img: Float64Array, w: Float64Array): DualResidual;
+}
+
+/**
+ * LossRole.residualAt's answer: the loss, theta_raw, the dual residual, and the image X b it came
+ * from (given, or computed when not given).
+ */
+export interface ResidualPoint {
+  loss: number;
+  theta: Float64Array;
+  residual: DualResidual;
+  image: Float64Array;
 }
 
 /** gaussian: yc'theta_raw (theta null); binomial: theta_raw itself (length n). */
@@ -102,6 +125,8 @@ export interface SupportProblem {
   l1: Float64Array;
   l2: Float64Array;
   lambda: number;
+  /** The relative duality gap the solve asks for (absent: as accurate as the solve can be). */
+  tolerance?: number;
 }
 
 /**
@@ -111,4 +136,9 @@ export interface SupportProblem {
 export interface SupportMemory {
   system?: SupportSystem;
   tangent?: Tangent;
+  /**
+   * The last negativeGradient of a loss that records it (gaussian design form): the point w, its
+   * image X w, and x_b'theta at the positions b with known[b] (those off the support).
+   */
+  last?: { w: Float64Array; image: Float64Array; known: Uint8Array; values: Float64Array };
 }
