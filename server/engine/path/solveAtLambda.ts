@@ -69,7 +69,7 @@ const MAX_ROUNDS = 50;
  * conditions are checked on every discarded block and violators are added and the problem re-solved.
  * With 'gap-safe' (Ndiaye et al. 2017, JMLR 18): discard u if ||X_u'theta|| + r ||X_u||_F < lambda
  * alpha w_u, r = sqrt(2 gap / gamma), gamma = n (gaussian) or 4n (binomial) the dual's strong
- * concavity; the same test serves the elastic net (alpha < 1; docs/decisions/0023-speed-wide-gap-safe-elastic-net.md).
+ * concavity; the same test serves the elastic net (alpha < 1; docs/decisions/0026-gap-safe-elastic-net-and-wide-solves.md).
  * 'none': every block.
  */
 export function solveAtLambda(
