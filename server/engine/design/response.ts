@@ -1,3 +1,4 @@
+import { RESPONSE_RULES } from '../core/loss/responses';
 import { EngineInputError, type EngineColumn, type Family } from '../types';
 
 /**
@@ -11,24 +12,21 @@ export function encodeResponse(
 ): { y: Float64Array; responseLevels?: [string, string]; note?: string } {
   const n = rows.length;
   const y = new Float64Array(n);
+  const rules = RESPONSE_RULES[family];
   if (column.kind === 'numeric') {
     for (let i = 0; i < n; i++) {
       const v = column.values[rows[i]];
       if (!Number.isFinite(v)) {
         throw new EngineInputError(`response "${column.name}" has a non-finite value ${v} in row ${rows[i] + 1}`, 'response');
       }
-      if (family === 'binomial' && v !== 0 && v !== 1) {
-        throw new EngineInputError(
-          `binomial response "${column.name}" must be 0 or 1; row ${rows[i] + 1} has ${v}`,
-          'response',
-        );
-      }
+      const invalid = rules.invalid(v, rows[i] + 1, column.name);
+      if (invalid) throw new EngineInputError(invalid, 'response');
       y[i] = v;
     }
     return { y };
   }
-  if (family === 'gaussian') {
-    throw new EngineInputError(`gaussian response "${column.name}" must be numeric, not categorical`, 'response');
+  if (!rules.categorical) {
+    throw new EngineInputError(`${family} response "${column.name}" must be numeric, not categorical`, 'response');
   }
   const present = new Uint8Array(column.levels.length);
   for (let i = 0; i < n; i++) present[column.codes[rows[i]]] = 1;

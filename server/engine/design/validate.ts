@@ -1,3 +1,4 @@
+import { RESPONSE_RULES } from '../core/loss/responses';
 import { EngineInputError, type EngineColumn, type EngineTable, type FitSpec } from '../types';
 
 const fail = (message: string, field: string): never => {
@@ -46,7 +47,7 @@ export function validateSpec(table: EngineTable, spec: FitSpec): void {
 }
 
 function checkOptions(spec: FitSpec): void {
-  if (spec.family !== 'gaussian' && spec.family !== 'binomial') fail(`family must be gaussian or binomial; got "${spec.family}"`, 'family');
+  if (!Object.hasOwn(RESPONSE_RULES, spec.family)) fail(`family must be ${Object.keys(RESPONSE_RULES).join(' or ')}; got "${spec.family}"`, 'family');
   if (!['lasso', 'elastic-net', 'group-lasso'].includes(spec.penalty)) {
     fail(`penalty must be lasso, elastic-net or group-lasso; got "${spec.penalty}"`, 'penalty');
   }
@@ -79,13 +80,15 @@ function checkOptions(spec: FitSpec): void {
 
 function checkResponse(column: EngineColumn, spec: FitSpec, nRows: number): void {
   const name = column.name;
+  const rules = RESPONSE_RULES[spec.family];
   const present: number[] = [];
   for (let i = 0; i < nRows; i++) {
     if (column.kind === 'numeric') {
       const v = column.values[i];
       if (Number.isNaN(v)) continue;
       if (!Number.isFinite(v)) fail(`response "${name}" has a non-finite value ${v} in row ${i + 1}`, 'response');
-      if (spec.family === 'binomial' && v !== 0 && v !== 1) fail(`binomial response "${name}" must be 0 or 1; row ${i + 1} has ${v}`, 'response');
+      const invalid = rules.invalid(v, i + 1, name);
+      if (invalid) fail(invalid, 'response');
       present.push(v);
     } else if (column.codes[i] >= 0) present.push(column.codes[i]);
   }
@@ -93,7 +96,7 @@ function checkResponse(column: EngineColumn, spec: FitSpec, nRows: number): void
   if (present.length === 1) fail(`response "${name}" has only one value: at least two rows are needed`, 'response');
   const distinct = new Set(present);
   if (column.kind === 'categorical') {
-    if (spec.family === 'gaussian') fail(`gaussian response "${name}" must be numeric, not categorical`, 'response');
+    if (!rules.categorical) fail(`${spec.family} response "${name}" must be numeric, not categorical`, 'response');
     if (distinct.size !== 2) {
       const levels = [...distinct].map((k) => `"${column.levels[k]}"`).join(', ');
       fail(`binomial response "${name}" must have exactly two values; it has ${distinct.size} (${levels})`, 'response');

@@ -5,7 +5,7 @@ import { buildBlockPenalty } from '../core/penalty';
 import type { Problem } from '../core/problem';
 import { standardizeDesign, type StandardizedDesign } from '../core/standardize';
 import { EngineInputError, type CrossProducts, type DesignMatrix, type PathOptions } from '../types';
-import { GRAM_FAMILIES, lossFor, type LossRole, type NullFit } from '../core/loss';
+import { GRAM_FAMILIES, lossFor, RESPONSE_RULES, type LossRole, type NullFit } from '../core/loss';
 import { penaltyLambdaMax } from '../core/penalty';
 
 export interface PreparedProblem {
@@ -70,11 +70,11 @@ export function checkPathOptions(design: DesignMatrix, y: Float64Array, options:
       }
     }
   }
+  const rules = RESPONSE_RULES[options.family];
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(y[i])) throw new EngineInputError(`response has a non-finite value in row ${i + 1}`, 'response');
-    if (options.family === 'binomial' && y[i] !== 0 && y[i] !== 1) {
-      throw new EngineInputError(`binomial response must be 0 or 1; row ${i + 1} has ${y[i]}`, 'response');
-    }
+    const invalid = rules.invalid(y[i], i + 1);
+    if (invalid) throw new EngineInputError(invalid, 'response');
   }
   for (let k = 0; k < n * p; k++) {
     if (!Number.isFinite(design.x[k])) {
@@ -113,10 +113,11 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
   let yMean = 0;
   for (let i = 0; i < n; i++) yMean += y[i];
   yMean /= n;
+  const { centred } = RESPONSE_RULES[options.family];
   const yWork = new Float64Array(n);
   let yy = 0;
   for (let i = 0; i < n; i++) {
-    yWork[i] = options.family === 'gaussian' ? y[i] - yMean : y[i];
+    yWork[i] = centred ? y[i] - yMean : y[i];
     yy += (y[i] - yMean) * (y[i] - yMean);
   }
   checkResponse(options, yMean, yy);
@@ -130,7 +131,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
       s += std.x[off + i] * yWork[i];
       sq += std.x[off + i] * std.x[off + i];
     }
-    c[j] = options.family === 'gaussian' ? s / n : 0;
+    c[j] = centred ? s / n : 0;
     colNormSq[j] = sq;
   }
   for (let j = 0; j < p; j++) {
@@ -148,10 +149,7 @@ export function prepareProblem(design: DesignMatrix, y: Float64Array, options: P
 }
 
 function checkResponse(options: PathOptions, yMean: number, yy: number): void {
-  if (options.family === 'gaussian' && yy === 0) throw new EngineInputError('the response is constant: there is nothing to fit', 'response');
-  if (options.family === 'binomial' && (yMean === 0 || yMean === 1)) {
-    throw new EngineInputError(`the binomial response has only ${yMean === 0 ? 0 : 1}s: both classes are needed`, 'response');
-  }
+  RESPONSE_RULES[options.family].checkSpread(yMean, yy);
 }
 
 /**

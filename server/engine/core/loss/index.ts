@@ -22,3 +22,4 @@ export function lossFor(problem: Problem, form: 'design' | 'gram'): LossRole {
 
 export type { BoundLoss, DualProjection, DualResidual, Evaluation, LossRole, NullFit, ResidualPoint, SupportMemory, SupportProblem } from './role';
 export { FREE } from './role';
+export { RESPONSE_RULES, type ResponseRules } from './responses';
