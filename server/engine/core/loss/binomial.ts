@@ -25,6 +25,8 @@ export function binomialLoss(problem: Problem): LossRole {
     intercept: true,
     dualConcavity: 4 * n,
     nullObjective: -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean)),
+    // Every solve along a binomial path ends at the polish (decision 25): its gap comes first.
+    polishFirst: true,
     bind: (ws) => bind(problem, ws, memo),
     evaluate(coef, intercept): Evaluation {
       // The full check usually follows a gap check at the same point (same image, to the bit).

@@ -18,6 +18,11 @@ export interface LossRole {
   readonly dualConcavity: number;
   /** Objective at b = 0 with the best intercept (the relative gap's scale). */
   readonly nullObjective: number;
+  /**
+   * The solver polishes a warm start before computing its gap (fista's SolverOptions.polishFirst):
+   * set by losses whose solves along a path end at the polish anyway (binomial, decision 25).
+   */
+  readonly polishFirst?: boolean;
   /** Value, gradient and Lipschitz bound on a working set (what FISTA needs). */
   bind(ws: WorkingSet): BoundLoss;
   /** Loss, X'theta_raw (= -gradient) over every column, and the dual residual, at (coef, intercept). */
