@@ -76,15 +76,16 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   const { size, loss } = roles;
   const m = loss.imageSize;
   let x = Float64Array.from(w);
-  let z = new Float64Array(size);
-  const yv = Float64Array.from(w);
-  const grad = new Float64Array(size);
   let imgX = new Float64Array(m);
-  let imgZ = new Float64Array(m);
-  const imgY = new Float64Array(m);
   if (options.image && options.image.length === m) imgX.set(options.image);
   else loss.image(x, imgX);
-  imgY.set(imgX);
+  // The iteration's buffers (y = x and its image until the first iteration) are made only when
+  // FISTA iterates: most solves along a path end at the warm start or its polish.
+  let z = NONE;
+  let yv = NONE;
+  let grad = NONE;
+  let imgZ = NONE;
+  let imgY = NONE;
   let lipschitz = options.lipschitz > 0 ? options.lipschitz : 1;
   let t = 1;
 
@@ -110,8 +111,10 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     if (!found || !(found.gap <= gap)) return;
     x.set(found.point);
     imgX.set(found.image);
-    yv.set(x);
-    imgY.set(imgX);
+    if (yv !== NONE) {
+      yv.set(x);
+      imgY.set(imgX);
+    }
     t = 1;
     gap = found.gap;
     source = 'polish';
@@ -128,8 +131,6 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
       if (!(gap <= warmGap)) {
         x.set(start);
         imgX.set(startImage);
-        yv.set(x);
-        imgY.set(imgX);
         gap = warmGap;
         source = 'warm-start';
       }
@@ -143,6 +144,13 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   if (!Number.isFinite(gap)) return finish('numerical-failure', gap, 0);
   if (gap <= options.tolerance) return finish('converged', gap, 0);
 
+  if (it + spent < options.maxIterations) {
+    z = new Float64Array(size);
+    yv = Float64Array.from(x);
+    grad = new Float64Array(size);
+    imgZ = new Float64Array(m);
+    imgY = Float64Array.from(imgX);
+  }
   while (it + spent < options.maxIterations) {
     it++;
     const fy = loss.value(imgY, yv);
@@ -200,6 +208,9 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy, image: imgX };
   }
 }
+
+/** Stands for a buffer not made yet (fista's iteration buffers). */
+const NONE = new Float64Array(0);
 
 const MAX_POLISH = 12;
 
