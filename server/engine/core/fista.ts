@@ -38,6 +38,12 @@ export interface SolverOptions {
   lipschitz: number;
   /** The image of the warm start, when the caller has it (else computed). */
   image?: Float64Array;
+  /**
+   * Polish the warm start before computing its gap (with roles.polish). For losses whose every solve
+   * along a path ends at the polish (binomial, decision 25): the warm start's own gap is then
+   * computed only when the polished point misses the tolerance, and the better of the two is kept.
+   */
+  polishFirst?: boolean;
 }
 
 export interface SolverOutcome {
@@ -70,15 +76,16 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
   const { size, loss } = roles;
   const m = loss.imageSize;
   let x = Float64Array.from(w);
-  let z = new Float64Array(size);
-  const yv = Float64Array.from(w);
-  const grad = new Float64Array(size);
   let imgX = new Float64Array(m);
-  let imgZ = new Float64Array(m);
-  const imgY = new Float64Array(m);
   if (options.image && options.image.length === m) imgX.set(options.image);
   else loss.image(x, imgX);
-  imgY.set(imgX);
+  // The iteration's buffers (y = x and its image until the first iteration) are made only when
+  // FISTA iterates: most solves along a path end at the warm start or its polish.
+  let z = NONE;
+  let yv = NONE;
+  let grad = NONE;
+  let imgZ = NONE;
+  let imgY = NONE;
   let lipschitz = options.lipschitz > 0 ? options.lipschitz : 1;
   let t = 1;
 
@@ -104,19 +111,46 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     if (!found || !(found.gap <= gap)) return;
     x.set(found.point);
     imgX.set(found.image);
-    yv.set(x);
-    imgY.set(imgX);
+    if (yv !== NONE) {
+      yv.set(x);
+      imgY.set(imgX);
+    }
     t = 1;
     gap = found.gap;
     source = 'polish';
   };
-  // The warm start's gap first: along a path, and with a loose tolerance, the previous lambda's
-  // solution often meets it already (stoppedBy 'warm-start'); otherwise the polish is tried on it.
-  let gap = roles.gap(x, imgX);
-  if (polisher && !(gap <= options.tolerance)) polish();
+  let gap = Infinity;
+  if (polisher && options.polishFirst) {
+    // The polish first (SolverOptions.polishFirst): a polished point that meets the tolerance ends
+    // the solve without the warm start's gap; otherwise the warm start (kept) is compared with it.
+    const start = Float64Array.from(x);
+    const startImage = Float64Array.from(imgX);
+    polish();
+    if (!(gap <= options.tolerance)) {
+      const warmGap = roles.gap(start, startImage);
+      if (!(gap <= warmGap)) {
+        x.set(start);
+        imgX.set(startImage);
+        gap = warmGap;
+        source = 'warm-start';
+      }
+    }
+  } else {
+    // The warm start's gap first: along a path, and with a loose tolerance, the previous lambda's
+    // solution often meets it already (stoppedBy 'warm-start'); otherwise the polish is tried on it.
+    gap = roles.gap(x, imgX);
+    if (polisher && !(gap <= options.tolerance)) polish();
+  }
   if (!Number.isFinite(gap)) return finish('numerical-failure', gap, 0);
   if (gap <= options.tolerance) return finish('converged', gap, 0);
 
+  if (it + spent < options.maxIterations) {
+    z = new Float64Array(size);
+    yv = Float64Array.from(x);
+    grad = new Float64Array(size);
+    imgZ = new Float64Array(m);
+    imgY = Float64Array.from(imgX);
+  }
   while (it + spent < options.maxIterations) {
     it++;
     const fy = loss.value(imgY, yv);
@@ -174,6 +208,9 @@ export function fista(roles: SolverRoles, w: Float64Array, options: SolverOption
     return { status, gap: finalGap, iterations: iterations + spent, lipschitz, stoppedBy, image: imgX };
   }
 }
+
+/** Stands for a buffer not made yet (fista's iteration buffers). */
+const NONE = new Float64Array(0);
 
 const MAX_POLISH = 12;
 

@@ -29,8 +29,8 @@ export function logisticRows(eta: Float64Array, y: Float64Array, n: number, resi
 /**
  * hess (m x m, row-major, m = columns + 1) = [X_A 1]' W [X_A 1] / n, the intercept last, for the
  * columns of `x` starting at `offsets` (column-major, n rows) and the weights w. `weighted` (at
- * least (m - 1) n long) receives w x_q. The slopes' block is summed two by two columns per pass over
- * the rows (4 sums from 4 loads); each entry is a left-to-right sum over rows.
+ * least (m - 1) n long) receives w x_q. The slopes' block is summed four weighted columns by two per
+ * pass over the rows (8 sums from 6 loads); each entry is a left-to-right sum over rows.
  */
 export function weightedGram(
   x: Float64Array,
@@ -56,37 +56,56 @@ export function weightedGram(
     hess[q * m + last] = h0 / n;
     hess[last * m + q] = h0 / n;
   }
-  const set = (q: number, r: number, h: number): void => {
-    hess[q * m + r] = h / n;
-    hess[r * m + q] = h / n;
-  };
-  for (let q = 0; q < last; q += 2) {
+  // Entry (q, r), r <= q, is weighted_q'x_r: four weighted columns against two columns per pass over
+  // the rows (8 sums from 6 loads). Sums with r > q (in the diagonal blocks) are computed and dropped,
+  // so every kept entry is the same left-to-right sum as one computed alone.
+  for (let q = 0; q < last; q += 4) {
+    const rows = Math.min(4, last - q);
     const a0 = q * n;
-    const pair = q + 1 < last;
-    const a1 = pair ? a0 + n : a0;
-    for (let r = 0; r <= q; r += 2) {
+    const a1 = rows > 1 ? a0 + n : a0;
+    const a2 = rows > 2 ? a0 + 2 * n : a0;
+    const a3 = rows > 3 ? a0 + 3 * n : a0;
+    const top = q + rows - 1;
+    for (let r = 0; r <= top; r += 2) {
       const b0 = offsets[r];
       const b1 = r + 1 < last ? offsets[r + 1] : b0;
-      let s00 = 0, s01 = 0, s10 = 0, s11 = 0;
+      let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
       for (let i = 0; i < n; i++) {
-        const u0 = weighted[a0 + i];
-        const u1 = weighted[a1 + i];
         const v0 = x[b0 + i];
         const v1 = x[b1 + i];
+        const u0 = weighted[a0 + i];
+        const u1 = weighted[a1 + i];
+        const u2 = weighted[a2 + i];
+        const u3 = weighted[a3 + i];
         s00 += u0 * v0;
         s01 += u0 * v1;
         s10 += u1 * v0;
         s11 += u1 * v1;
+        s20 += u2 * v0;
+        s21 += u2 * v1;
+        s30 += u3 * v0;
+        s31 += u3 * v1;
       }
-      set(q, r, s00);
-      if (r + 1 < last) set(q, r + 1, s01);
-      if (pair) {
-        set(q + 1, r, s10);
-        if (r + 1 < last) set(q + 1, r + 1, s11);
-      }
+      const second = r + 1 < last;
+      keep(hess, m, n, q, r, s00, second, s01);
+      if (rows > 1) keep(hess, m, n, q + 1, r, s10, second, s11);
+      if (rows > 2) keep(hess, m, n, q + 2, r, s20, second, s21);
+      if (rows > 3) keep(hess, m, n, q + 3, r, s30, second, s31);
     }
   }
   hess[last * m + last] = sumW / n;
+}
+
+/** Stores weighted_q'x_r and weighted_q'x_{r+1} (when `second`) in both triangles, for columns r' <= q only. */
+function keep(hess: Float64Array, m: number, n: number, q: number, r: number, h0: number, second: boolean, h1: number): void {
+  if (r <= q) {
+    hess[q * m + r] = h0 / n;
+    hess[r * m + q] = h0 / n;
+  }
+  if (second && r + 1 <= q) {
+    hess[q * m + r + 1] = h1 / n;
+    hess[(r + 1) * m + q] = h1 / n;
+  }
 }
 
 /* Column kernels of the Newton loop (polishNewton.ts) on the support's columns at `offsets`. */

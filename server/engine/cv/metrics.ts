@@ -57,24 +57,35 @@ export function misclassificationRate(y: ArrayLike<number>, eta: ArrayLike<numbe
  */
 export function areaUnderRoc(y: ArrayLike<number>, score: ArrayLike<number>): number {
   const n = y.length;
-  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => score[a] - score[b]);
+  // The scores of each class sorted apart (a typed array's numeric sort, no comparator calls), then
+  // walked together: a tie group spans both lists. The rank sum is a sum of half-integers far below
+  // 2^53, so it is exact in any order of summation.
   let positives = 0;
-  let rankSumPositives = 0;
-  let start = 0;
-  while (start < n) {
-    let end = start + 1;
-    while (end < n && score[order[end]] === score[order[start]]) end++;
-    // Rows start..end-1 are tied; each gets the mean of ranks start+1..end.
-    const midRank = (start + 1 + end) / 2;
-    for (let k = start; k < end; k++) {
-      if (y[order[k]] === 1) {
-        positives++;
-        rankSumPositives += midRank;
-      }
-    }
-    start = end;
-  }
+  for (let i = 0; i < n; i++) if (y[i] === 1) positives++;
   const negatives = n - positives;
   if (positives === 0 || negatives === 0) return Number.NaN;
+  const pos = new Float64Array(positives);
+  const neg = new Float64Array(negatives);
+  for (let i = 0, a = 0, b = 0; i < n; i++) {
+    const s = score[i];
+    if (Number.isNaN(s)) return Number.NaN;
+    if (y[i] === 1) pos[a++] = s;
+    else neg[b++] = s;
+  }
+  pos.sort();
+  neg.sort();
+  let rankSumPositives = 0;
+  let i = 0;
+  let j = 0;
+  while (i < positives || j < negatives) {
+    const v = j >= negatives || (i < positives && pos[i] < neg[j]) ? pos[i] : neg[j];
+    const start = i + j;
+    const fromPos = i;
+    while (i < positives && pos[i] === v) i++;
+    while (j < negatives && neg[j] === v) j++;
+    // Rows start..end-1 of the merged order are tied; each gets the mean of ranks start+1..end.
+    const midRank = (start + 1 + i + j) / 2;
+    rankSumPositives += (i - fromPos) * midRank;
+  }
   return (rankSumPositives - (positives * (positives + 1)) / 2) / (positives * negatives);
 }

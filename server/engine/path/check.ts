@@ -376,7 +376,7 @@ export function checkFull(
     bounds.update(at.theta, lambda, g, lambda === 0, given);
     scope = bounds.checkedBlocks();
   } else {
-    ({ loss, g, residual } = problem.loss.evaluate(coef, intercept));
+    ({ loss, g, residual } = problem.loss.evaluate(coef, intercept, image));
     bounds?.invalidate();
   }
   const penalty = fullPenalty(problem, allBlocks, allStart, coef, lambda);

@@ -240,12 +240,15 @@ function solveRestricted(
   // At an unmoved warm start the last check's x_j'theta are the working set's (exact on every
   // working column: the strong rule made them so): FISTA's first gap needs no products.
   let warm = image && state.kkt?.exactOn(state.g, ws.features) ? state.g : null;
+  // Those products belong to the warm start only: a solve that polishes first (LossRole.polishFirst)
+  // may compute its first gap elsewhere.
+  const start = warm ? Float64Array.from(w) : null;
   const positions = new Int32Array(ws.k);
   const gap = (v: Float64Array, img: Float64Array, known?: KnownGradient): number => {
     evaluated.set(v);
     const value = loss.value(img, v);
     const residual = loss.residual(img, v);
-    if (warm) {
+    if (warm && start && sameValues(v, start)) {
       for (let b = 0; b < ws.k; b++) g[ws.features[b]] = warm[ws.features[b]];
       warm = null;
     } else if (known && loss.gradientOn) {
@@ -283,7 +286,16 @@ function solveRestricted(
           : undefined,
     },
     w,
-    { tolerance: options.tolerance, maxIterations: options.maxIterations, checkEvery: CHECK_EVERY, lipschitz: estimate > 0 ? estimate : 1, image },
+    {
+      tolerance: options.tolerance,
+      maxIterations: options.maxIterations,
+      checkEvery: CHECK_EVERY,
+      lipschitz: estimate > 0 ? estimate : 1,
+      image,
+      // Not from the null model (the path's first lambdas): there the warm start usually is the
+      // answer, and keeping it keeps the CV's scores at lambda_max those of exactly zero coefficients.
+      polishFirst: problem.loss.polishFirst === true && hasNonZero(w, ws.k),
+    },
   );
   state.lipschitz = outcome.lipschitz;
   for (let b = 0; b < ws.k; b++) state.coef[ws.features[b]] = w[b];
@@ -326,4 +338,15 @@ function imageOf(state: PathState): Float64Array | undefined {
 /** The active-set polish handles lasso and elastic-net blocks (one column each). */
 function singleColumnBlocks(ws: WorkingSet): boolean {
   return ws.blocks.length === ws.k;
+}
+
+function sameValues(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+function hasNonZero(w: Float64Array, k: number): boolean {
+  for (let b = 0; b < k; b++) if (w[b] !== 0) return true;
+  return false;
 }

@@ -255,6 +255,25 @@ describe('binomial loss: residual reuse and the KKT gradient', () => {
     expect(Array.from(again.g)).toEqual(Array.from(first.g));
   });
 
+  it("the full check at the solver's image of a point gives the check without it, to the bit", () => {
+    const options = { family: 'binomial' as const, penalty: 'lasso' as const, standardize: true };
+    const terms = ['a', 'b', 'c', 'd', 'e', 'f'];
+    const [one, two] = [0, 1].map(() => prepareProblem({ n, p, x, terms }, y, options));
+    const lambda = 0.3 * one.lambdaMax;
+    const allWs = makeWorkingSet(one.problem.penalty, Int32Array.from({ length: p }, (_, u) => u), true);
+    const w = Float64Array.from({ length: allWs.size }, (_, b) => (b === 2 || b === 4 ? 0 : 0.25 * Math.cos(b + 1)));
+    const coef = new Float64Array(p);
+    for (let b = 0; b < allWs.k; b++) coef[allWs.features[b]] = w[b];
+    const img = new Float64Array(n);
+    one.problem.loss.bind(allWs).image(w, img);
+    const blocks = Int32Array.from({ length: p }, (_, u) => u);
+    const given = checkFull(one.problem, one.dual, blocks, one.problem.penalty.start, coef, w[allWs.k], lambda, undefined, undefined, img);
+    const fresh = checkFull(two.problem, two.dual, blocks, two.problem.penalty.start, coef, w[allWs.k], lambda);
+    expect(given.gap).toBe(fresh.gap);
+    expect(given.loss).toBe(fresh.loss);
+    expect(Array.from(given.g)).toEqual(Array.from(fresh.g));
+  });
+
   it("after a solve on a support, the gap check's value and gradient at its answer are a fresh problem's, to the bit", () => {
     const options = { family: 'binomial' as const, penalty: 'lasso' as const, standardize: true };
     const terms = ['a', 'b', 'c', 'd', 'e', 'f'];

@@ -71,4 +71,25 @@ describe('AUC (Mann-Whitney, ties count half)', () => {
   it('is NaN with a single class', () => {
     expect(areaUnderRoc([1, 1], [0.2, 0.4])).toBeNaN();
   });
+  it('is NaN when a score is NaN (no order is defined)', () => {
+    expect(areaUnderRoc([1, 0, 1], [0.2, Number.NaN, 0.4])).toBeNaN();
+  });
+  it('equals the pair count exactly on scores with many ties (and -0 tied with 0)', () => {
+    for (let trial = 0; trial < 20; trial++) {
+      const n = 40 + trial;
+      const y = Array.from({ length: n }, (_, i) => ((i * 7 + trial) % 3 === 0 ? 1 : 0));
+      const s = Array.from({ length: n }, (_, i) => {
+        const v = ((i * 13 + trial * 5) % 9) - 4;
+        return v === 0 && i % 2 === 0 ? -0 : v / 2;
+      });
+      let pairs = 0;
+      let npos = 0;
+      for (let a = 0; a < n; a++) {
+        if (y[a] !== 1) continue;
+        npos++;
+        for (let b = 0; b < n; b++) if (y[b] !== 1) pairs += s[a] > s[b] ? 1 : s[a] === s[b] ? 0.5 : 0;
+      }
+      expect(areaUnderRoc(y, s), `trial ${trial}`).toBe(pairs / (npos * (n - npos)));
+    }
+  });
 });

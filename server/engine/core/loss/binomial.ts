@@ -25,10 +25,14 @@ export function binomialLoss(problem: Problem): LossRole {
     intercept: true,
     dualConcavity: 4 * n,
     nullObjective: -(yMean * Math.log(yMean) + (1 - yMean) * Math.log1p(-yMean)),
+    // Every solve along a binomial path ends at the polish (decision 25): its gap comes first.
+    polishFirst: true,
     bind: (ws) => bind(problem, ws, memo),
-    evaluate(coef, intercept): Evaluation {
-      // The full check usually follows a gap check at the same point (same image, to the bit).
-      const loss = memo.at(fullImage(problem, coef, intercept));
+    evaluate(coef, intercept, image): Evaluation {
+      // The full check usually follows a gap check at the same point (same image, to the bit); the
+      // solver's image of that point (designImage) sums the same columns in the same order as
+      // fullImage, so it is used when given.
+      const loss = memo.at(image && image.length === n ? image : fullImage(problem, coef, intercept));
       const theta = new Float64Array(n);
       for (let i = 0; i < n; i++) theta[i] = -memo.residual[i] / n;
       const g = new Float64Array(problem.p);

@@ -18,10 +18,19 @@ export interface LossRole {
   readonly dualConcavity: number;
   /** Objective at b = 0 with the best intercept (the relative gap's scale). */
   readonly nullObjective: number;
+  /**
+   * The solver polishes a warm start before computing its gap (fista's SolverOptions.polishFirst):
+   * set by losses whose solves along a path end at the polish anyway (binomial, decision 25).
+   */
+  readonly polishFirst?: boolean;
   /** Value, gradient and Lipschitz bound on a working set (what FISTA needs). */
   bind(ws: WorkingSet): BoundLoss;
-  /** Loss, X'theta_raw (= -gradient) over every column, and the dual residual, at (coef, intercept). */
-  evaluate(coef: Float64Array, intercept: number): Evaluation;
+  /**
+   * Loss, X'theta_raw (= -gradient) over every column, and the dual residual, at (coef, intercept).
+   * `image`, when given, is the solver's image of the same point (binomial: b0 + X b); a loss may use
+   * it instead of computing X b again.
+   */
+  evaluate(coef: Float64Array, intercept: number, image?: Float64Array): Evaluation;
   /**
    * Design forms whose dual ignores a block with |X_u'theta| < lambda alpha w_u (gaussian): the loss,
    * theta_raw = -d loss / d eta (length n) and the dual residual at (coef, intercept), without
