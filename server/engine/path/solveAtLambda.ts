@@ -273,12 +273,16 @@ function solveRestricted(
       polish:
         options.polish && singleColumnBlocks(ws)
           ? (v, out, maxSteps) => {
-              const result: PolishOutcome = polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance);
+              const result = polishOnSupport(problem, ws, lambda, v, out, maxSteps, state.support, options.tolerance);
               const last = state.support.last;
               state.support.last = undefined;
-              if (!result.ok || !last || last.w.length !== ws.k) return result;
-              for (let b = 0; b < ws.k; b++) if (last.w[b] !== out[b]) return result;
-              return { ...result, image: last.image, gradient: last };
+              // One literal shape for every outcome (see the return of solveRestricted).
+              const outcome: PolishOutcome = { ok: result.ok, steps: result.steps, image: undefined, gradient: undefined };
+              if (!result.ok || !last || last.w.length !== ws.k) return outcome;
+              for (let b = 0; b < ws.k; b++) if (last.w[b] !== out[b]) return outcome;
+              outcome.image = last.image;
+              outcome.gradient = last;
+              return outcome;
             }
           : undefined,
     },
@@ -291,7 +295,10 @@ function solveRestricted(
   let atSolution = true;
   for (let b = 0; b < ws.size && atSolution; b++) atSolution = w[b] === evaluated[b];
   const known: KnownProducts | undefined = atSolution ? { features: ws.features, count: ws.k, values: g } : undefined;
-  return { ...outcome, known };
+  // A literal with the fields named, not a spread of fista's outcome: a spread's copies left
+  // solveAtLambda's optimized code facing new object maps fold after fold ("wrong map"
+  // deoptimizations, ~10 per wide 300x1500 CV run, each followed by a recompilation).
+  return { status: outcome.status, stoppedBy: outcome.stoppedBy, iterations: outcome.iterations, image: outcome.image, known };
 }
 
 function keptBlocks(keep: Uint8Array): Int32Array {
