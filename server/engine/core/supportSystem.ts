@@ -305,9 +305,21 @@ export class SupportSystem {
         pivot[q + 3] -= v3 * v3;
       }
       for (; q < size; q++) {
+        // One new row (the common case along a path): four partial sums, as in substitute.
         const row = q * stride;
-        let s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
-        for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        let t = 0;
+        for (; t + 4 <= r; t += 4) {
+          s0 += l[row + t] * l[other + t];
+          s1 += l[row + t + 1] * l[other + t + 1];
+          s2 += l[row + t + 2] * l[other + t + 2];
+          s3 += l[row + t + 3] * l[other + t + 3];
+        }
+        for (; t < r; t++) s0 += l[row + t] * l[other + t];
+        const s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r] - (s0 + s1 + (s2 + s3));
         const v = s / pivotR;
         l[row + r] = v;
         pivot[q] -= v * v;
@@ -428,14 +440,19 @@ export class SupportSystem {
       z[q] = (b[q] - (s0 + s1 + (s2 + s3))) / l[row + q];
     }
     // L' z = y by columns of L' (rows of L): contiguous reads where the dot-product form would
-    // stride down a column.
-    for (let q = size - 1; q >= 0; q--) {
-      if (skip[q]) continue;
+    // stride down a column. Two rows per pass over z (half its loads and stores); a skipped row
+    // counts as a zero (its z entry is 0 and the other rows' entries in its column are 0).
+    let q = size - 1;
+    for (; q >= 1; q -= 2) {
       const row = q * stride;
-      const v = z[q] / l[row + q];
+      const prev = row - stride;
+      const v = skip[q] ? 0 : z[q] / l[row + q];
       z[q] = v;
-      if (v !== 0) for (let r = 0; r < q; r++) z[r] -= l[row + r] * v;
+      const u = skip[q - 1] ? 0 : (z[q - 1] - l[row + q - 1] * v) / l[prev + q - 1];
+      z[q - 1] = u;
+      if (v !== 0 || u !== 0) for (let r = 0; r < q - 1; r++) z[r] -= l[row + r] * v + l[prev + r] * u;
     }
+    if (q === 0) z[0] = skip[0] ? 0 : z[0] / l[0];
   }
 }
 
