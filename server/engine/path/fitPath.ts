@@ -7,7 +7,7 @@ import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareGramProblem, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
-import { solveAtLambda, type PathState } from './solveAtLambda';
+import { newPathState, solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
 import { planFolds, type FoldPlan } from '../cv/foldData';
 
@@ -65,22 +65,7 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
     }
   }
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
-  const state: PathState = {
-    coef: Float64Array.from(nullFit.coef),
-    intercept: nullFit.intercept,
-    g: Float64Array.from(nullFit.g),
-    loss: problem.nullObjective,
-    lipschitz: 0,
-    // Every optional field present from the start (undefined until solveAtLambda and the polish
-    // fill them): one object shape for every path's state, so the optimized solveAtLambda, compiled
-    // on one path, is not thrown away ("wrong map" deoptimizations) when the next fold's fresh
-    // state arrives without the fields the last one had gained. Measured: ~14 deoptimizations of
-    // solveAtLambda per wide 300x1500 CV run before.
-    support: { system: undefined, tangent: undefined, last: undefined },
-    kkt: undefined,
-    scratch: undefined,
-    image: undefined,
-  };
+  const state = newPathState(Float64Array.from(nullFit.coef), nullFit.intercept, Float64Array.from(nullFit.g), problem.nullObjective);
   const result: PathResult = {
     family: options.family,
     terms: [...terms],
