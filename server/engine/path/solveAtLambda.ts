@@ -32,6 +32,8 @@ export interface PathState {
   kkt?: KktBounds;
   /** A p-long vector the working-set gap reuses from one lambda to the next. */
   scratch?: Float64Array;
+  /** 0, 1, ..., nBlocks - 1 (every block, for the full check), made once per path. */
+  allBlocks?: Int32Array;
   /**
    * X b at the last check and the coefficients b it belongs to: the next solve starts from this
    * image when coef still equals b (anything may have moved coef since: screening, a warm start).
@@ -56,6 +58,7 @@ export function newPathState(coef: Float64Array, intercept: number, g: Float64Ar
     support: { system: undefined, tangent: undefined, last: undefined },
     kkt: undefined,
     scratch: undefined,
+    allBlocks: undefined,
     image: undefined,
   };
 }
@@ -101,8 +104,8 @@ export function solveAtLambda(
 ): SolveInfo {
   const started = performance.now();
   const pen = problem.penalty;
-  const allBlocks = new Int32Array(pen.nBlocks);
-  for (let u = 0; u < pen.nBlocks; u++) allBlocks[u] = u;
+  if (!state.allBlocks || state.allBlocks.length !== pen.nBlocks) state.allBlocks = Int32Array.from({ length: pen.nBlocks }, (_, u) => u);
+  const allBlocks = state.allBlocks;
   const { lambda, tolerance } = options;
   const intercept = problem.loss.intercept;
   const keep = new Uint8Array(pen.nBlocks);
@@ -149,8 +152,12 @@ export function solveAtLambda(
       break;
     }
     let violations = 0;
+    const single = pen.start[pen.nBlocks] === pen.nBlocks;
     for (let u = 0; u < pen.nBlocks; u++) {
-      if (!keep[u] && blockNorm(pen, u, check.g) > lambda * pen.weight[u] * pen.alpha) {
+      if (keep[u]) continue;
+      // One column per block (lasso, elastic net): the norm is an absolute value.
+      const norm = single ? Math.abs(check.g[pen.features[u]]) : blockNorm(pen, u, check.g);
+      if (norm > lambda * pen.weight[u] * pen.alpha) {
         keep[u] = 1;
         violations++;
       }

@@ -395,7 +395,7 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
   transposeColumns(x, n, columns, count, eta, out, slots);
   for (let q = 0; q < count; q++) out[slots[q]] /= n;
   // Kept for the gap at this point (solveAtLambda.ts): its image and these products need no redoing.
-  if (memory && image) memory.last = { w: Float64Array.from(support), image, known: off, values: out };
+  if (memory && image) memory.last = { w: support, image, known: off, values: out };
   return out;
 }
 
