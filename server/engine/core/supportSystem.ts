@@ -40,6 +40,7 @@ export class SupportSystem {
   private residual = new Float64Array(0);
   private position = new Int32Array(0);
   private others = new Int32Array(0);
+  private otherSlots = new Int32Array(0);
   private values = new Float64Array(0);
   private pivot = new Float64Array(0);
   /** By column index: position in the features of the current solve (-1: none), and a mark; reset after each solve. */
@@ -217,6 +218,7 @@ export class SupportSystem {
     this.residual = new Float64Array(stride);
     this.position = new Int32Array(stride);
     this.others = new Int32Array(stride);
+    this.otherSlots = new Int32Array(stride);
     this.values = new Float64Array(stride);
     this.pivot = new Float64Array(stride);
     this.stride = stride;
@@ -236,15 +238,24 @@ export class SupportSystem {
       this.lastUse[this.slotAt[q]] = stamp;
     }
     const { stride, l, scale, skip, slotAt, others, values, pivot } = this;
-    // G entries of the new rows, column r of the support at a time: x_r is read once for all the
-    // new rows that miss its entry (they are few and stay in cache), not once per new row.
-    for (let r = 0; r < size; r++) {
-      const sr = slotAt[r];
+    // G entries of the new rows, one new row q at a time against every column r <= q that misses
+    // its entry: the batch is long (the whole support), so the design form's products run several
+    // columns per pass over x_q. Batching by r instead (x_r against the new rows) gives batches of
+    // one or two along a path, where few columns join per solve: one latency-bound sum per entry.
+    // An entry is the same number either way (x_q'x_r sums the same products in the same order).
+    const { known, cap: slots, otherSlots } = this;
+    for (let q = keep; q < size; q++) {
+      const sq = slotAt[q];
       let missing = 0;
-      for (let q = Math.max(keep, r); q < size; q++) if (!this.known[slotAt[q] * this.cap + sr]) others[missing++] = order[q];
+      for (let r = 0; r <= q; r++) {
+        if (!known[sq * slots + slotAt[r]]) {
+          others[missing] = order[r];
+          otherSlots[missing++] = slotAt[r];
+        }
+      }
       if (missing === 0) continue;
-      this.entries(order[r], others, missing, values);
-      for (let t = 0; t < missing; t++) this.store(sr, this.slotOf.get(others[t]) as number, values[t]);
+      this.entries(order[q], others, missing, values);
+      for (let t = 0; t < missing; t++) this.store(sq, otherSlots[t], values[t]);
     }
     const { gram, cap } = this;
     for (let q = keep; q < size; q++) {
@@ -294,9 +305,21 @@ export class SupportSystem {
         pivot[q + 3] -= v3 * v3;
       }
       for (; q < size; q++) {
+        // One new row (the common case along a path): four partial sums, as in substitute.
         const row = q * stride;
-        let s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r];
-        for (let t = 0; t < r; t++) s -= l[row + t] * l[other + t];
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        let t = 0;
+        for (; t + 4 <= r; t += 4) {
+          s0 += l[row + t] * l[other + t];
+          s1 += l[row + t + 1] * l[other + t + 1];
+          s2 += l[row + t + 2] * l[other + t + 2];
+          s3 += l[row + t + 3] * l[other + t + 3];
+        }
+        for (; t < r; t++) s0 += l[row + t] * l[other + t];
+        const s = scale[q] * gram[slotAt[q] * cap + sr] * scale[r] - (s0 + s1 + (s2 + s3));
         const v = s / pivotR;
         l[row + r] = v;
         pivot[q] -= v * v;
@@ -400,19 +423,36 @@ export class SupportSystem {
         z[q] = 0;
         continue;
       }
-      let s = b[q];
-      for (let r = 0; r < q; r++) s -= l[q * stride + r] * z[r];
-      z[q] = s / l[q * stride + q];
+      // Four partial sums: one running sum waits on each add's latency (common practice).
+      const row = q * stride;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      let r = 0;
+      for (; r + 4 <= q; r += 4) {
+        s0 += l[row + r] * z[r];
+        s1 += l[row + r + 1] * z[r + 1];
+        s2 += l[row + r + 2] * z[r + 2];
+        s3 += l[row + r + 3] * z[r + 3];
+      }
+      for (; r < q; r++) s0 += l[row + r] * z[r];
+      z[q] = (b[q] - (s0 + s1 + (s2 + s3))) / l[row + q];
     }
     // L' z = y by columns of L' (rows of L): contiguous reads where the dot-product form would
-    // stride down a column.
-    for (let q = size - 1; q >= 0; q--) {
-      if (skip[q]) continue;
+    // stride down a column. Two rows per pass over z (half its loads and stores); a skipped row
+    // counts as a zero (its z entry is 0 and the other rows' entries in its column are 0).
+    let q = size - 1;
+    for (; q >= 1; q -= 2) {
       const row = q * stride;
-      const v = z[q] / l[row + q];
+      const prev = row - stride;
+      const v = skip[q] ? 0 : z[q] / l[row + q];
       z[q] = v;
-      if (v !== 0) for (let r = 0; r < q; r++) z[r] -= l[row + r] * v;
+      const u = skip[q - 1] ? 0 : (z[q - 1] - l[row + q - 1] * v) / l[prev + q - 1];
+      z[q - 1] = u;
+      if (v !== 0 || u !== 0) for (let r = 0; r < q - 1; r++) z[r] -= l[row + r] * v + l[prev + r] * u;
     }
+    if (q === 0) z[0] = skip[0] ? 0 : z[0] / l[0];
   }
 }
 

@@ -7,7 +7,7 @@ import { pathOptionsFromSpec } from './fromSpec';
 import { checkPathOptions, FULL_GRAM_COLUMNS, prepareGramProblem, prepareProblem, usesGram, type PreparedProblem } from './setup';
 import { crossProducts } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
-import { solveAtLambda, type PathState } from './solveAtLambda';
+import { newPathState, solveAtLambda, type PathState } from './solveAtLambda';
 import { solveAtZero } from './atZero';
 import { planFolds, type FoldPlan } from '../cv/foldData';
 
@@ -65,14 +65,7 @@ function runPath(prepared: PreparedProblem, terms: string[], options: PathOption
     }
   }
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
-  const state: PathState = {
-    coef: Float64Array.from(nullFit.coef),
-    intercept: nullFit.intercept,
-    g: Float64Array.from(nullFit.g),
-    loss: problem.nullObjective,
-    lipschitz: 0,
-    support: {},
-  };
+  const state = newPathState(Float64Array.from(nullFit.coef), nullFit.intercept, Float64Array.from(nullFit.g), problem.nullObjective);
   const result: PathResult = {
     family: options.family,
     terms: [...terms],

@@ -12,7 +12,7 @@ import { SupportSystem } from '../../../server/engine/core/supportSystem';
 import { fitPathOnDesign } from '../../../server/engine/index';
 import { checkFull, KktBounds } from '../../../server/engine/path/check';
 import { prepareProblem } from '../../../server/engine/path/setup';
-import { gapSafe, solveAtLambda, type PathState } from '../../../server/engine/path/solveAtLambda';
+import { gapSafe, newPathState, solveAtLambda, type PathState } from '../../../server/engine/path/solveAtLambda';
 import type { PathOptions } from '../../../server/engine/types';
 import { createRng } from '../../../server/engine/random';
 import { expectClose } from '../../support/numbers';
@@ -148,6 +148,21 @@ describe('path state carried between lambdas', () => {
   function freshState(coef: Float64Array): PathState {
     return { coef: Float64Array.from(coef), intercept: 0, g: new Float64Array(p), loss: 0, lipschitz: 0, support: {} };
   }
+
+  it('solves along a path add no field to a new path state (one object shape for every fold)', () => {
+    const shape = (state: PathState) => [...Object.keys(state), ...Object.keys(state.support).map((k) => `support.${k}`)].sort().join(',');
+    const state = newPathState(Float64Array.from(path.standardizedCoefficients[2]), 0, new Float64Array(p), 0);
+    const before = shape(state);
+    for (let k = 3; k < 12; k++) {
+      const info = solveAtLambda(problem, dual, state, { lambda: path.lambda[k], previousLambda: path.lambda[k - 1], tolerance: 1e-10, maxIterations: 10000, screening: 'strong', polish: true });
+      expect(info.status).toBe('converged');
+    }
+    // The solves did fill the lazy fields (else the check would prove nothing)...
+    expect(state.kkt).toBeDefined();
+    expect(state.support.system).toBeDefined();
+    // ...without adding any.
+    expect(shape(state)).toBe(before);
+  });
 
   it('a solve after the coefficients were moved from outside (a warm start) equals one from a fresh state', () => {
     const lambdaOptions = (k: number) => ({ lambda: path.lambda[k], previousLambda: path.lambda[k - 1], tolerance: 1e-10, maxIterations: 10000, screening: 'strong' as const, polish: true });
