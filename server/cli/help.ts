@@ -68,7 +68,7 @@ Cross-validation
   --workers auto|on|off    on: folds in 2 worker threads; off: all in this thread; auto (default):
                            this thread and one worker share the folds (the worker starts on them
                            while the full path is fitted) when the work is large enough to pay
-                           (folds x lambdas x p x min(n, p) >= 1e7) and other processes left at
+                           (folds x lambdas x p x min(n, p) >= 1e9) and other processes left at
                            least 1.5 cores free while the data were read; else all in this thread
 
 Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap

@@ -324,12 +324,15 @@ export async function crossValidateAdaptive(
 /**
  * Below this estimate of a cross-validation's work the CLI's `--workers auto` runs the folds in its
  * own thread: folds x lambdas x p x min(n, p) (one lambda of a fold costs about p min(n, p) in either
- * form: Gram columns in the tall case, products with the working columns in the wide case). The bench
- * cases sit at 4e7 (tall) to 3e9 (600 x 5000), where a second thread pays for its ~0.1 s start-up
- * and its memory; the breast cancer case (9e5) takes about as long with a worker as without (bench,
- * 05:12 baseline: 0.92 s against 0.97 s) for 50 MB more, so it stays in one thread.
+ * form: Gram columns in the tall case, products with the working columns in the wide case).
+ * A worker costs far more than its start-up: it compiles the engine afresh (its code is cold, and
+ * V8's optimizing compiler shares the two cores), about 0.5-0.75 s of CPU on the bench cases. On a
+ * quiet 2-core machine (`npm run bench -- engine`, 2026-12-02 06:57) a worker was slower than one
+ * thread at 4e7 (tall 20000 x 200: 1.27 s against 1.21 s wall) and 4.5e8 (300 x 1500: 1.39 s against
+ * 1.24 s), and faster at 3e9 (600 x 5000: 3.05 s against 3.82 s); the breast cancer case (9e5) gains
+ * nothing either. So the line sits between the last two.
  */
-export const THREAD_WORK_THRESHOLD = 1e7;
+export const THREAD_WORK_THRESHOLD = 1e9;
 
 /** Whether a second thread pays for this cross-validation (see THREAD_WORK_THRESHOLD). */
 export function threadsPay(prepared: PreparedFit, folds: number, lambdaCount: number): boolean {

@@ -112,8 +112,10 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
 describe('threadsPay', () => {
   it('uses a second thread only above the work estimate', () => {
     const prepared = (n: number, p: number) => ({ built: { design: { n, p } } }) as Parameters<typeof threadsPay>[0];
-    expect(threadsPay(prepared(20000, 200), 10, 100)).toBe(true);
-    expect(threadsPay(prepared(300, 1500), 10, 100)).toBe(true);
+    // The bench shapes (10 folds, 100 lambdas): only 600 x 5000 gains from a worker (THREAD_WORK_THRESHOLD).
+    expect(threadsPay(prepared(600, 5000), 10, 100)).toBe(true);
+    expect(threadsPay(prepared(20000, 200), 10, 100)).toBe(false);
+    expect(threadsPay(prepared(300, 1500), 10, 100)).toBe(false);
     expect(threadsPay(prepared(569, 30), 10, 100)).toBe(false);
     // At the threshold exactly: 10 folds x 100 lambdas x p x min(n, p).
     const p = Math.sqrt(THREAD_WORK_THRESHOLD / 1000);
