@@ -2,7 +2,7 @@ import { logisticRows } from '../logisticRows';
 import { NewtonScratch, newtonOnSupport } from '../polishNewton';
 import { blockConjugate } from '../penalty';
 import type { Problem, WorkingSet } from '../problem';
-import { designGramNorm, designImage, designTranspose, fullImage, transposeTimes } from './design';
+import { designGramNorm, designImage, designTranspose, fullImage, transposeColumns, transposeTimes } from './design';
 import { blockStep, normOf, scaleScope } from './dualSteps';
 import { FREE, type BoundLoss, type DualProjection, type Evaluation, type LossRole, type NullFit, type SupportMemory } from './role';
 
@@ -58,10 +58,12 @@ export function binomialLoss(problem: Problem): LossRole {
       // The polish reads x_j'theta off the support only; the active entries are left 0.
       const onSupport = new Uint8Array(ws.k);
       for (const a of active) onSupport[a] = 1;
-      const off: number[] = [];
-      for (let b = 0; b < ws.k; b++) if (!onSupport[b]) off.push(ws.features[b]);
+      let offCount = 0;
+      for (let b = 0; b < ws.k; b++) offCount += 1 - onSupport[b];
+      const off = new Int32Array(offCount);
+      for (let b = 0, t = 0; b < ws.k; b++) if (!onSupport[b]) off[t++] = ws.features[b];
       const values = new Float64Array(off.length);
-      transposeColumns(problem.x, n, off, residual, values);
+      transposeColumns(problem.x, n, off, off.length, residual, values, null);
       const g = new Float64Array(ws.k);
       for (let b = 0, t = 0; b < ws.k; b++) if (!onSupport[b]) g[b] = -values[t++] / n;
       return g;
@@ -102,38 +104,6 @@ class ResidualMemo {
     this.seen.set(eta);
     this.valid = true;
     return this.loss;
-  }
-}
-
-/** out[t] = x_{columns[t]}'v, four columns per pass over v; each a left-to-right sum over rows. */
-function transposeColumns(x: Float64Array, n: number, columns: number[], v: Float64Array, out: Float64Array): void {
-  let t = 0;
-  for (; t + 4 <= columns.length; t += 4) {
-    const a0 = columns[t] * n;
-    const a1 = columns[t + 1] * n;
-    const a2 = columns[t + 2] * n;
-    const a3 = columns[t + 3] * n;
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    for (let i = 0; i < n; i++) {
-      const u = v[i];
-      s0 += x[a0 + i] * u;
-      s1 += x[a1 + i] * u;
-      s2 += x[a2 + i] * u;
-      s3 += x[a3 + i] * u;
-    }
-    out[t] = s0;
-    out[t + 1] = s1;
-    out[t + 2] = s2;
-    out[t + 3] = s3;
-  }
-  for (; t < columns.length; t++) {
-    const a = columns[t] * n;
-    let s = 0;
-    for (let i = 0; i < n; i++) s += x[a + i] * v[i];
-    out[t] = s;
   }
 }
 

@@ -36,38 +36,10 @@ export function addFour(x: Float64Array, n: number, cols: number[], coefs: numbe
   for (let i = 0; i < n; i++) out[i] += c0 * x[a0 + i] + c1 * x[a1 + i] + c2 * x[a2 + i] + c3 * x[a3 + i];
 }
 
-/** out[b] = scale * x_{W_b}' v, four columns per pass over v (each the same left-to-right sum as one at a time). */
+/** out[b] = scale * x_{W_b}' v for every working column (transposeColumns into slots 0..k-1, then scaled). */
 export function designTranspose(problem: Problem, ws: WorkingSet, v: Float64Array, out: Float64Array, scale: number): void {
-  const { n, x } = problem;
-  const features = ws.features;
-  let b = 0;
-  for (; b + 4 <= ws.k; b += 4) {
-    const a0 = features[b] * n;
-    const a1 = features[b + 1] * n;
-    const a2 = features[b + 2] * n;
-    const a3 = features[b + 3] * n;
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    for (let i = 0; i < n; i++) {
-      const t = v[i];
-      s0 += x[a0 + i] * t;
-      s1 += x[a1 + i] * t;
-      s2 += x[a2 + i] * t;
-      s3 += x[a3 + i] * t;
-    }
-    out[b] = scale * s0;
-    out[b + 1] = scale * s1;
-    out[b + 2] = scale * s2;
-    out[b + 3] = scale * s3;
-  }
-  for (; b < ws.k; b++) {
-    const off = features[b] * n;
-    let s = 0;
-    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
-    out[b] = scale * s;
-  }
+  transposeColumns(problem.x, problem.n, ws.features, ws.k, v, out, null);
+  for (let b = 0; b < ws.k; b++) out[b] = scale * out[b];
 }
 
 /** eta = offset + X b over every column with b_j != 0 (four columns per pass, as designImage). */
@@ -160,8 +132,8 @@ export function transposeTimes(x: Float64Array, n: number, p: number, v: Float64
 
 /**
  * g[j] = x_j'v for the `count` columns j listed in `columns` (other entries untouched), or into
- * g[slots[q]] when slots are given; four columns per pass over v as transposeTimes, each entry the
- * same left-to-right sum over rows.
+ * g[slots[q]] when slots are given, or into g[q] (slots null: one entry per listed column, in order);
+ * four columns per pass over v as transposeTimes, each entry the same left-to-right sum over rows.
  */
 export function transposeColumns(
   x: Float64Array,
@@ -170,7 +142,7 @@ export function transposeColumns(
   count: number,
   v: Float64Array,
   g: Float64Array,
-  slots: Int32Array = columns,
+  slots: Int32Array | null = columns,
 ): void {
   let q = 0;
   for (; q + 4 <= count; q += 4) {
@@ -189,16 +161,23 @@ export function transposeColumns(
       s2 += x[a2 + i] * t;
       s3 += x[a3 + i] * t;
     }
-    g[slots[q]] = s0;
-    g[slots[q + 1]] = s1;
-    g[slots[q + 2]] = s2;
-    g[slots[q + 3]] = s3;
+    if (slots === null) {
+      g[q] = s0;
+      g[q + 1] = s1;
+      g[q + 2] = s2;
+      g[q + 3] = s3;
+    } else {
+      g[slots[q]] = s0;
+      g[slots[q + 1]] = s1;
+      g[slots[q + 2]] = s2;
+      g[slots[q + 3]] = s3;
+    }
   }
   for (; q < count; q++) {
     const off = columns[q] * n;
     let s = 0;
     for (let i = 0; i < n; i++) s += x[off + i] * v[i];
-    g[slots[q]] = s;
+    g[slots === null ? q : slots[q]] = s;
   }
 }
 
