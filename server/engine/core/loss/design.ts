@@ -7,15 +7,22 @@ import type { Problem, WorkingSet } from '../problem';
  * out that one column at a time would take).
  */
 export function designImage(problem: Problem, ws: WorkingSet, w: Float64Array, out: Float64Array, offset: number): void {
-  const { n, x } = problem;
   out.fill(offset);
+  addNonzeroColumns(problem.x, problem.n, ws.features, w, ws.k, out);
+}
+
+/**
+ * out += sum over b < count with coef[b] != 0 of coef[b] x_{columns[b]} (columns null: column b),
+ * four columns per pass over out, then the rest one at a time.
+ */
+function addNonzeroColumns(x: Float64Array, n: number, columns: Int32Array | null, coef: Float64Array, count: number, out: Float64Array): void {
   const cols = [0, 0, 0, 0];
   const coefs = [0, 0, 0, 0];
   let held = 0;
-  for (let b = 0; b < ws.k; b++) {
-    if (w[b] === 0) continue;
-    cols[held] = ws.features[b] * n;
-    coefs[held] = w[b];
+  for (let b = 0; b < count; b++) {
+    if (coef[b] === 0) continue;
+    cols[held] = (columns === null ? b : columns[b]) * n;
+    coefs[held] = coef[b];
     held++;
     if (held === 4) {
       addFour(x, n, cols, coefs, out);
@@ -24,8 +31,8 @@ export function designImage(problem: Problem, ws: WorkingSet, w: Float64Array, o
   }
   for (let h = 0; h < held; h++) {
     const off = cols[h];
-    const coef = coefs[h];
-    for (let i = 0; i < n; i++) out[i] += coef * x[off + i];
+    const c = coefs[h];
+    for (let i = 0; i < n; i++) out[i] += c * x[off + i];
   }
 }
 
@@ -44,26 +51,8 @@ export function designTranspose(problem: Problem, ws: WorkingSet, v: Float64Arra
 
 /** eta = offset + X b over every column with b_j != 0 (four columns per pass, as designImage). */
 export function fullImage(problem: Problem, coef: Float64Array, offset: number): Float64Array {
-  const { n, p, x } = problem;
-  const eta = new Float64Array(n).fill(offset);
-  const cols = [0, 0, 0, 0];
-  const coefs = [0, 0, 0, 0];
-  let held = 0;
-  for (let k = 0; k < p; k++) {
-    if (coef[k] === 0) continue;
-    cols[held] = k * n;
-    coefs[held] = coef[k];
-    held++;
-    if (held === 4) {
-      addFour(x, n, cols, coefs, eta);
-      held = 0;
-    }
-  }
-  for (let h = 0; h < held; h++) {
-    const off = cols[h];
-    const beta = coefs[h];
-    for (let i = 0; i < n; i++) eta[i] += beta * x[off + i];
-  }
+  const eta = new Float64Array(problem.n).fill(offset);
+  addNonzeroColumns(problem.x, problem.n, null, coef, problem.p, eta);
   return eta;
 }
 
@@ -183,13 +172,8 @@ export function transposeColumns(
 
 /** x_j'v / n for every working column. */
 export function workingTranspose(problem: Problem, ws: WorkingSet, v: Float64Array): Float64Array {
-  const { n, x } = problem;
   const g = new Float64Array(ws.k);
-  for (let b = 0; b < ws.k; b++) {
-    const off = ws.features[b] * n;
-    let s = 0;
-    for (let i = 0; i < n; i++) s += x[off + i] * v[i];
-    g[b] = s / n;
-  }
+  transposeColumns(problem.x, problem.n, ws.features, ws.k, v, g, null);
+  for (let b = 0; b < ws.k; b++) g[b] = g[b] / problem.n;
   return g;
 }

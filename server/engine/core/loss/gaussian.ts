@@ -260,71 +260,14 @@ function columnProduct(problem: Problem): (f: number, g: number) => number {
 }
 
 /**
- * columnProduct of f with several columns: four per pass over x_f, then the last one to three
- * together (each the same left-to-right sum as columnProduct). Eight per pass measured no faster
- * (n = 270, node 20).
+ * columnProduct of f with several columns (transposeColumns with v = x_f: four per pass over x_f,
+ * each entry the same left-to-right sum as columnProduct, then divided by n).
  */
 function columnProducts(problem: Problem): GramEntries {
   const { n, x } = problem;
   return (f, others, count, out) => {
-    const a = f * n;
-    let t = 0;
-    for (; t + 4 <= count; t += 4) {
-      const b0 = others[t] * n;
-      const b1 = others[t + 1] * n;
-      const b2 = others[t + 2] * n;
-      const b3 = others[t + 3] * n;
-      let s0 = 0;
-      let s1 = 0;
-      let s2 = 0;
-      let s3 = 0;
-      for (let i = 0; i < n; i++) {
-        const v = x[a + i];
-        s0 += v * x[b0 + i];
-        s1 += v * x[b1 + i];
-        s2 += v * x[b2 + i];
-        s3 += v * x[b3 + i];
-      }
-      out[t] = s0 / n;
-      out[t + 1] = s1 / n;
-      out[t + 2] = s2 / n;
-      out[t + 3] = s3 / n;
-    }
-    const left = count - t;
-    if (left === 3) {
-      const b0 = others[t] * n;
-      const b1 = others[t + 1] * n;
-      const b2 = others[t + 2] * n;
-      let s0 = 0;
-      let s1 = 0;
-      let s2 = 0;
-      for (let i = 0; i < n; i++) {
-        const v = x[a + i];
-        s0 += v * x[b0 + i];
-        s1 += v * x[b1 + i];
-        s2 += v * x[b2 + i];
-      }
-      out[t] = s0 / n;
-      out[t + 1] = s1 / n;
-      out[t + 2] = s2 / n;
-    } else if (left === 2) {
-      const b0 = others[t] * n;
-      const b1 = others[t + 1] * n;
-      let s0 = 0;
-      let s1 = 0;
-      for (let i = 0; i < n; i++) {
-        const v = x[a + i];
-        s0 += v * x[b0 + i];
-        s1 += v * x[b1 + i];
-      }
-      out[t] = s0 / n;
-      out[t + 1] = s1 / n;
-    } else if (left === 1) {
-      const b0 = others[t] * n;
-      let s0 = 0;
-      for (let i = 0; i < n; i++) s0 += x[a + i] * x[b0 + i];
-      out[t] = s0 / n;
-    }
+    transposeColumns(x, n, others, count, x.subarray(f * n, (f + 1) * n), out, null);
+    for (let t = 0; t < count; t++) out[t] = out[t] / n;
   };
 }
 
