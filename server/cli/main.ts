@@ -3,12 +3,13 @@
  * cross-validation by default, and prints one JSON object on stdout. Errors: one message on stderr
  * naming the option, file, row or column, a non-zero exit, nothing on stdout.
  */
-import { readFileSync, statSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { crossValidatePrepared, foldAssignment } from '../engine/cv';
 import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
 import { attachFolds, DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type PathResult } from '../engine/index';
 import { parseFitOptions, UsageError } from './args';
+import { earlyWorkerMayPay } from './early-worker';
 import { HELP } from './help';
 import { fitOutput, toJson } from './output';
 import { buildFitSpec } from './spec';
@@ -18,12 +19,9 @@ function engineVersion(): string {
   return pkg.version;
 }
 
-/** A file this small reads and cross-validates too quickly for a worker thread to pay (THREAD_WORK_THRESHOLD decides after reading). */
-const EARLY_WORKER_BYTES = 1 << 20;
-
 /**
- * --workers auto: a worker thread is started before the data are read (when the file is large
- * enough to be worth it), so its start-up overlaps the reading; after the design is built, it is
+ * --workers auto: a worker thread is started before the data are read (when the file's shape,
+ * seen in its first megabyte, promises enough work: earlyWorkerMayPay), so its start-up overlaps the reading; after the design is built, it is
  * used when the work is large enough (threadsPay) and other processes left a core free meanwhile
  * (coreToSpare).
  * With it, the fold blocks' cross products are split between it and this thread
@@ -37,7 +35,7 @@ export async function runFit(argv: string[]): Promise<string> {
   const started = performance.now();
   let early: FoldWorker | null = null;
   const cpuAtStart = cpuSnapshot();
-  if (options.workers === 'auto' && (statSync(options.data, { throwIfNoEntry: false })?.size ?? 0) >= EARLY_WORKER_BYTES) early = startFoldWorker();
+  if (options.workers === 'auto' && earlyWorkerMayPay(options)) early = startFoldWorker();
   try {
     // The table is needed until the folds are planned; kept in this block only, so its columns can
     // be collected while the path and the folds run.

@@ -334,10 +334,15 @@ export async function crossValidateAdaptive(
  */
 export const THREAD_WORK_THRESHOLD = 1e9;
 
+/** The work estimate compared with THREAD_WORK_THRESHOLD: folds x lambdas x p x min(n, p). */
+export function foldWork(n: number, p: number, folds: number, lambdaCount: number): number {
+  return folds * lambdaCount * p * Math.min(n, p);
+}
+
 /** Whether a second thread pays for this cross-validation (see THREAD_WORK_THRESHOLD). */
 export function threadsPay(prepared: PreparedFit, folds: number, lambdaCount: number): boolean {
   const { n, p } = prepared.built.design;
-  return folds * lambdaCount * p * Math.min(n, p) >= THREAD_WORK_THRESHOLD;
+  return foldWork(n, p, folds, lambdaCount) >= THREAD_WORK_THRESHOLD;
 }
 
 /**
