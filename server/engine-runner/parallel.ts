@@ -20,7 +20,7 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, rowsByBlock, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
 import { combineFolds, foldsUseGram, imputedPredictors, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
 import type { BlockRequest, WorkerReply, WorkerRequest } from './protocol';
 
@@ -67,6 +67,7 @@ function sharePlan(plan: CvPlan): void {
   const s: FoldShared = plan.shared;
   if (s.crossProducts) s.crossProducts = sharedSums(s.crossProducts);
   if (s.blocks) s.blocks = s.blocks.map(sharedSums);
+  if (s.byFold) s.byFold = { x: shared(s.byFold.x), y: s.byFold.y && shared(s.byFold.y), start: s.byFold.start };
 }
 
 type Outcome = { fold: number; result: FoldLosses } | { fold: number; error: Error };
@@ -199,14 +200,16 @@ export async function attachFoldsBeside(
   built.design.x = shared(built.design.x);
   const mineWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 0);
   const theirWhich = Array.from({ length: folds }, (_, k) => k).filter((k) => k % 2 === 1);
-  const theirs = pending(worker.blockSums({ design: built.design, y: built.y, foldIds, folds, which: theirWhich }));
-  const mine = someBlockSums(built.design, foldIds, folds, built.y, mineWhich);
+  // The rows regrouped by fold (RowsByBlock) in shared memory: each thread writes its blocks' rows.
+  const byFold = rowsByBlock(built.design, foldIds, folds, true, true);
+  const theirs = pending(worker.blockSums({ design: built.design, y: built.y, foldIds, folds, which: theirWhich, byFold }));
+  const mine = someBlockSums(built.design, foldIds, folds, built.y, mineWhich, byFold);
   const other = await theirs;
   const blocks: CrossProducts[] = new Array<CrossProducts>(folds);
   const ranges: ColumnRange[] = new Array<ColumnRange>(folds);
   mineWhich.forEach((k, t) => ((blocks[k] = mine.blocks[t]), (ranges[k] = mine.ranges[t])));
   theirWhich.forEach((k, t) => ((blocks[k] = other.blocks[t]), (ranges[k] = other.ranges[t])));
-  attachFolds(table, spec, prepared, { foldIds, folds, blocks: joinBlocks(built.design, built.y, blocks, ranges) });
+  attachFolds(table, spec, prepared, { foldIds, folds, blocks: { ...joinBlocks(built.design, built.y, blocks, ranges), byFold } });
 }
 
 /** Starts a fold worker now (e.g. before reading the data, so its start-up overlaps the reading). */

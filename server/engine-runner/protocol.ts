@@ -1,5 +1,5 @@
 /** Messages between the runner (parallel.ts) and its worker threads (worker.ts). */
-import type { ColumnRange, CrossProducts, DesignMatrix, PathOptions } from '../engine/index';
+import type { ColumnRange, CrossProducts, DesignMatrix, PathOptions, RowsByBlock } from '../engine/index';
 import type { FoldLosses, FoldShared } from '../engine/cv';
 
 /**
@@ -30,6 +30,8 @@ export interface BlockRequest {
   foldIds: Int32Array;
   folds: number;
   which: number[];
+  /** Where the worker copies its blocks' rows (shared memory; someBlockSums). */
+  byFold?: RowsByBlock;
 }
 
 export type WorkerRequest = ({ type: 'plan' } & WorkerPlan) | BlockRequest;

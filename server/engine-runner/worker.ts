@@ -13,7 +13,7 @@ parentPort?.postMessage({ type: 'ready' } satisfies WorkerReply);
 parentPort?.on('message', (request: WorkerRequest) => {
   if (request.type === 'blocks') {
     try {
-      const { blocks, ranges } = someBlockSums(request.design, request.foldIds, request.folds, request.y, request.which);
+      const { blocks, ranges } = someBlockSums(request.design, request.foldIds, request.folds, request.y, request.which, request.byFold);
       parentPort?.postMessage({ type: 'blocks', blocks, ranges } satisfies WorkerReply);
     } catch (error) {
       const e = error as Error & { field?: string };

@@ -8,7 +8,7 @@ export { validateSpec } from './design/validate';
 export { attachFolds, encodeForFit, fitPath, fitPathOnCrossProducts, fitPathOnDesign, fitPathOnOwnDesign, fitPathPrepared, plannedGrid, prepareFit } from './path/fitPath';
 export type { PreparedFit } from './path/fitPath';
 export { FULL_GRAM_COLUMNS, usesGram } from './path/setup';
-export { crossProducts, joinBlocks, someBlockSums, subtractCrossProducts } from './core/crossProducts';
+export { crossProducts, joinBlocks, rowsByBlock, someBlockSums, subtractCrossProducts, type RowsByBlock } from './core/crossProducts';
 export type { BlockCrossProducts, ColumnRange } from './core/crossProducts';
 export { constantColumns } from './core/standardize';
 export { computeLambdaMax, lambdaGrid } from './path/grid';

@@ -179,8 +179,12 @@ function startSums(rows: Int32Array | null, count: number, p: number, q: number,
   return { rows, count, acc: new Float64Array(q * q), colSums: new Float64Array(p), ySum: 0, ySquares: 0, range };
 }
 
-/** Adds rows start .. start + m - 1 of `into`'s rows: their centred copy into `buffer`, then the kernel. */
-function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array): void {
+/**
+ * Adds rows start .. start + m - 1 of `into`'s rows: their centred copy into `buffer`, then the
+ * kernel. With `copy`, the rows' raw values also go to copy.x (and y to copy.y) from row `at` on:
+ * the block's rows regrouped (RowsByBlock), made in the same pass over the design.
+ */
+function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array, copy: RowsByBlock | null = null, at = 0): void {
   const { n, p, x } = design;
   const { rows, colSums, range } = into;
   for (let j = 0; j < p; j++) {
@@ -191,13 +195,27 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
     if (range) {
       let lo = range.min[j];
       let hi = range.max[j];
-      for (let t = 0; t < m; t++) {
-        const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
-        if (raw < lo) lo = raw;
-        if (raw > hi) hi = raw;
-        const v = raw - c;
-        buffer[to + t] = v;
-        sum += v;
+      if (copy) {
+        const out = copy.x;
+        const copyAt = from + at;
+        for (let t = 0; t < m; t++) {
+          const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
+          out[copyAt + t] = raw;
+          if (raw < lo) lo = raw;
+          if (raw > hi) hi = raw;
+          const v = raw - c;
+          buffer[to + t] = v;
+          sum += v;
+        }
+      } else {
+        for (let t = 0; t < m; t++) {
+          const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
+          if (raw < lo) lo = raw;
+          if (raw > hi) hi = raw;
+          const v = raw - c;
+          buffer[to + t] = v;
+          sum += v;
+        }
       }
       range.min[j] = lo;
       range.max[j] = hi;
@@ -220,8 +238,11 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
     const to = p * m;
     let ySum = into.ySum;
     let ySquares = into.ySquares;
+    const yCopy = copy?.y;
     for (let t = 0; t < m; t++) {
-      const v = y[rows ? rows[start + t] : start + t] - yCenter;
+      const raw = y[rows ? rows[start + t] : start + t];
+      if (yCopy) yCopy[at + t] = raw;
+      const v = raw - yCenter;
       buffer[to + t] = v;
       ySum += v;
       ySquares += v * v;
@@ -308,15 +329,43 @@ export interface BlockCrossProducts {
  * S(all)'s diagonal, column sums and response sums are those of crossProducts on all rows (see
  * overrideMoments), so the full path's grid does not depend on whether folds were planned.
  */
-export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, blockCount: number, y?: Float64Array): BlockCrossProducts {
+export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, blockCount: number, y?: Float64Array, byBlock?: RowsByBlock): BlockCrossProducts {
   const every = Array.from({ length: blockCount }, (_, k) => k);
-  const { blocks, ranges } = someBlockSums(design, blockOf, blockCount, y, every);
+  const { blocks, ranges } = someBlockSums(design, blockOf, blockCount, y, every, byBlock);
   return joinBlocks(design, y, blocks, ranges);
+}
+
+/**
+ * A design's rows regrouped by block, in the same pass that sums the blocks (someBlockSums): block
+ * k's rows, in ascending order, are rows start[k] .. start[k + 1] - 1 of every column of x
+ * (column-major, n rows) and of y. Cross-validation scores a fold's held-out rows there, a
+ * contiguous stretch of each column, instead of gathering them from the design: with the folds
+ * spread over the rows, each fold's gather read every cache line of the design (tall 20000 x 200:
+ * 32 MB per fold), which also made two threads scoring at once wait on memory.
+ */
+export interface RowsByBlock {
+  x: Float64Array;
+  y?: Float64Array;
+  start: Int32Array;
+}
+
+/**
+ * Room for RowsByBlock of a design (filled by someBlockSums), in shared memory when threads will
+ * fill and read it (each thread writes its own blocks' rows).
+ */
+export function rowsByBlock(design: DesignMatrix, blockOf: Int32Array, blockCount: number, withY: boolean, sharedMemory: boolean): RowsByBlock {
+  const { n, p } = design;
+  const start = new Int32Array(blockCount + 1);
+  for (let i = 0; i < blockOf.length; i++) start[blockOf[i] + 1]++;
+  for (let k = 0; k < blockCount; k++) start[k + 1] += start[k];
+  const doubles = (count: number) => (sharedMemory ? new Float64Array(new SharedArrayBuffer(count * 8)) : new Float64Array(count));
+  return { x: doubles(n * p), y: withY ? doubles(n) : undefined, start };
 }
 
 /**
  * The cross products and column ranges of the blocks listed in `which` (in that order), exactly as
  * blockCrossProducts computes them: threads can each take some blocks, and joinBlocks finishes.
+ * With `byBlock` (rowsByBlock), the listed blocks' rows are also copied there.
  */
 export function someBlockSums(
   design: DesignMatrix,
@@ -324,6 +373,7 @@ export function someBlockSums(
   blockCount: number,
   y: Float64Array | undefined,
   which: number[],
+  byBlock?: RowsByBlock,
 ): { blocks: CrossProducts[]; ranges: ColumnRange[] } {
   const { n, p } = design;
   if (blockOf.length !== n) throw new EngineInputError(`cross products: ${blockOf.length} block ids for ${n} rows`, 'crossProducts');
@@ -340,10 +390,15 @@ export function someBlockSums(
   // Round r takes chunk r of every block: with folds spread over the rows, those chunks come from the
   // same stretch of rows, which stays in cache from one block to the next. Each block still adds its
   // chunks in order, so the sums are those of sumRows on the block alone.
+  if (byBlock && (byBlock.x.length !== n * p || byBlock.start.length !== blockCount + 1)) {
+    throw new EngineInputError(`cross products: rows by block sized for ${byBlock.x.length} values, ${byBlock.start.length - 1} blocks`, 'crossProducts');
+  }
   for (let start = 0; start < largest; start += chunk) {
-    for (const block of running) {
-      if (start < block.count) addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer);
-    }
+    running.forEach((block, t) => {
+      if (start >= block.count) return;
+      const at = byBlock ? byBlock.start[which[t]] + start : 0;
+      addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer, byBlock ?? null, at);
+    });
   }
   return { blocks: running.map((block) => finishSums(block, p, center, y, yCenter)), ranges: running.map((block) => block.range as ColumnRange) };
 }

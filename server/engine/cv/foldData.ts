@@ -5,7 +5,7 @@
  * its training rows only. Imports the modules it needs directly (not ../index): path/fitPath.ts plans
  * the folds before the full path, so the full path's S(all) is the same sum of blocks.
  */
-import { blockCrossProducts, constantOutside, subtractCrossProducts, type BlockCrossProducts, type ColumnRange } from '../core/crossProducts';
+import { blockCrossProducts, constantOutside, rowsByBlock, subtractCrossProducts, type BlockCrossProducts, type ColumnRange, type RowsByBlock } from '../core/crossProducts';
 import { constantColumns } from '../core/standardize';
 import type { BuiltDesign } from '../design/build';
 import { FULL_GRAM_COLUMNS, usesGram } from '../path/setup';
@@ -30,6 +30,11 @@ export interface FoldShared {
   blocks?: CrossProducts[];
   /** ranges[k]: the columns' minimum and maximum over fold k's rows (constant columns of a training set). */
   ranges?: ColumnRange[];
+  /**
+   * The design's rows and responses regrouped by fold (made with the blocks' sums): a fold's
+   * held-out rows are scored there without copying them out (absent with `blocks`' absence).
+   */
+  byFold?: RowsByBlock;
 }
 
 /** The folds of a cross-validation on a built design: fold ids and what the folds share. */
@@ -68,7 +73,7 @@ export function planFolds(
   spec: FitSpec & { cv: CvSpec },
   built: BuiltDesign,
   options: PathOptions,
-  given?: { foldIds: Int32Array; folds: number; blocks?: BlockCrossProducts },
+  given?: { foldIds: Int32Array; folds: number; blocks?: BlockCrossProducts & { byFold?: RowsByBlock } },
 ): FoldPlan {
   const { foldIds, folds } = given ?? foldAssignment(table, spec, spec.cv, built);
   return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds, given?.blocks) };
@@ -94,12 +99,14 @@ export function foldShared(
   options: PathOptions,
   foldIds: Int32Array,
   folds: number,
-  given?: BlockCrossProducts,
+  given?: BlockCrossProducts & { byFold?: RowsByBlock },
 ): FoldShared {
   const imputed = imputedPredictors(table, built);
   if (!foldsUseGram(imputed, built, options, foldIds, folds)) return { imputed };
-  const { blocks, all, ranges } = given ?? blockCrossProducts(built.design, foldIds, folds, built.y);
-  return { imputed, crossProducts: all, blocks, ranges };
+  if (given) return { imputed, crossProducts: given.all, blocks: given.blocks, ranges: given.ranges, byFold: given.byFold };
+  const byFold = rowsByBlock(built.design, foldIds, folds, true, false);
+  const { blocks, all, ranges } = blockCrossProducts(built.design, foldIds, folds, built.y, byFold);
+  return { imputed, crossProducts: all, blocks, ranges, byFold };
 }
 
 /** The fold's cross products: S(all) - S(its block of held-out rows). */

@@ -28,6 +28,36 @@ describe('gaussian folds through the cross products of all rows', () => {
   };
   const path = fitPath(table, spec);
 
+  it('regroups the rows by fold in the same pass: each fold\'s rows in ascending order, every column', () => {
+    const plan = planCrossValidation(table, spec, path);
+    const byFold = plan.shared.byFold;
+    expect(byFold, 'the plan should carry the rows regrouped by fold in the Gram form').toBeDefined();
+    if (!byFold?.y) return;
+    const { n, p, x } = plan.built.design;
+    let at = 0;
+    for (let k = 0; k < plan.folds; k++) {
+      expect(byFold.start[k], `fold ${k + 1} starts after the folds before it`).toBe(at);
+      for (let i = 0; i < n; i++) {
+        if (plan.foldIds[i] !== k) continue;
+        for (let j = 0; j < p; j++) expect(byFold.x[j * n + at], `row ${i + 1}, column ${j + 1}`).toBe(x[j * n + i]);
+        expect(byFold.y[at], `response of row ${i + 1}`).toBe(plan.built.y[i]);
+        at++;
+      }
+    }
+    expect(byFold.start[plan.folds]).toBe(n);
+  });
+
+  it('scores the held-out rows where they were regrouped: the same losses, bit for bit, as a copy of them', () => {
+    const plan = planCrossValidation(table, spec, path);
+    const { byFold, ...withoutRows } = plan.shared;
+    expect(byFold).toBeDefined();
+    for (let k = 0; k < plan.folds; k++) {
+      const regrouped = runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared);
+      const copied = runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, withoutRows);
+      expect(regrouped.losses, `fold ${k + 1}`).toEqual(copied.losses);
+    }
+  });
+
   it('crossValidate uses them and its curve equals the folds fitted from their own rows', () => {
     const plan = planCrossValidation(table, spec, path);
     expect(plan.shared.crossProducts, 'the plan should carry S(all) in the Gram form').toBeDefined();
