@@ -165,6 +165,8 @@ export interface ColumnRange {
 /** Running sums of one set of rows (sumRows, blockCrossProducts). */
 interface RowSums {
   rows: Int32Array | null;
+  /** With rows null: the first of `count` contiguous rows. */
+  first: number;
   count: number;
   /** q x q, q = p (+ 1 with the response as its last column): upper part, see accumulateSymmetric. */
   acc: Float64Array;
@@ -174,19 +176,19 @@ interface RowSums {
   range?: ColumnRange;
 }
 
-function startSums(rows: Int32Array | null, count: number, p: number, q: number, withRange: boolean): RowSums {
+function startSums(rows: Int32Array | null, first: number, count: number, p: number, q: number, withRange: boolean): RowSums {
   const range = withRange ? { min: new Float64Array(p).fill(Infinity), max: new Float64Array(p).fill(-Infinity) } : undefined;
-  return { rows, count, acc: new Float64Array(q * q), colSums: new Float64Array(p), ySum: 0, ySquares: 0, range };
+  return { rows, first, count, acc: new Float64Array(q * q), colSums: new Float64Array(p), ySum: 0, ySquares: 0, range };
 }
 
 /**
- * Adds rows start .. start + m - 1 of `into`'s rows: their centred copy into `buffer`, then the
- * kernel. With `copy`, the rows' raw values also go to copy.x (and y to copy.y) from row `at` on:
- * the block's rows regrouped (RowsByBlock), made in the same pass over the design.
+ * Adds rows start .. start + m - 1 of `into`'s rows (with `into.rows` null: rows into.first + start
+ * on, contiguous): their centred copy into `buffer`, then the kernel.
  */
-function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array, copy: RowsByBlock | null = null, at = 0): void {
+function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array): void {
   const { n, p, x } = design;
   const { rows, colSums, range } = into;
+  const first = into.first + start;
   for (let j = 0; j < p; j++) {
     const from = j * n;
     const to = j * m;
@@ -195,31 +197,17 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
     if (range) {
       let lo = range.min[j];
       let hi = range.max[j];
-      if (copy) {
-        const out = copy.x;
-        const copyAt = from + at;
-        for (let t = 0; t < m; t++) {
-          const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
-          out[copyAt + t] = raw;
-          if (raw < lo) lo = raw;
-          if (raw > hi) hi = raw;
-          const v = raw - c;
-          buffer[to + t] = v;
-          sum += v;
-        }
-      } else {
-        for (let t = 0; t < m; t++) {
-          const raw = rows ? x[from + rows[start + t]] : x[from + start + t];
-          if (raw < lo) lo = raw;
-          if (raw > hi) hi = raw;
-          const v = raw - c;
-          buffer[to + t] = v;
-          sum += v;
-        }
+      for (let t = 0; t < m; t++) {
+        const raw = rows ? x[from + rows[start + t]] : x[from + first + t];
+        if (raw < lo) lo = raw;
+        if (raw > hi) hi = raw;
+        const v = raw - c;
+        buffer[to + t] = v;
+        sum += v;
       }
       range.min[j] = lo;
       range.max[j] = hi;
-    } else if (rows) {
+  } else if (rows) {
       for (let t = 0; t < m; t++) {
         const v = x[from + rows[start + t]] - c;
         buffer[to + t] = v;
@@ -227,7 +215,7 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
       }
     } else {
       for (let t = 0; t < m; t++) {
-        const v = x[from + start + t] - c;
+        const v = x[from + first + t] - c;
         buffer[to + t] = v;
         sum += v;
       }
@@ -238,11 +226,8 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
     const to = p * m;
     let ySum = into.ySum;
     let ySquares = into.ySquares;
-    const yCopy = copy?.y;
     for (let t = 0; t < m; t++) {
-      const raw = y[rows ? rows[start + t] : start + t];
-      if (yCopy) yCopy[at + t] = raw;
-      const v = raw - yCenter;
+      const v = y[rows ? rows[start + t] : first + t] - yCenter;
       buffer[to + t] = v;
       ySum += v;
       ySquares += v * v;
@@ -277,7 +262,7 @@ function sumRows(design: DesignMatrix, rows: Int32Array | null, center: Float64A
   const count = rows ? rows.length : n;
   const q = y ? p + 1 : p;
   const chunk = Math.max(1, Math.floor(buffer.length / q));
-  const into = startSums(rows, count, p, q, false);
+  const into = startSums(rows, 0, count, p, q, false);
   for (let start = 0; start < count; start += chunk) addChunk(design, into, start, Math.min(chunk, count - start), center, y, yCenter, buffer);
   return finishSums(into, p, center, y, yCenter);
 }
@@ -336,12 +321,12 @@ export function blockCrossProducts(design: DesignMatrix, blockOf: Int32Array, bl
 }
 
 /**
- * A design's rows regrouped by block, in the same pass that sums the blocks (someBlockSums): block
- * k's rows, in ascending order, are rows start[k] .. start[k + 1] - 1 of every column of x
- * (column-major, n rows) and of y. Cross-validation scores a fold's held-out rows there, a
- * contiguous stretch of each column, instead of gathering them from the design: with the folds
- * spread over the rows, each fold's gather read every cache line of the design (tall 20000 x 200:
- * 32 MB per fold), which also made two threads scoring at once wait on memory.
+ * A design's rows regrouped by block (someBlockSums fills it, then sums the blocks there): block k's
+ * rows, in ascending order, are rows start[k] .. start[k + 1] - 1 of every column of x (column-major,
+ * n rows) and of y. Each block is then a contiguous stretch of every column: its sums read it in
+ * order, and cross-validation scores a fold's held-out rows there. Gathering a block's rows from the
+ * design instead reads every cache line of it when the folds are spread over the rows (tall
+ * 20000 x 200: 32 MB per fold), which also made two threads doing so at once wait on memory.
  */
 export interface RowsByBlock {
   x: Float64Array;
@@ -363,9 +348,38 @@ export function rowsByBlock(design: DesignMatrix, blockOf: Int32Array, blockCoun
 }
 
 /**
+ * Copies the rows of the blocks listed in `which` to their places in `byBlock`: one ordered read of
+ * each column, each block's rows written in order (no test per row: the pairs are listed first).
+ */
+function regroup(design: DesignMatrix, blockOf: Int32Array, y: Float64Array | undefined, which: number[], byBlock: RowsByBlock): void {
+  const { n, p, x } = design;
+  const listed = new Uint8Array(byBlock.start.length - 1);
+  for (const k of which) listed[k] = 1;
+  const next = byBlock.start.slice(0, listed.length);
+  const from = new Int32Array(n);
+  const to = new Int32Array(n);
+  let count = 0;
+  for (let i = 0; i < n; i++) {
+    const k = blockOf[i];
+    const at = next[k]++;
+    if (!listed[k]) continue;
+    from[count] = i;
+    to[count++] = at;
+  }
+  const out = byBlock.x;
+  for (let j = 0; j < p; j++) {
+    const off = j * n;
+    for (let t = 0; t < count; t++) out[off + to[t]] = x[off + from[t]];
+  }
+  const yOut = byBlock.y;
+  if (y && yOut) for (let t = 0; t < count; t++) yOut[to[t]] = y[from[t]];
+}
+
+/**
  * The cross products and column ranges of the blocks listed in `which` (in that order), exactly as
  * blockCrossProducts computes them: threads can each take some blocks, and joinBlocks finishes.
- * With `byBlock` (rowsByBlock), the listed blocks' rows are also copied there.
+ * With `byBlock` (rowsByBlock), the listed blocks' rows are first copied there and summed from
+ * there (the same values in the same order, so the same sums).
  */
 export function someBlockSums(
   design: DesignMatrix,
@@ -386,19 +400,27 @@ export function someBlockSums(
   const q = y ? p + 1 : p;
   const buffer = chunkBuffer(largest, q);
   const chunk = Math.max(1, Math.floor(buffer.length / q));
-  const running = which.map((k) => startSums(Int32Array.from(members[k]), members[k].length, p, q, true));
+  if (byBlock) {
+    if (byBlock.x.length !== n * p || byBlock.start.length !== blockCount + 1 || (y && byBlock.y?.length !== n)) {
+      throw new EngineInputError(`cross products: rows by block sized for ${byBlock.x.length} values, ${byBlock.start.length - 1} blocks`, 'crossProducts');
+    }
+    regroup(design, blockOf, y, which, byBlock);
+    const grouped: DesignMatrix = { n, p, x: byBlock.x, terms: design.terms };
+    const groupedY = y ? byBlock.y : undefined;
+    const running = which.map((k) => startSums(null, byBlock.start[k], members[k].length, p, q, true));
+    for (const block of running) {
+      for (let start = 0; start < block.count; start += chunk) addChunk(grouped, block, start, Math.min(chunk, block.count - start), center, groupedY, yCenter, buffer);
+    }
+    return { blocks: running.map((block) => finishSums(block, p, center, y, yCenter)), ranges: running.map((block) => block.range as ColumnRange) };
+  }
+  const running = which.map((k) => startSums(Int32Array.from(members[k]), 0, members[k].length, p, q, true));
   // Round r takes chunk r of every block: with folds spread over the rows, those chunks come from the
   // same stretch of rows, which stays in cache from one block to the next. Each block still adds its
   // chunks in order, so the sums are those of sumRows on the block alone.
-  if (byBlock && (byBlock.x.length !== n * p || byBlock.start.length !== blockCount + 1)) {
-    throw new EngineInputError(`cross products: rows by block sized for ${byBlock.x.length} values, ${byBlock.start.length - 1} blocks`, 'crossProducts');
-  }
   for (let start = 0; start < largest; start += chunk) {
-    running.forEach((block, t) => {
-      if (start >= block.count) return;
-      const at = byBlock ? byBlock.start[which[t]] + start : 0;
-      addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer, byBlock ?? null, at);
-    });
+    for (const block of running) {
+      if (start < block.count) addChunk(design, block, start, Math.min(chunk, block.count - start), center, y, yCenter, buffer);
+    }
   }
   return { blocks: running.map((block) => finishSums(block, p, center, y, yCenter)), ranges: running.map((block) => block.range as ColumnRange) };
 }
