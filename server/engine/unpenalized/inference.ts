@@ -1,5 +1,7 @@
-import normal from '@stdlib/stats-base-dists-normal';
-import studentT from '@stdlib/stats-base-dists-t';
+// The two distribution functions alone, not their packages' namespaces (every density, quantile and
+// moment: about half the CLI bundle, parsed at every start).
+import normalCdf from '@stdlib/stats-base-dists-normal-cdf';
+import studentTCdf from '@stdlib/stats-base-dists-t-cdf';
 import type { CoefficientRow } from './types';
 
 /**
@@ -15,6 +17,6 @@ export function waldRow(term: string, estimate: number, variance: number | null,
   // A perfect fit (zero residual variance) has no finite statistic; report the SE alone.
   if (standardError === 0) return { term, estimate, standardError, statistic: null, pValue: null };
   const statistic = estimate / standardError;
-  const tail = df === null ? normal.cdf(-Math.abs(statistic), 0, 1) : studentT.cdf(-Math.abs(statistic), df);
+  const tail = df === null ? normalCdf(-Math.abs(statistic), 0, 1) : studentTCdf(-Math.abs(statistic), df);
   return { term, estimate, standardError, statistic, pValue: Math.min(1, 2 * tail) };
 }
