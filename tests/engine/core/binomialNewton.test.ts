@@ -3,6 +3,8 @@
  * and its residual reuse (loss/binomial.ts), each against plain formulas computed here:
  * - logisticRows: log(1 + exp(eta)) - y eta, mu - y and mu (1 - mu) from one exp per row, finite at
  *   |eta| = 1000, against the textbook forms where those are exact;
+ * - weightedGram: [X_A 1]' W [X_A 1] / n entry by entry, for every count of columns a register block
+ *   can leave over, to the bit (each entry is one left-to-right sum over the rows);
  * - the polish's next round at the same lambda borders the last Hessian (fewer Hessians, same answer);
  * - the path tangent's second-order prediction is closer to the next solution than the first-order one;
  * - newtonOnSupport: the gradient of the smooth support objective vanishes at its answer (to what its
@@ -15,7 +17,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { FREE } from '../../../server/engine/core/loss';
-import { logisticRows } from '../../../server/engine/core/logisticRows';
+import { logisticRows, weightedGram } from '../../../server/engine/core/logisticRows';
 import { predict } from '../../../server/engine/core/pathTangent';
 import { NewtonScratch, newtonOnSupport } from '../../../server/engine/core/polishNewton';
 import { makeWorkingSet, type Problem } from '../../../server/engine/core/problem';
@@ -295,5 +297,39 @@ describe('binomial loss: residual reuse and the KKT gradient', () => {
       return [bound.value(img, out), ...grad];
     };
     expect(answer(solved.problem, ws)).toEqual(answer(fresh.problem, wsOf(fresh.problem)));
+  });
+});
+
+describe('weightedGram', () => {
+  it('equals [X_A 1]\' W [X_A 1] / n written out, to the bit, for 1 to 8 columns in any order', () => {
+    const rows = 37;
+    const cols = 9;
+    const gen = createRng(5);
+    const data = Float64Array.from({ length: rows * cols }, () => gen.normal());
+    const w = Float64Array.from({ length: rows }, () => 0.25 * gen.next());
+    for (let count = 1; count <= 8; count++) {
+      // Columns out of order and not from 0, as a support's are.
+      const columns = Array.from({ length: count }, (_, q) => (7 * q + 3) % cols);
+      const offsets = Int32Array.from(columns, (c) => c * rows);
+      const m = count + 1;
+      const hess = new Float64Array(m * m).fill(NaN);
+      weightedGram(data, rows, offsets, w, new Float64Array(count * rows), hess);
+      const entry = (q: number, r: number): number => {
+        let s = 0;
+        for (let i = 0; i < rows; i++) {
+          const wq = q === count ? w[i] : w[i] * data[offsets[q] + i];
+          s += r === count ? wq : wq * data[offsets[r] + i];
+        }
+        return s / rows;
+      };
+      for (let q = 0; q < m; q++) {
+        for (let r = 0; r <= q; r++) {
+          // The intercept's row is sum w x_r (the weighted column's own sum) and sum w.
+          const expected = q === count ? entry(r, count) : entry(q, r);
+          expect(hess[q * m + r], `${count} columns: entry (${q}, ${r})`).toBe(expected);
+          expect(hess[r * m + q], `${count} columns: entry (${r}, ${q})`).toBe(expected);
+        }
+      }
+    }
   });
 });
