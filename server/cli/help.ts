@@ -66,16 +66,20 @@ Cross-validation
   --seed S                 seed of the random folds (class-balanced for binomial), default ${DEFAULTS.seed}, so
                            that a rerun gives the same folds
   --workers auto|on|off    on: folds in 2 worker threads; off: all in this thread; auto (default):
-                           this thread and one worker share the folds (the worker starts on them
-                           while the full path is fitted) when the work is large enough to pay
-                           (folds x lambdas x p x min(n, p) >= 1e9) and other processes left at
-                           least 1.5 cores free while the data were read; else all in this thread
+                           when other processes left at least 1.5 cores free while the data were
+                           read, this thread and one worker share the folds (the worker starts on
+                           them while the full path is fitted) when the work is large enough to
+                           pay (folds x lambdas x p x min(n, p) >= 1e9); on a tall table
+                           (n x p x lambdas >= 1e8) the worker sums half the folds' cross products
+                           and scores each fold's held-out rows while this thread fits the next
+                           fold; else all in this thread. The same results either way.
 
 Output keys: lambda, intercept, coefficients {term: [per lambda]} (original scale), dualityGap
 (relative, per lambda), iterations, status, cv (null or {folds, metric, mean, standardError,
 minimum {index, lambda}, oneStandardError {index, lambda}, curves}), and also: family, lambdaMax,
 standardizedIntercept, standardizedCoefficients, nonzero, devianceExplained (1 - deviance / null
 deviance), notes, cautions (how to read the result), warnings (fits that did not converge),
-engineVersion, timing (seconds spent reading, fitting, cross-validating).
+engineVersion, timing (seconds spent reading, fitting, cross-validating; cvWorkers: 2 when a worker
+shared the folds, 1 when it scored them, 0 when this thread did all).
 Errors: a message on stderr and exit status 2 (bad input) or 1 (internal error).
 `;

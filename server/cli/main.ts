@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { crossValidatePrepared, foldAssignment } from '../engine/cv';
-import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, fitPathAndFolds, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
+import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateInWorkersPrepared, crossValidateScoringBeside, fitPathAndFolds, scoringBesidePays, startFoldWorker, threadsPay, type FoldWorker } from '../engine-runner';
 import { readCsvFile } from '../tabular/csv';
 import { attachFolds, DEFAULT_PATH_LENGTH, EngineInputError, fitPathPrepared, prepareFit, type CvResult, type PathResult } from '../engine/index';
 import { parseFitOptions, UsageError } from './args';
@@ -27,7 +27,9 @@ function engineVersion(): string {
  * With it, the fold blocks' cross products are split between it and this thread
  * (attachFoldsBeside), then the folds run on it and on this thread (this thread first fits the full
  * path, and the worker starts on the folds at once when the grid is known beforehand:
- * fitPathAndFolds). Results are the single-thread ones whichever thread computes what.
+ * fitPathAndFolds). Below that work, on a tall table (scoringBesidePays), this thread fits every
+ * fold and the worker scores each one's held-out rows meanwhile (crossValidateScoringBeside).
+ * Results are the single-thread ones whichever thread computes what.
  * --workers on: every fold on 2 worker threads; off: everything in this thread.
  */
 export async function runFit(argv: string[]): Promise<string> {
@@ -39,7 +41,7 @@ export async function runFit(argv: string[]): Promise<string> {
   try {
     // The table is needed until the folds are planned; kept in this block only, so its columns can
     // be collected while the path and the folds run.
-    const { spec, prepared, read, threads } = await (async () => {
+    const { spec, prepared, read, threads, scoring } = await (async () => {
       const table = readCsvFile(options.data);
       const readAt = performance.now();
       const fitSpec = buildFitSpec(options, table);
@@ -48,10 +50,14 @@ export async function runFit(argv: string[]): Promise<string> {
       const cv = fitSpec.cv;
       const assignment = cv ? foldAssignment(table, fitSpec, cv, fitPrepared.built) : null;
       const lambdaCount = fitPrepared.options.lambda?.length ?? fitPrepared.options.pathLength ?? DEFAULT_PATH_LENGTH;
-      const useWorker = early !== null && assignment !== null && threadsPay(fitPrepared, assignment.folds, lambdaCount) && coreToSpare(cpuAtStart);
-      if (early && assignment && useWorker) await attachFoldsBeside(table, fitSpec, fitPrepared, early, assignment);
+      const spare = early !== null && assignment !== null && coreToSpare(cpuAtStart);
+      const useWorker = spare && assignment !== null && threadsPay(fitPrepared, assignment.folds, lambdaCount);
+      // Without fold threads, a tall table's folds can still be scored on the worker: the blocks are
+      // then summed on both threads too (attachFoldsBeside puts the regrouped rows in shared memory).
+      if (early && assignment && spare) await attachFoldsBeside(table, fitSpec, fitPrepared, early, assignment);
       else attachFolds(table, fitSpec, fitPrepared, assignment ?? undefined);
-      return { spec: fitSpec, prepared: fitPrepared, read: readAt, threads: useWorker };
+      const scoring = spare && !useWorker && scoringBesidePays(fitPrepared, lambdaCount);
+      return { spec: fitSpec, prepared: fitPrepared, read: readAt, threads: useWorker, scoring };
     })();
     let path: PathResult;
     let cv: CvResult | null = null;
@@ -60,6 +66,11 @@ export async function runFit(argv: string[]): Promise<string> {
     if (early && threads) {
       ({ path, cv, pathDone: fitted } = await fitPathAndFolds(spec, prepared, early));
       workers = 2;
+    } else if (early && scoring && spec.cv) {
+      path = fitPathPrepared(prepared);
+      fitted = performance.now();
+      cv = await crossValidateScoringBeside(spec, path, prepared, early);
+      workers = 1;
     } else {
       await early?.stop();
       early = null;

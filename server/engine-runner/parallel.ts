@@ -20,8 +20,8 @@ import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, rowsByBlock, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { combineFolds, foldsUseGram, imputedPredictors, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldLosses, type FoldShared } from '../engine/cv';
+import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, rowsByBlock, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type Family, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
+import { combineFolds, fitFoldOnDesign, foldsUseGram, heldOutRows, imputedPredictors, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldFit, type FoldLosses, type FoldShared, type HeldOutRows } from '../engine/cv';
 import type { BlockRequest, WorkerReply, WorkerRequest } from './protocol';
 
 /**
@@ -105,7 +105,7 @@ export class FoldWorker {
       if (this.failure) return reject(this.failure);
       const outcomes: Outcome[] = [];
       const onMessage = (reply: WorkerReply) => {
-        if (reply.type === 'ready' || reply.type === 'blocks' || reply.type === 'blocks-error') return;
+        if (reply.type === 'ready' || reply.type === 'blocks' || reply.type === 'blocks-error' || reply.type === 'scored' || reply.type === 'score-error') return;
         if (reply.type === 'result') outcomes.push({ fold: reply.fold, result: reply.result });
         else if (reply.type === 'error') outcomes.push({ fold: reply.fold, error: replyError(reply) });
         else {
@@ -169,6 +169,40 @@ export class FoldWorker {
       worker.on('message', onMessage);
       worker.on('error', onError);
       worker.postMessage({ type: 'blocks', ...request } satisfies WorkerRequest);
+    });
+  }
+
+  /** Scoring requests waiting for their reply, by fold (score). */
+  private readonly scoring = new Map<number, { resolve: (losses: FoldLosses) => void; reject: (error: Error) => void }>();
+  private scoringListens = false;
+
+  /**
+   * The held-out losses of a fold fitted on this thread, scored on the worker (held.x in shared
+   * memory). Many may be in flight: one set of listeners serves them all, and a worker that dies
+   * fails every one still waiting.
+   */
+  score(family: Family, fitted: FoldFit, held: HeldOutRows): Promise<FoldLosses> {
+    if (this.failure) return Promise.reject(this.failure);
+    if (!this.scoringListens) {
+      this.scoringListens = true;
+      const failAll = (error: Error) => {
+        for (const waiting of this.scoring.values()) waiting.reject(error);
+        this.scoring.clear();
+      };
+      this.worker.on('message', (reply: WorkerReply) => {
+        if (reply.type !== 'scored' && reply.type !== 'score-error') return;
+        const waiting = this.scoring.get(reply.fold);
+        if (!waiting) return;
+        this.scoring.delete(reply.fold);
+        if (reply.type === 'scored') waiting.resolve(reply.result);
+        else waiting.reject(replyError(reply));
+      });
+      this.worker.on('error', failAll);
+      this.worker.on('exit', (code) => failAll(new Error(`a cross-validation worker thread stopped (exit code ${code})`)));
+    }
+    return new Promise((resolve, reject) => {
+      this.scoring.set(fitted.fold, { resolve, reject });
+      this.worker.postMessage({ type: 'score', family, fitted, held } satisfies WorkerRequest);
     });
   }
 
@@ -401,6 +435,45 @@ export async function crossValidateInWorkersPrepared(spec: FitSpec, path: PathRe
   } finally {
     await Promise.all(workers.map((w) => w.stop()));
   }
+}
+
+/**
+ * Every fold fitted on this thread, one after another, and each fold's held-out rows scored on
+ * `worker` meanwhile (scoreFold on the rows regrouped by fold, in shared memory): the worker scores
+ * fold k while this thread fits fold k + 1. The results are crossValidatePrepared's (the same
+ * functions on the same numbers). Needs the plan's rows regrouped by fold in shared memory
+ * (attachFoldsBeside makes them so; scoringBesidePays says when it pays).
+ */
+export async function crossValidateScoringBeside(spec: FitSpec, path: PathResult, prepared: PreparedFit, worker: FoldWorker): Promise<CvResult> {
+  const plan = planFromPrepared(spec, path, prepared);
+  const byFold = plan.shared.byFold;
+  if (!byFold || !(byFold.x.buffer instanceof SharedArrayBuffer)) {
+    throw new Error('scoring beside needs the rows regrouped by fold in shared memory (attachFoldsBeside)');
+  }
+  const { design, y } = plan.built;
+  plan.scratch ??= {};
+  const scored: Promise<FoldLosses>[] = [];
+  for (let k = 0; k < plan.folds; k++) {
+    const fitted: FoldFit = fitFoldOnDesign(design, y, plan.options, plan.foldIds, k, plan.lambda, plan.shared, plan.scratch);
+    const held: HeldOutRows = heldOutRows(design, y, plan.foldIds, k, plan.shared);
+    scored.push(pending(worker.score(spec.family, fitted, held)));
+  }
+  return combineFolds(spec.family, plan.lambda, await Promise.all(scored), plan.foldIds);
+}
+
+/**
+ * From this much scoring work (held-out rows x columns x lambdas summed over the folds: n p L) the
+ * CLI's `--workers auto` scores the folds on a worker (crossValidateScoringBeside) while this thread
+ * fits them. Scoring is one small kernel, which a fresh worker compiles at once (unlike the solver:
+ * see THREAD_WORK_THRESHOLD). Tall 20000 x 200 with 100 lambdas: 4e8 (about 0.06-0.09 s of scoring
+ * on one thread, 2026-12-02).
+ */
+export const SCORING_WORK_THRESHOLD = 1e8;
+
+/** Whether scoring the folds on a worker pays (see SCORING_WORK_THRESHOLD): the Gram form's regrouped rows, and enough work. */
+export function scoringBesidePays(prepared: PreparedFit, lambdaCount: number): boolean {
+  const { n, p } = prepared.built.design;
+  return prepared.folds?.shared.byFold !== undefined && n * p * lambdaCount >= SCORING_WORK_THRESHOLD;
 }
 
 /**

@@ -1,6 +1,7 @@
 /** Messages between the runner (parallel.ts) and its worker threads (worker.ts). */
 import type { ColumnRange, CrossProducts, DesignMatrix, PathOptions, RowsByBlock } from '../engine/index';
-import type { FoldLosses, FoldShared } from '../engine/cv';
+import type { FoldFit, FoldLosses, FoldShared, HeldOutRows } from '../engine/cv';
+import type { Family } from '../engine/index';
 
 /**
  * What a worker receives once per cross-validation. The large arrays (design.x, the cross products'
@@ -34,7 +35,15 @@ export interface BlockRequest {
   byFold?: RowsByBlock;
 }
 
-export type WorkerRequest = ({ type: 'plan' } & WorkerPlan) | BlockRequest;
+/** Score a fold fitted on another thread on its held-out rows (held.x in shared memory). */
+export interface ScoreRequest {
+  type: 'score';
+  family: Family;
+  fitted: FoldFit;
+  held: HeldOutRows;
+}
+
+export type WorkerRequest = ({ type: 'plan' } & WorkerPlan) | BlockRequest | ScoreRequest;
 
 export type WorkerReply =
   | { type: 'result'; fold: number; result: FoldLosses }
@@ -44,4 +53,6 @@ export type WorkerReply =
   /** The worker has loaded and waits for a plan. */
   | { type: 'ready' }
   | { type: 'blocks'; blocks: CrossProducts[]; ranges: ColumnRange[] }
-  | { type: 'blocks-error'; error: { name: string; message: string; field?: string } };
+  | { type: 'blocks-error'; error: { name: string; message: string; field?: string } }
+  | { type: 'scored'; fold: number; result: FoldLosses }
+  | { type: 'score-error'; fold: number; error: { name: string; message: string; field?: string } };

@@ -1,9 +1,10 @@
 /**
  * Worker-thread side of the runner (parallel.ts): receives a plan, then claims folds from the shared
- * counter until none is left, posting each fold's losses (or its error), then 'done'.
+ * counter until none is left, posting each fold's losses (or its error), then 'done'. Also sums fold
+ * blocks ('blocks') and scores folds fitted on the main thread ('score').
  */
 import { parentPort } from 'node:worker_threads';
-import { runFoldOnDesign, type FoldScratch } from '../engine/cv';
+import { runFoldOnDesign, scoreFold, type FoldScratch } from '../engine/cv';
 import { someBlockSums } from '../engine/index';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
@@ -18,6 +19,16 @@ parentPort?.on('message', (request: WorkerRequest) => {
     } catch (error) {
       const e = error as Error & { field?: string };
       parentPort?.postMessage({ type: 'blocks-error', error: { name: e.name, message: e.message, field: e.field } } satisfies WorkerReply);
+    }
+    return;
+  }
+  if (request.type === 'score') {
+    const fold = request.fitted.fold;
+    try {
+      parentPort?.postMessage({ type: 'scored', fold, result: scoreFold(request.family, request.fitted, request.held) } satisfies WorkerReply);
+    } catch (error) {
+      const e = error as Error & { field?: string };
+      parentPort?.postMessage({ type: 'score-error', fold, error: { name: e.name, message: e.message, field: e.field } } satisfies WorkerReply);
     }
     return;
   }

@@ -98,11 +98,59 @@ export function runFoldOnDesign(
   shared: FoldShared = { imputed: [] },
   scratch?: FoldScratch,
 ): FoldLosses {
+  const design = foldDesign(fullDesign, foldIds, foldIndex, shared);
+  const fitted = fitFold(design, y, options, foldIds, foldIndex, lambda, shared, scratch);
+  return scoreFold(options.family, fitted, heldOutRows(design, y, foldIds, foldIndex, shared));
+}
+
+/** The design a fold works on: the full one, or with imputation a copy with the cells refilled from its training rows. */
+function foldDesign(fullDesign: DesignMatrix, foldIds: Int32Array, foldIndex: number, shared: FoldShared): DesignMatrix {
+  if (shared.imputed.length === 0) return fullDesign;
+  return imputeFromTraining(fullDesign, shared.imputed, Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1)));
+}
+
+/** A fold's fitted path, before its held-out rows are scored (scoreFold): plain arrays only. */
+export interface FoldFit {
+  fold: number;
+  nTest: number;
+  coefficients: Float64Array[];
+  intercept: number[];
+  statuses: SolveStatus[];
+}
+
+/** The fold's training rows fitted along `lambda` (the first half of runFoldOnDesign). */
+export function fitFoldOnDesign(
+  fullDesign: DesignMatrix,
+  y: Float64Array,
+  options: PathOptions,
+  foldIds: Int32Array,
+  foldIndex: number,
+  lambda: number[],
+  shared: FoldShared = { imputed: [] },
+  scratch?: FoldScratch,
+): FoldFit {
+  return fitFold(foldDesign(fullDesign, foldIds, foldIndex, shared), y, options, foldIds, foldIndex, lambda, shared, scratch);
+}
+
+/** fitFoldOnDesign on the fold's design (foldDesign). */
+function fitFold(
+  design: DesignMatrix,
+  y: Float64Array,
+  options: PathOptions,
+  foldIds: Int32Array,
+  foldIndex: number,
+  lambda: number[],
+  shared: FoldShared,
+  scratch?: FoldScratch,
+): FoldFit {
   const train: number[] = [];
-  const test: number[] = [];
-  for (let i = 0; i < foldIds.length; i++) (foldIds[i] === foldIndex ? test : train).push(i);
+  let nTest = 0;
+  for (let i = 0; i < foldIds.length; i++) {
+    if (foldIds[i] === foldIndex) nTest++;
+    else train.push(i);
+  }
   const label = `fold ${foldIndex + 1}`;
-  if (test.length === 0) throw new EngineInputError(`${label} has no rows`, 'folds');
+  if (nTest === 0) throw new EngineInputError(`${label} has no rows`, 'folds');
   if (train.length === 0) throw new EngineInputError(`${label} leaves no training rows`, 'folds');
   if (options.family === 'binomial') {
     const ones = train.reduce((s, i) => s + y[i], 0);
@@ -113,40 +161,61 @@ export function runFoldOnDesign(
       );
     }
   }
-  const design =
-    shared.imputed.length === 0
-      ? fullDesign
-      : imputeFromTraining(fullDesign, shared.imputed, Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1)));
   const cross = foldCrossProducts(shared, foldIndex);
   const fit =
     cross?.response && !lambda.includes(0)
       ? fitPathOnCrossProducts(design.terms, cross, foldConstantColumns(design, shared, foldIndex, train), { ...options, lambda })
       : fitOnRows(design, y, train, cross, { ...options, lambda }, scratch);
-  const nTest = test.length;
-  // The held-out rows: a stretch of every column of the rows regrouped by fold when the plan has
-  // them (same values, same order), else a copy.
+  return { fold: foldIndex, nTest, coefficients: fit.coefficients, intercept: fit.intercept, statuses: fit.solves.map((s) => s.status) };
+}
+
+/** A fold's held-out rows: rows first .. first + y.length - 1 of column-major x (`stride` rows per column). */
+export interface HeldOutRows {
+  x: Float64Array;
+  stride: number;
+  first: number;
+  y: Float64Array;
+}
+
+/**
+ * The fold's held-out rows: a stretch of every column of the rows regrouped by fold when the plan
+ * has them (the same values in the same order), else a copy of them from `design`, the fold's
+ * design (with imputation, its cells refilled from the training rows: foldDesign).
+ */
+export function heldOutRows(design: DesignMatrix, y: Float64Array, foldIds: Int32Array, foldIndex: number, shared: FoldShared): HeldOutRows {
   const byFold = shared.imputed.length === 0 && shared.byFold?.y ? shared.byFold : undefined;
-  const held = byFold
-    ? { x: byFold.x, stride: design.n, first: byFold.start[foldIndex], y: (byFold.y as Float64Array).subarray(byFold.start[foldIndex], byFold.start[foldIndex + 1]) }
-    : (() => {
-        const copy = selectRows(design, y, test);
-        return { x: copy.design.x, stride: nTest, first: 0, y: copy.y };
-      })();
-  const losses: Partial<Record<CvMetricName, number[]>> = {};
-  for (const metric of METRICS[options.family]) losses[metric] = [];
-  const eta = new Float64Array(nTest);
-  const nonzero = new Int32Array(design.p);
-  for (let l = 0; l < lambda.length; l++) {
-    linearPredictor(held.x, held.stride, held.first, fit.coefficients[l], fit.intercept[l], eta, nonzero);
-    const scores = scoreHeldOut(options.family, held.y, eta);
-    for (const metric of METRICS[options.family]) losses[metric]?.push(scores[metric]);
+  if (byFold) {
+    const first = byFold.start[foldIndex];
+    return { x: byFold.x, stride: design.n, first, y: (byFold.y as Float64Array).subarray(first, byFold.start[foldIndex + 1]) };
   }
-  const support = fit.coefficients.map((b) => {
+  const test: number[] = [];
+  for (let i = 0; i < foldIds.length; i++) if (foldIds[i] === foldIndex) test.push(i);
+  const copy = selectRows(design, y, test);
+  return { x: copy.design.x, stride: test.length, first: 0, y: copy.y };
+}
+
+/**
+ * The held-out losses of a fitted fold at every lambda (the second half of runFoldOnDesign; a
+ * thread other than the one that fitted the fold may run it: same rows, same numbers).
+ */
+export function scoreFold(family: Family, fitted: FoldFit, held: HeldOutRows): FoldLosses {
+  const nTest = held.y.length;
+  const losses: Partial<Record<CvMetricName, number[]>> = {};
+  for (const metric of METRICS[family]) losses[metric] = [];
+  const eta = new Float64Array(nTest);
+  const p = fitted.coefficients[0]?.length ?? 0;
+  const nonzero = new Int32Array(p);
+  for (let l = 0; l < fitted.coefficients.length; l++) {
+    linearPredictor(held.x, held.stride, held.first, fitted.coefficients[l], fitted.intercept[l], eta, nonzero);
+    const scores = scoreHeldOut(family, held.y, eta);
+    for (const metric of METRICS[family]) losses[metric]?.push(scores[metric]);
+  }
+  const support = fitted.coefficients.map((b) => {
     const kept: number[] = [];
     for (let j = 0; j < b.length; j++) if (b[j] !== 0) kept.push(j);
     return kept;
   });
-  return { fold: foldIndex, nTest, losses, statuses: fit.solves.map((s) => s.status), support };
+  return { fold: fitted.fold, nTest, losses, statuses: fitted.statuses, support };
 }
 
 /**

@@ -1,8 +1,8 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
 export { crossValidate, crossValidatePrepared, planCrossValidation, planFromPrepared, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
-export { runFold, runFoldOnDesign, METRICS } from './fold';
-export type { FoldLosses, FoldScratch } from './fold';
+export { fitFoldOnDesign, heldOutRows, runFold, runFoldOnDesign, scoreFold, METRICS } from './fold';
+export type { FoldFit, FoldLosses, FoldScratch, HeldOutRows } from './fold';
 export { combineFolds, mainMetric } from './combine';
 export { foldAssignment } from './assign';
 export { assignFolds, foldIdsFromColumn } from './folds';

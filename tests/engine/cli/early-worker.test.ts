@@ -1,7 +1,8 @@
 /**
  * `--workers auto` starts its worker before reading only when the file's shape, estimated from its
- * first megabyte, reaches the thread work threshold (server/cli/early-worker.ts): the tall and
- * 300 x 1500 bench shapes are measured slower with a worker started and left unused.
+ * first megabyte, reaches the thread work threshold, or the scoring threshold on a tall table
+ * (server/cli/early-worker.ts): the 300 x 1500 bench shape is measured slower with a worker started
+ * and left unused.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -31,6 +32,13 @@ describe('earlyWorkerMayPay', () => {
     expect(earlyWorkerMayPay(parseFitOptions(['--data', wide, '--response', 'y']))).toBe(false);
     // 1000 lambdas: ~1e9, a worker may pay.
     expect(earlyWorkerMayPay(parseFitOptions(['--data', wide, '--response', 'y', '--lambda', lambdas(1000)]))).toBe(true);
+  });
+
+  it('also for a tall table whose scoring work (rows x columns x lambdas) reaches 1e8, below the fold threshold', () => {
+    // 20000 rows x 51 columns: fold work 10 x 100 x 51 x 51 = 2.6e6, scoring 20000 x 51 x 100 = 1e8.
+    const tall = file('tall.csv', 20000, 50);
+    expect(earlyWorkerMayPay(parseFitOptions(['--data', tall, '--response', 'y', '--lambda', lambdas(100)]))).toBe(true);
+    expect(earlyWorkerMayPay(parseFitOptions(['--data', tall, '--response', 'y', '--lambda', lambdas(10)]))).toBe(false);
   });
 
   it('never without cross-validation, and leaves a missing file to the reader', () => {

@@ -1,11 +1,12 @@
 /**
  * The runner's threads (server/engine-runner/parallel.ts): folds claimed from one shared counter by
- * worker threads and this thread, the design in shared memory, folds running beside the full path.
+ * worker threads and this thread, the design in shared memory, folds running beside the full path,
+ * folds fitted here and scored on a worker.
  * Whichever thread runs a fold, the results must be those of one thread, bit for bit.
  */
 import { describe, expect, it } from 'vitest';
-import { crossValidate } from '../../../server/engine/cv';
-import { attachFoldsBeside, coreToSpare, cpuSnapshot, fitPathAndFolds, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
+import { crossValidate, crossValidatePrepared } from '../../../server/engine/cv';
+import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateScoringBeside, fitPathAndFolds, scoringBesidePays, SCORING_WORK_THRESHOLD, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
 import { fitPath, fitPathPrepared, plannedGrid, prepareFit } from '../../../server/engine/index';
 import { foldAssignment } from '../../../server/engine/cv';
 import { createRng } from '../../../server/engine/random';
@@ -82,6 +83,37 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
       await worker.stop();
     }
   }, 30_000);
+
+  it('folds fitted here and scored on the worker (crossValidateScoringBeside) give crossValidate\'s result, bit for bit', async () => {
+    const t = table(150, 5, 8);
+    const s = { ...base(['x1', 'x2', 'x3', 'x4', 'x5']), cv: { folds: 5, seed: 2 } };
+    const prepared = prepareFit(t, s, false);
+    const worker = startFoldWorker();
+    try {
+      // Without the regrouped rows in shared memory it refuses (the rows would be copied per fold).
+      const plain = prepareFit(t, s);
+      await expect(crossValidateScoringBeside(s, fitPathPrepared(plain), plain, worker)).rejects.toThrow(/shared memory/);
+      await attachFoldsBeside(t, s, prepared, worker, foldAssignment(t, s, s.cv, prepared.built));
+      const path = fitPathPrepared(prepared);
+      const beside = await crossValidateScoringBeside(s, path, prepared, worker);
+      expect(beside).toEqual(crossValidatePrepared(s, path, prepareFit(t, s)));
+      expect(beside).toEqual(crossValidate(t, s, fitPath(t, s)));
+    } finally {
+      await worker.stop();
+    }
+  }, 30_000);
+
+  it('scores on a worker only in the Gram form (rows regrouped by fold) and from the scoring threshold', () => {
+    const s = { ...base(['x1', 'x2', 'x3', 'x4', 'x5']), cv: { folds: 5, seed: 2 } };
+    const tall = prepareFit(table(150, 5, 8), s);
+    expect(tall.folds?.shared.byFold, 'the Gram form regroups the rows by fold').toBeDefined();
+    // 150 x 5 x L: the threshold is reached with L = 1e8 / 750 lambdas, not with 12.
+    expect(scoringBesidePays(tall, 12)).toBe(false);
+    expect(scoringBesidePays(tall, Math.ceil(SCORING_WORK_THRESHOLD / 750))).toBe(true);
+    const wide = prepareFit(table(40, 30, 2), { ...base(Array.from({ length: 30 }, (_, j) => `x${j + 1}`)), cv: { folds: 5, seed: 2 } });
+    expect(wide.folds?.shared.byFold).toBeUndefined();
+    expect(scoringBesidePays(wide, 1e9)).toBe(false);
+  });
 
   it('plannedGrid is the grid the path then fits, and null when maxTerms may end it early', () => {
     const t = table(80, 6, 5);
