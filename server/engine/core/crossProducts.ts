@@ -252,12 +252,22 @@ function finishSums(into: RowSums, p: number, center: Float64Array, y: Float64Ar
   mirrorUpper(acc, q);
   const sums = new Float64Array(p * p);
   for (let j = 0; j < p; j++) sums.set(acc.subarray(j * q, j * q + p), j * p);
-  const out: CrossProducts = { rows: into.count, center: Float64Array.from(center), sums, colSums: into.colSums };
-  if (!y) return out;
-  const cross = new Float64Array(p);
-  for (let j = 0; j < p; j++) cross[j] = acc[p * q + j];
-  out.response = { center: yCenter, sum: into.ySum, cross, squares: into.ySquares };
-  return out;
+  let response: CrossProducts['response'];
+  if (y) {
+    const cross = new Float64Array(p);
+    for (let j = 0; j < p; j++) cross[j] = acc[p * q + j];
+    response = { center: yCenter, sum: into.ySum, cross, squares: into.ySquares };
+  }
+  return crossProductsOf(into.count, Float64Array.from(center), sums, into.colSums, response);
+}
+
+/**
+ * Every CrossProducts is made here, with all its fields in one order (absent ones undefined): the
+ * solver's optimized code then meets one object shape, where objects that gained colSums or response
+ * afterwards had several and each new one cost a deoptimization and a recompilation (V8 "wrong map").
+ */
+function crossProductsOf(rows: number, center: Float64Array, sums: Float64Array, colSums: Float64Array | undefined, response: CrossProducts['response']): CrossProducts {
+  return { rows, center, sums, colSums, response };
 }
 
 /**
@@ -449,8 +459,7 @@ export function joinBlocks(design: DesignMatrix, y: Float64Array | undefined, bl
       squares += block.response.squares;
     }
   }
-  const all: CrossProducts = { rows: n, center: Float64Array.from(center), sums, colSums };
-  if (y) all.response = { center: yCenter, sum, cross, squares };
+  const all = crossProductsOf(n, Float64Array.from(center), sums, colSums, y ? { center: yCenter, sum, cross, squares } : undefined);
   overrideMoments(all, design, y);
   return { blocks, all, ranges };
 }
@@ -478,13 +487,13 @@ export function subtractCrossProducts(all: CrossProducts, part: CrossProducts): 
   }
   const sums = new Float64Array(all.sums.length);
   for (let t = 0; t < sums.length; t++) sums[t] = all.sums[t] - part.sums[t];
-  const out: CrossProducts = { rows: all.rows - part.rows, center: Float64Array.from(all.center), sums };
-  if (all.colSums && part.colSums) out.colSums = Float64Array.from(all.colSums, (v, j) => v - (part.colSums as Float64Array)[j]);
+  const colSums = all.colSums && part.colSums ? Float64Array.from(all.colSums, (v, j) => v - (part.colSums as Float64Array)[j]) : undefined;
   const [a, b] = [all.response, part.response];
-  if (a && b && a.center === b.center) {
-    out.response = { center: a.center, sum: a.sum - b.sum, cross: Float64Array.from(a.cross, (v, j) => v - b.cross[j]), squares: a.squares - b.squares };
-  }
-  return out;
+  const response =
+    a && b && a.center === b.center
+      ? { center: a.center, sum: a.sum - b.sum, cross: Float64Array.from(a.cross, (v, j) => v - b.cross[j]), squares: a.squares - b.squares }
+      : undefined;
+  return crossProductsOf(all.rows - part.rows, Float64Array.from(all.center), sums, colSums, response);
 }
 
 /**
