@@ -124,6 +124,9 @@ function dataFor(c: Case): BenchData {
 
 const verdict = (ok: boolean) => (ok ? 'met' : 'MISSED');
 
+/** The CLI's timing.cvWorkers in words (server/cli/main.ts). */
+const CV_THREADS: Record<number, string> = { 0: 'one thread', 1: 'a worker scored the folds', 2: 'a worker shared the folds' };
+
 async function runCase(c: Case, haveSklearn: boolean): Promise<void> {
   console.log(`\n-- ${c.name}`);
   const data = dataFor(c);
@@ -140,7 +143,7 @@ async function runCase(c: Case, haveSklearn: boolean): Promise<void> {
   const megabytes = statSync(data.path).size / 1e6;
   for (const [who, m, t] of runs) {
     const read = `read ${fmt(t.readSeconds)} (${(megabytes / t.readSeconds).toFixed(0)} MB/s)`;
-    const split = `${read}, full path ${fmt(t.fitSeconds)}, CV ${fmt(t.cvSeconds)} (${t.cvWorkers} worker threads)`;
+    const split = `${read}, full path ${fmt(t.fitSeconds)}, CV ${fmt(t.cvSeconds)} (${CV_THREADS[t.cvWorkers] ?? `cvWorkers ${t.cvWorkers}`})`;
     console.log(`${who.padEnd(26)} ${fmt(m.wallSeconds)} (cpu ${fmt(m.cpuSeconds)})  peak ${mib(m.peakMiB)}  [${split}]`);
   }
   // Both runs read the same file the same way: the faster read is the one less disturbed by other
