@@ -70,17 +70,17 @@ export class SupportSystem {
    * Solves for the features in `features` (solution in the same order, into out), with the step of
    * iterative refinement unless `refine` is false.
    */
-  solve(features: number[], shifts: number[], rhs: Float64Array, out: Float64Array, refine = true): boolean {
+  solve(features: ArrayLike<number>, shifts: ArrayLike<number>, rhs: Float64Array, out: Float64Array, refine = true): boolean {
     // Position in `features` of every wanted column (-1: not wanted), by column index.
     let top = 0;
-    for (const f of features) if (f >= top) top = f + 1;
+    for (let q = 0; q < features.length; q++) if (features[q] >= top) top = features[q] + 1;
     for (let q = 0; q < this.size; q++) if (this.order[q] >= top) top = this.order[q] + 1;
     if (this.wantedAt.length < top) {
       this.wantedAt = new Int32Array(Math.max(top, 2 * this.wantedAt.length)).fill(-1);
       this.placed = new Uint8Array(this.wantedAt.length);
     }
     const { wantedAt, placed } = this;
-    features.forEach((f, q) => (wantedAt[f] = q));
+    for (let q = 0; q < features.length; q++) wantedAt[features[q]] = q;
     this.dropUnwanted(shifts);
     let keep = 0;
     while (keep < this.size) {
@@ -101,14 +101,14 @@ export class SupportSystem {
         placed[oldOrder[q]] = 1;
       }
     }
-    for (const f of features) if (!placed[f]) order[count++] = f;
+    for (let q = 0; q < features.length; q++) if (!placed[features[q]]) order[count++] = features[q];
     for (let q = 0; q < size; q++) {
       position[q] = wantedAt[order[q]];
       this.shift[q] = shifts[position[q]];
     }
-    for (const f of features) {
-      wantedAt[f] = -1;
-      placed[f] = 0;
+    for (let q = 0; q < features.length; q++) {
+      wantedAt[features[q]] = -1;
+      placed[features[q]] = 0;
     }
     this.size = size;
     this.extend(keep);
@@ -148,7 +148,7 @@ export class SupportSystem {
    * L33 L33' + l32 l32', done by rotations at O(k^2) (Golub & Van Loan 2013, 6.5.4) instead of
    * refactoring every row after q at O(k m^2).
    */
-  private dropUnwanted(shifts: number[]): void {
+  private dropUnwanted(shifts: ArrayLike<number>): void {
     const { wantedAt } = this;
     let drop = 0;
     for (let q = 0; q < this.size; q++) {

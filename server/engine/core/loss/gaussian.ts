@@ -233,8 +233,14 @@ function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: Supp
   const { ws, active, sign, l1, l2 } = support;
   memory.system ??= form === 'gram' ? new SupportSystem((f, g) => problem.gram.column(f)[g]) : new SupportSystem(columnProduct(problem), columnProducts(problem));
   const m = active.length;
-  const features = active.map((a) => ws.features[a]);
-  const shifts = active.map((a) => l2[a]);
+  // Typed arrays: one object shape whatever the support (arrays from map() differ in shape when
+  // empty, which cost the optimized polish a deoptimization).
+  const features = new Int32Array(m);
+  const shifts = new Float64Array(m);
+  for (let q = 0; q < m; q++) {
+    features[q] = ws.features[active[q]];
+    shifts[q] = l2[active[q]];
+  }
   const rhs = new Float64Array(m);
   for (let q = 0; q < m; q++) {
     const s = sign[active[q]];
