@@ -190,12 +190,22 @@ function startSums(rows: Int32Array | null, first: number, count: number, p: num
 
 /**
  * Adds rows start .. start + m - 1 of `into`'s rows (with `into.rows` null: rows into.first + start
- * on, contiguous): their centred copy into `buffer`, then the kernel.
+ * on, contiguous): their centred copy into `buffer`, then the kernel. Each loop nest is its own
+ * function: V8 optimizes a long loop in place (on-stack replacement) before the code after it has
+ * ever run, and that code then had no type feedback and deoptimized, again and again (24-56
+ * deoptimizations per tall run, mostly here and in subtractCrossProducts).
  */
 function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number, center: Float64Array, y: Float64Array | undefined, yCenter: number, buffer: Float64Array): void {
+  const first = into.first + start;
+  centreColumns(design, into, start, first, m, center, buffer);
+  if (y) centreResponse(y, into, start, first, m, yCenter, buffer, design.p * m);
+  accumulateSymmetric(buffer, m, y ? design.p + 1 : design.p, into.acc);
+}
+
+/** The design part of addChunk: each column's rows, centred, into `buffer` (m per column), with their sums and range. */
+function centreColumns(design: DesignMatrix, into: RowSums, start: number, first: number, m: number, center: Float64Array, buffer: Float64Array): void {
   const { n, p, x } = design;
   const { rows, colSums, range } = into;
-  const first = into.first + start;
   for (let j = 0; j < p; j++) {
     const from = j * n;
     const to = j * m;
@@ -214,7 +224,7 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
       }
       range.min[j] = lo;
       range.max[j] = hi;
-  } else if (rows) {
+    } else if (rows) {
       for (let t = 0; t < m; t++) {
         const v = x[from + rows[start + t]] - c;
         buffer[to + t] = v;
@@ -229,20 +239,21 @@ function addChunk(design: DesignMatrix, into: RowSums, start: number, m: number,
     }
     colSums[j] = sum;
   }
-  if (y) {
-    const to = p * m;
-    let ySum = into.ySum;
-    let ySquares = into.ySquares;
-    for (let t = 0; t < m; t++) {
-      const v = y[rows ? rows[start + t] : first + t] - yCenter;
-      buffer[to + t] = v;
-      ySum += v;
-      ySquares += v * v;
-    }
-    into.ySum = ySum;
-    into.ySquares = ySquares;
+}
+
+/** The response part of addChunk: its rows centred into buffer[to ..], with their sum and sum of squares. */
+function centreResponse(y: Float64Array, into: RowSums, start: number, first: number, m: number, yCenter: number, buffer: Float64Array, to: number): void {
+  const { rows } = into;
+  let ySum = into.ySum;
+  let ySquares = into.ySquares;
+  for (let t = 0; t < m; t++) {
+    const v = y[rows ? rows[start + t] : first + t] - yCenter;
+    buffer[to + t] = v;
+    ySum += v;
+    ySquares += v * v;
   }
-  accumulateSymmetric(buffer, m, y ? p + 1 : p, into.acc);
+  into.ySum = ySum;
+  into.ySquares = ySquares;
 }
 
 /** The CrossProducts of finished running sums. */
@@ -480,19 +491,22 @@ export function constantOutside(ranges: ColumnRange[], leftOut: number, p: numbe
   return constant;
 }
 
+/** a - b, entry by entry (its own function: see addChunk on loops and deoptimization). */
+function difference(a: Float64Array, b: Float64Array): Float64Array {
+  const out = new Float64Array(a.length);
+  for (let t = 0; t < out.length; t++) out[t] = a[t] - b[t];
+  return out;
+}
+
 /** S(all) - S(part): the cross products of the remaining rows (same centre required). */
 export function subtractCrossProducts(all: CrossProducts, part: CrossProducts): CrossProducts {
   if (all.center.length !== part.center.length || all.center.some((v, j) => v !== part.center[j])) {
     throw new EngineInputError('cross products: both sets must use the same centre', 'crossProducts');
   }
-  const sums = new Float64Array(all.sums.length);
-  for (let t = 0; t < sums.length; t++) sums[t] = all.sums[t] - part.sums[t];
-  const colSums = all.colSums && part.colSums ? Float64Array.from(all.colSums, (v, j) => v - (part.colSums as Float64Array)[j]) : undefined;
+  const sums = difference(all.sums, part.sums);
+  const colSums = all.colSums && part.colSums ? difference(all.colSums, part.colSums) : undefined;
   const [a, b] = [all.response, part.response];
-  const response =
-    a && b && a.center === b.center
-      ? { center: a.center, sum: a.sum - b.sum, cross: Float64Array.from(a.cross, (v, j) => v - b.cross[j]), squares: a.squares - b.squares }
-      : undefined;
+  const response = a && b && a.center === b.center ? { center: a.center, sum: a.sum - b.sum, cross: difference(a.cross, b.cross), squares: a.squares - b.squares } : undefined;
   return crossProductsOf(all.rows - part.rows, Float64Array.from(all.center), sums, colSums, response);
 }
 
