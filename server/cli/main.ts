@@ -55,7 +55,8 @@ export async function runFit(argv: string[]): Promise<string> {
       // Without fold threads, a tall table's folds can still be scored on the worker: the blocks are
       // then summed on both threads too (attachFoldsBeside puts the regrouped rows in shared memory).
       if (early && assignment && spare) await attachFoldsBeside(table, fitSpec, fitPrepared, early, assignment);
-      else attachFolds(table, fitSpec, fitPrepared, assignment ?? undefined);
+      // One thread: the rows regrouped by fold all the same (the folds' scoring reads them in order).
+      else attachFolds(table, fitSpec, fitPrepared, assignment ?? undefined, true);
       const scoring = spare && !useWorker && scoringBesidePays(fitPrepared, lambdaCount);
       return { spec: fitSpec, prepared: fitPrepared, read: readAt, threads: useWorker, scoring };
     })();

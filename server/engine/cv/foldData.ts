@@ -74,9 +74,10 @@ export function planFolds(
   built: BuiltDesign,
   options: PathOptions,
   given?: { foldIds: Int32Array; folds: number; blocks?: BlockCrossProducts & { byFold?: RowsByBlock } },
+  regroup = false,
 ): FoldPlan {
   const { foldIds, folds } = given ?? foldAssignment(table, spec, spec.cv, built);
-  return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds, given?.blocks) };
+  return { foldIds, folds, shared: foldShared(table, built, options, foldIds, folds, given?.blocks, regroup) };
 }
 
 /**
@@ -92,7 +93,13 @@ export function foldsUseGram(imputed: ImputedPredictor[], built: BuiltDesign, op
   return imputed.length === 0 && p <= FULL_GRAM_COLUMNS && usesGram(options, n - largestFold, p);
 }
 
-/** Cross products of every fold's rows and of all rows (their sum) when foldsUseGram. */
+/**
+ * Cross products of every fold's rows and of all rows (their sum) when foldsUseGram. `regroup`:
+ * also the rows regrouped by fold (RowsByBlock), which makes the block sums and every fold's scoring
+ * read contiguous rows, at the cost of one more n x p array while the folds run. Callers that score
+ * many folds in one process ask for it (the CLI); the studio's path job (which scores none) and its
+ * fold jobs (one engine thread may hold plans of several fits) do not.
+ */
 export function foldShared(
   table: EngineTable,
   built: BuiltDesign,
@@ -100,11 +107,12 @@ export function foldShared(
   foldIds: Int32Array,
   folds: number,
   given?: BlockCrossProducts & { byFold?: RowsByBlock },
+  regroup = false,
 ): FoldShared {
   const imputed = imputedPredictors(table, built);
   if (!foldsUseGram(imputed, built, options, foldIds, folds)) return { imputed };
   if (given) return { imputed, crossProducts: given.all, blocks: given.blocks, ranges: given.ranges, byFold: given.byFold };
-  const byFold = rowsByBlock(built.design, foldIds, folds, true, false);
+  const byFold = regroup ? rowsByBlock(built.design, foldIds, folds, true, false) : undefined;
   const { blocks, all, ranges } = blockCrossProducts(built.design, foldIds, folds, built.y, byFold);
   return { imputed, crossProducts: all, blocks, ranges, byFold };
 }

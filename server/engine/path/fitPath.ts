@@ -183,12 +183,12 @@ export function prepareFit(table: EngineTable, spec: FitSpec, withFolds = true):
 /**
  * prepareFit's fold planning, for a caller that prepared with `withFolds` false to compute the
  * blocks its own way (the runner, over threads: the same numbers): with the spec's CV, the fold
- * plan, and S(all) from its blocks as the full path's cross products.
+ * plan, and S(all) from its blocks as the full path's cross products. `regroup`: see foldShared.
  */
-export function attachFolds(table: EngineTable, spec: FitSpec, prepared: PreparedFit, given?: Parameters<typeof planFolds>[4]): void {
+export function attachFolds(table: EngineTable, spec: FitSpec, prepared: PreparedFit, given?: Parameters<typeof planFolds>[4], regroup = false): void {
   const cv = spec.cv;
   if (!cv) return;
-  prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options, given);
+  prepared.folds = planFolds(table, { ...spec, cv }, prepared.built, prepared.options, given, regroup);
   prepared.crossProducts = prepared.folds.shared.crossProducts;
 }
 

@@ -5,7 +5,7 @@
  */
 import { mean } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import { combineFolds, crossValidate, planCrossValidation, runFoldOnDesign } from '../../../server/engine/cv';
+import { combineFolds, crossValidate, planCrossValidation, planFolds, runFoldOnDesign } from '../../../server/engine/cv';
 import { parseCsvText } from '../../../server/tabular/csv';
 import { fitPath } from '../../../server/engine/index';
 import { createRng } from '../../../server/engine/random';
@@ -28,8 +28,16 @@ describe('gaussian folds through the cross products of all rows', () => {
   };
   const path = fitPath(table, spec);
 
-  it('regroups the rows by fold in the same pass: each fold\'s rows in ascending order, every column', () => {
+  // The plan with the rows regrouped by fold, as the CLI asks for it (planFolds' `regroup`).
+  const regrouped = () => {
     const plan = planCrossValidation(table, spec, path);
+    const cv = spec.cv as NonNullable<FitSpec['cv']>;
+    return { ...plan, shared: planFolds(table, { ...spec, cv }, plan.built, plan.options, undefined, true).shared };
+  };
+
+  it('regroups the rows by fold when asked: each fold\'s rows in ascending order, every column', () => {
+    expect(planCrossValidation(table, spec, path).shared.byFold, 'not unless asked (the studio\'s jobs)').toBeUndefined();
+    const plan = regrouped();
     const byFold = plan.shared.byFold;
     expect(byFold, 'the plan should carry the rows regrouped by fold in the Gram form').toBeDefined();
     if (!byFold?.y) return;
@@ -48,7 +56,7 @@ describe('gaussian folds through the cross products of all rows', () => {
   });
 
   it('scores the held-out rows where they were regrouped: the same losses, bit for bit, as a copy of them', () => {
-    const plan = planCrossValidation(table, spec, path);
+    const plan = regrouped();
     const { byFold, ...withoutRows } = plan.shared;
     expect(byFold).toBeDefined();
     for (let k = 0; k < plan.folds; k++) {

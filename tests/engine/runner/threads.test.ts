@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { crossValidate, crossValidatePrepared } from '../../../server/engine/cv';
 import { attachFoldsBeside, coreToSpare, cpuSnapshot, crossValidateScoringBeside, fitPathAndFolds, scoringBesidePays, SCORING_WORK_THRESHOLD, startFoldWorker, threadsPay, THREAD_WORK_THRESHOLD } from '../../../server/engine-runner';
-import { fitPath, fitPathPrepared, plannedGrid, prepareFit } from '../../../server/engine/index';
+import { attachFolds, fitPath, fitPathPrepared, plannedGrid, prepareFit } from '../../../server/engine/index';
 import { foldAssignment } from '../../../server/engine/cv';
 import { createRng } from '../../../server/engine/random';
 import { parseCsvText } from '../../../server/tabular/csv';
@@ -66,7 +66,9 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
   it('fold blocks split between this thread and the worker (attachFoldsBeside) equal prepareFit\'s, and the fit on them equals fitPath', async () => {
     const t = table(120, 6, 6);
     const s = { ...base(['x1', 'x2', 'x3', 'x4', 'x5', 'x6']), cv: { folds: 5, seed: 9 } };
-    const expected = prepareFit(t, s);
+    // prepareFit's plan with the rows regrouped by fold, as attachFoldsBeside always makes it.
+    const expected = prepareFit(t, s, false);
+    attachFolds(t, s, expected, undefined, true);
     expect(expected.folds?.shared.blocks, 'the case must be in the Gram form').toBeDefined();
     const prepared = prepareFit(t, s, false);
     const worker = startFoldWorker();
@@ -105,12 +107,18 @@ describe('fitPathAndFolds: the full path and its folds on this thread and a work
 
   it('scores on a worker only in the Gram form (rows regrouped by fold) and from the scoring threshold', () => {
     const s = { ...base(['x1', 'x2', 'x3', 'x4', 'x5']), cv: { folds: 5, seed: 2 } };
-    const tall = prepareFit(table(150, 5, 8), s);
-    expect(tall.folds?.shared.byFold, 'the Gram form regroups the rows by fold').toBeDefined();
+    const t = table(150, 5, 8);
+    const tall = prepareFit(t, s, false);
+    attachFolds(t, s, tall, undefined, true);
+    expect(tall.folds?.shared.byFold, 'the Gram form regroups the rows by fold when asked').toBeDefined();
+    expect(scoringBesidePays(prepareFit(t, s), 1e9), 'not without the regrouped rows').toBe(false);
     // 150 x 5 x L: the threshold is reached with L = 1e8 / 750 lambdas, not with 12.
     expect(scoringBesidePays(tall, 12)).toBe(false);
     expect(scoringBesidePays(tall, Math.ceil(SCORING_WORK_THRESHOLD / 750))).toBe(true);
-    const wide = prepareFit(table(40, 30, 2), { ...base(Array.from({ length: 30 }, (_, j) => `x${j + 1}`)), cv: { folds: 5, seed: 2 } });
+    const ws = { ...base(Array.from({ length: 30 }, (_, j) => `x${j + 1}`)), cv: { folds: 5, seed: 2 } };
+    const wt = table(40, 30, 2);
+    const wide = prepareFit(wt, ws, false);
+    attachFolds(wt, ws, wide, undefined, true);
     expect(wide.folds?.shared.byFold).toBeUndefined();
     expect(scoringBesidePays(wide, 1e9)).toBe(false);
   });
