@@ -250,15 +250,18 @@ export function parseQuoteFreeRows(
 }
 
 /**
- * Runs the plain loop once at load on a few rows that take each of its branches (minus, point,
- * exponents with either sign, -0, CR LF, a trailing point), so the loop is compiled with type
- * feedback for all of them. Without this, the first exponent met in a large file (e.g. row 291 of
- * the bench's 20000 x 200 file) made the compiled loop bail out and be compiled again while running
- * slowly meanwhile: measured 10-15 % of a first read (V8 in Node 20). Costs microseconds.
+ * Runs the plain loop at load on rows that take each of its branches (minus, point, exponents with
+ * either sign, -0, CR LF, a trailing point), so the loop is compiled with type feedback for all of
+ * them. Without this, the first exponent met in a large file (e.g. row 291 of the bench's
+ * 20000 x 200 file) made the compiled loop bail out and be compiled again while running slowly
+ * meanwhile: measured 10-15 % of a first read (V8 in Node 20). Enough rows (12,800 cells, about a
+ * millisecond) that V8 also starts optimizing the loop now, on a background thread, while the CLI
+ * goes on to open and read the file: the first read of the bench's 4.4 MB file took 24-30 ms with
+ * 60 cells here (the loop compiled mid-read) and 18 ms with these.
  */
 function warmUp(): void {
-  const rows = 20;
+  const rows = 400;
   const sample = Buffer.from('-1.5e-3,2E+4,-0,7\r\n1.25,3e2,.5,-8.\n'.repeat(rows / 2));
-  for (let k = 0; k < 3; k++) readPlainRows(sample, 0, 0, sample.length - 1, new Float64Array(4 * rows), 4, rows, 0, new Float64Array(rows));
+  for (let k = 0; k < 8; k++) readPlainRows(sample, 0, 0, sample.length - 1, new Float64Array(4 * rows), 4, rows, 0, new Float64Array(rows));
 }
 warmUp();
