@@ -21,7 +21,7 @@ import { dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { attachFolds, EngineInputError, fitPathPrepared, joinBlocks, plannedGrid, rowsByBlock, someBlockSums, type ColumnRange, type CrossProducts, type CvResult, type EngineTable, type Family, type FitSpec, type PathResult, type PreparedFit } from '../engine/index';
-import { combineFolds, fitFoldOnDesign, foldsUseGram, heldOutRows, imputedPredictors, planCrossValidation, planFromPrepared, runPlannedFold, type CvPlan, type FoldFit, type FoldLosses, type FoldShared, type HeldOutRows } from '../engine/cv';
+import { combineFolds, fitPlannedFold, foldsUseGram, imputedPredictors, planCrossValidation, planFromPrepared, plannedHeldOut, runPlannedFold, type CvPlan, type FoldFit, type FoldLosses, type FoldShared, type HeldOutRows } from '../engine/cv';
 import type { BlockRequest, WorkerReply, WorkerRequest } from './protocol';
 
 /**
@@ -450,14 +450,8 @@ export async function crossValidateScoringBeside(spec: FitSpec, path: PathResult
   if (!byFold || !(byFold.x.buffer instanceof SharedArrayBuffer)) {
     throw new Error('scoring beside needs the rows regrouped by fold in shared memory (attachFoldsBeside)');
   }
-  const { design, y } = plan.built;
-  plan.scratch ??= {};
   const scored: Promise<FoldLosses>[] = [];
-  for (let k = 0; k < plan.folds; k++) {
-    const fitted: FoldFit = fitFoldOnDesign(design, y, plan.options, plan.foldIds, k, plan.lambda, plan.shared, plan.scratch);
-    const held: HeldOutRows = heldOutRows(design, y, plan.foldIds, k, plan.shared);
-    scored.push(pending(worker.score(spec.family, fitted, held)));
-  }
+  for (let k = 0; k < plan.folds; k++) scored.push(pending(worker.score(spec.family, fitPlannedFold(plan, k), plannedHeldOut(plan, k))));
   return combineFolds(spec.family, plan.lambda, await Promise.all(scored), plan.foldIds);
 }
 

@@ -5,7 +5,7 @@
  */
 import { EngineInputError, encodeForFit, type BuiltDesign, type CvResult, type EngineTable, type FitSpec, type PathOptions, type PathResult, type PreparedFit } from '../index';
 import { combineFolds } from './combine';
-import { runFoldOnDesign, type FoldScratch } from './fold';
+import { fitFold, foldDesign, heldOutRows, runFoldOnDesign, type FoldFit, type FoldScratch, type HeldOutRows } from './fold';
 import { planFolds, type FoldShared } from './foldData';
 
 export interface CvPlan {
@@ -59,6 +59,22 @@ export function crossValidatePrepared(spec: FitSpec, path: PathResult, prepared:
 export function runPlannedFold(plan: CvPlan, k: number) {
   plan.scratch ??= {};
   return runFoldOnDesign(plan.built.design, plan.built.y, plan.options, plan.foldIds, k, plan.lambda, plan.shared, plan.scratch);
+}
+
+/**
+ * Fold k of a plan fitted in this thread, without its scoring, and its held-out rows: runPlannedFold
+ * is scoreFold(fitPlannedFold, plannedHeldOut), and the scoring may run on another thread.
+ */
+export function fitPlannedFold(plan: CvPlan, k: number): FoldFit {
+  plan.scratch ??= {};
+  const { design, y } = plan.built;
+  return fitFold({ design: foldDesign(design, plan.foldIds, k, plan.shared), y, options: plan.options, foldIds: plan.foldIds, foldIndex: k, lambda: plan.lambda, shared: plan.shared, scratch: plan.scratch });
+}
+
+/** Fold k's held-out rows (see fitPlannedFold). */
+export function plannedHeldOut(plan: CvPlan, k: number): HeldOutRows {
+  const { design, y } = plan.built;
+  return heldOutRows(foldDesign(design, plan.foldIds, k, plan.shared), y, plan.foldIds, k, plan.shared);
 }
 
 /** Runs every fold in this thread, one after another (the default; deterministic and simple). */

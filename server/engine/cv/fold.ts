@@ -99,12 +99,12 @@ export function runFoldOnDesign(
   scratch?: FoldScratch,
 ): FoldLosses {
   const design = foldDesign(fullDesign, foldIds, foldIndex, shared);
-  const fitted = fitFold(design, y, options, foldIds, foldIndex, lambda, shared, scratch);
+  const fitted = fitFold({ design, y, options, foldIds, foldIndex, lambda, shared, scratch });
   return scoreFold(options.family, fitted, heldOutRows(design, y, foldIds, foldIndex, shared));
 }
 
 /** The design a fold works on: the full one, or with imputation a copy with the cells refilled from its training rows. */
-function foldDesign(fullDesign: DesignMatrix, foldIds: Int32Array, foldIndex: number, shared: FoldShared): DesignMatrix {
+export function foldDesign(fullDesign: DesignMatrix, foldIds: Int32Array, foldIndex: number, shared: FoldShared): DesignMatrix {
   if (shared.imputed.length === 0) return fullDesign;
   return imputeFromTraining(fullDesign, shared.imputed, Uint8Array.from(foldIds, (f) => (f === foldIndex ? 0 : 1)));
 }
@@ -118,31 +118,21 @@ export interface FoldFit {
   statuses: SolveStatus[];
 }
 
-/** The fold's training rows fitted along `lambda` (the first half of runFoldOnDesign). */
-export function fitFoldOnDesign(
-  fullDesign: DesignMatrix,
-  y: Float64Array,
-  options: PathOptions,
-  foldIds: Int32Array,
-  foldIndex: number,
-  lambda: number[],
-  shared: FoldShared = { imputed: [] },
-  scratch?: FoldScratch,
-): FoldFit {
-  return fitFold(foldDesign(fullDesign, foldIds, foldIndex, shared), y, options, foldIds, foldIndex, lambda, shared, scratch);
+/** What fitFold needs: the fold's design (foldDesign), the responses, options, fold ids and grid, the plan's shared data. */
+export interface FoldInput {
+  design: DesignMatrix;
+  y: Float64Array;
+  options: PathOptions;
+  foldIds: Int32Array;
+  foldIndex: number;
+  lambda: number[];
+  shared: FoldShared;
+  scratch?: FoldScratch;
 }
 
-/** fitFoldOnDesign on the fold's design (foldDesign). */
-function fitFold(
-  design: DesignMatrix,
-  y: Float64Array,
-  options: PathOptions,
-  foldIds: Int32Array,
-  foldIndex: number,
-  lambda: number[],
-  shared: FoldShared,
-  scratch?: FoldScratch,
-): FoldFit {
+/** The fold's training rows fitted along `lambda` (the first half of runFoldOnDesign). */
+export function fitFold(input: FoldInput): FoldFit {
+  const { design, y, options, foldIds, foldIndex, lambda, shared, scratch } = input;
   const train: number[] = [];
   let nTest = 0;
   for (let i = 0; i < foldIds.length; i++) {

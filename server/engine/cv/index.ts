@@ -1,7 +1,7 @@
 /** Cross-validation: folds, held-out metrics, the lambda choices (docs/engine.md, "Cross-validation"). */
-export { crossValidate, crossValidatePrepared, planCrossValidation, planFromPrepared, runPlannedFold } from './crossValidate';
+export { crossValidate, crossValidatePrepared, fitPlannedFold, planCrossValidation, planFromPrepared, plannedHeldOut, runPlannedFold } from './crossValidate';
 export type { CvPlan } from './crossValidate';
-export { fitFoldOnDesign, heldOutRows, runFold, runFoldOnDesign, scoreFold, METRICS } from './fold';
+export { runFold, runFoldOnDesign, scoreFold, METRICS } from './fold';
 export type { FoldFit, FoldLosses, FoldScratch, HeldOutRows } from './fold';
 export { combineFolds, mainMetric } from './combine';
 export { foldAssignment } from './assign';
