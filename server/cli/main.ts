@@ -46,7 +46,8 @@ export async function runFit(argv: string[]): Promise<string> {
       const readAt = performance.now();
       const fitSpec = buildFitSpec(options, table);
       // One code path with fitPath: prepareFit, its fold plan (attachFolds), fitPathPrepared.
-      const fitPrepared = prepareFit(table, fitSpec, false);
+      // With a worker started, the design is built in shared memory (no copy to hand it over).
+      const fitPrepared = prepareFit(table, fitSpec, false, early !== null);
       const cv = fitSpec.cv;
       const assignment = cv ? foldAssignment(table, fitSpec, cv, fitPrepared.built) : null;
       const lambdaCount = fitPrepared.options.lambda?.length ?? fitPrepared.options.pathLength ?? DEFAULT_PATH_LENGTH;

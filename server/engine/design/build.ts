@@ -96,8 +96,10 @@ function keepRows(
  * overwritten by the next), with its range found in the same pass; a numeric column with nothing to
  * fill is copied as a block. Sums and ranges run over the same values in the same order as a
  * column-by-column build, so the design is the same to the bit (tests/engine/core/design-build.test.ts).
+ * `sharedMemory`: the design's values in a SharedArrayBuffer, for a caller that will hand them to
+ * worker threads (the same numbers).
  */
-export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Array): BuiltDesign {
+export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Array, sharedMemory = false): BuiltDesign {
   const notes: string[] = [];
   const responseColumn = findColumn(table, spec.response, 'response');
   // By name through a map: findColumn per predictor is quadratic in the columns (5000 on wide files).
@@ -115,7 +117,8 @@ export function buildDesign(table: EngineTable, spec: DesignSpec, rows?: Int32Ar
   if (note) notes.push(note);
 
   const width = predictors.reduce((sum, c) => sum + (c.kind === 'numeric' ? 1 : c.levels.length), 0);
-  const x = new Float64Array(n * width);
+  // In shared memory when threads will read it (the caller says so): no copy to share it later.
+  const x = sharedMemory ? new Float64Array(new SharedArrayBuffer(n * width * 8)) : new Float64Array(n * width);
   const terms: string[] = [];
   const groupsOfTerms: number[] = [];
   const encoding: TermEncoding[] = [];

@@ -171,11 +171,12 @@ export interface PreparedFit {
  * validateSpec, then encodeForFit: the table-level steps every fit shares; with cross-validation the
  * folds are planned too (cv/foldData.ts planFolds), so the full path and the folds share one set of
  * cross products. Every route that fits a path with CV (CLI, in-process, studio path job) comes
- * through here, so the full path's numbers do not depend on the route.
+ * through here, so the full path's numbers do not depend on the route. `sharedMemory`: the design in
+ * a SharedArrayBuffer (buildDesign), for a caller that hands it to worker threads.
  */
-export function prepareFit(table: EngineTable, spec: FitSpec, withFolds = true): PreparedFit {
+export function prepareFit(table: EngineTable, spec: FitSpec, withFolds = true, sharedMemory = false): PreparedFit {
   validateSpec(table, spec);
-  const prepared = encodeForFit(table, spec);
+  const prepared = encodeForFit(table, spec, sharedMemory);
   if (withFolds) attachFolds(table, spec, prepared);
   return prepared;
 }
@@ -196,8 +197,8 @@ export function attachFolds(table: EngineTable, spec: FitSpec, prepared: Prepare
  * buildDesign and the spec's PathOptions, for a spec already validated (e.g. a fold job repeating
  * the full fit's encoding).
  */
-export function encodeForFit(table: EngineTable, spec: FitSpec): PreparedFit {
-  const built = buildDesign(table, spec);
+export function encodeForFit(table: EngineTable, spec: FitSpec, sharedMemory = false): PreparedFit {
+  const built = buildDesign(table, spec, undefined, sharedMemory);
   if (built.design.p === 0) {
     throw new EngineInputError('no usable predictor: every predictor is constant over the rows used', 'predictors');
   }

@@ -67,7 +67,9 @@ describe('buildDesign matches the plain column-by-column build to the bit', () =
       subsets.push(Int32Array.from({ length: n }, (_, i) => i).filter(() => rng.int(3) > 0));
       subsets.push(Int32Array.from({ length: n }, (_, i) => n - 1 - i));
       for (const rows of subsets) {
-        const fast = outcome(() => buildDesign(table, spec, rows)) as ReturnType<typeof buildDesign> | { error: string };
+        // Every other table in shared memory (for worker threads): the same numbers.
+        const shared = t % 2 === 1;
+        const fast = outcome(() => buildDesign(table, spec, rows, shared)) as ReturnType<typeof buildDesign> | { error: string };
         const reference = outcome(() => referenceBuildDesign(table, spec, rows)) as ReturnType<typeof referenceBuildDesign> | { error: string };
         compared++;
         if ('error' in reference || 'error' in fast) {
@@ -76,6 +78,10 @@ describe('buildDesign matches the plain column-by-column build to the bit', () =
         }
         built++;
         const where = `table ${t}, ${spec.missing}, rows ${rows ? Array.from(rows).join(' ') : 'all'}`;
+        // A design cut to fewer columns (constant ones left out) is a plain copy; otherwise the memory asked for.
+        if (fast.design.x.length === fast.design.n * (table.columns.length - 1) && !table.columns.some((c) => c.kind === 'categorical')) {
+          expect(fast.design.x.buffer instanceof SharedArrayBuffer, `${where}: shared memory`).toBe(shared);
+        }
         expect(bits(fast.design.x), where).toEqual(bits(reference.design.x));
         expect(bits(fast.y), where).toEqual(bits(reference.y));
         expect({ ...fast, design: { ...fast.design, x: null }, y: null }, where).toEqual({ ...reference, design: { ...reference.design, x: null }, y: null });
