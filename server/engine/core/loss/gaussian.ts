@@ -87,12 +87,24 @@ function bindGram(problem: Problem, ws: WorkingSet): BoundLoss {
     c[b] = problem.c[ws.features[b]];
     for (let a = 0; a < k; a++) g[b * k + a] = col[ws.features[a]];
   }
+  // out = G_WW w, the non-zero entries of w four at a time: each pass over out adds four columns (a
+  // quarter of the loads and stores of one column per pass; about 2x faster at 20 to 180 working
+  // columns, measured alone on this machine).
+  const nonzero = new Int32Array(k);
   const multiply = (w: Float64Array, out: Float64Array): void => {
     out.fill(0);
-    for (let b = 0; b < k; b++) {
-      const coef = w[b];
-      if (coef === 0) continue;
-      const off = b * k;
+    let count = 0;
+    for (let b = 0; b < k; b++) if (w[b] !== 0) nonzero[count++] = b;
+    let t = 0;
+    for (; t + 4 <= count; t += 4) {
+      const b0 = nonzero[t], b1 = nonzero[t + 1], b2 = nonzero[t + 2], b3 = nonzero[t + 3];
+      const c0 = w[b0], c1 = w[b1], c2 = w[b2], c3 = w[b3];
+      const o0 = b0 * k, o1 = b1 * k, o2 = b2 * k, o3 = b3 * k;
+      for (let a = 0; a < k; a++) out[a] += c0 * g[o0 + a] + c1 * g[o1 + a] + c2 * g[o2 + a] + c3 * g[o3 + a];
+    }
+    for (; t < count; t++) {
+      const coef = w[nonzero[t]];
+      const off = nonzero[t] * k;
       for (let a = 0; a < k; a++) out[a] += coef * g[off + a];
     }
   };
@@ -144,11 +156,23 @@ function evaluateGram(problem: Problem, coef: Float64Array): Evaluation {
   const { n, p } = problem;
   const g = Float64Array.from(problem.c);
   let cb = 0;
+  const nonzero: number[] = [];
   for (let k = 0; k < p; k++) {
-    const beta = coef[k];
-    if (beta === 0) continue;
-    cb += problem.c[k] * beta;
-    const col = problem.gram.column(k);
+    if (coef[k] === 0) continue;
+    cb += problem.c[k] * coef[k];
+    nonzero.push(k);
+  }
+  // Four Gram columns per pass over g (as bindGram's multiply).
+  let t = 0;
+  for (; t + 4 <= nonzero.length; t += 4) {
+    const k0 = nonzero[t], k1 = nonzero[t + 1], k2 = nonzero[t + 2], k3 = nonzero[t + 3];
+    const c0 = coef[k0], c1 = coef[k1], c2 = coef[k2], c3 = coef[k3];
+    const col0 = problem.gram.column(k0), col1 = problem.gram.column(k1), col2 = problem.gram.column(k2), col3 = problem.gram.column(k3);
+    for (let j = 0; j < p; j++) g[j] -= col0[j] * c0 + col1[j] * c1 + col2[j] * c2 + col3[j] * c3;
+  }
+  for (; t < nonzero.length; t++) {
+    const beta = coef[nonzero[t]];
+    const col = problem.gram.column(nonzero[t]);
     for (let j = 0; j < p; j++) g[j] -= col[j] * beta;
   }
   // b'Gb = b'(c - g)
@@ -313,13 +337,27 @@ function negativeGradientDesign(problem: Problem, ws: WorkingSet, active: number
 /** As negativeGradientDesign, from the Gram columns of the support. */
 function negativeGradientGram(problem: Problem, ws: WorkingSet, active: number[], w: Float64Array): Float64Array {
   const k = ws.k;
+  const features = ws.features;
   const g = new Float64Array(k);
-  for (let b = 0; b < k; b++) g[b] = problem.c[ws.features[b]];
-  for (const a of active) {
-    const coef = w[a];
-    if (coef === 0) continue;
-    const col = problem.gram.column(ws.features[a]);
-    for (let b = 0; b < k; b++) g[b] -= col[ws.features[b]] * coef;
+  for (let b = 0; b < k; b++) g[b] = problem.c[features[b]];
+  const nonzero: number[] = [];
+  for (const a of active) if (w[a] !== 0) nonzero.push(a);
+  // Four support columns per pass over g (as bindGram's multiply).
+  let t = 0;
+  for (; t + 4 <= nonzero.length; t += 4) {
+    const a0 = nonzero[t], a1 = nonzero[t + 1], a2 = nonzero[t + 2], a3 = nonzero[t + 3];
+    const c0 = w[a0], c1 = w[a1], c2 = w[a2], c3 = w[a3];
+    const col0 = problem.gram.column(features[a0]), col1 = problem.gram.column(features[a1]);
+    const col2 = problem.gram.column(features[a2]), col3 = problem.gram.column(features[a3]);
+    for (let b = 0; b < k; b++) {
+      const f = features[b];
+      g[b] -= col0[f] * c0 + col1[f] * c1 + col2[f] * c2 + col3[f] * c3;
+    }
+  }
+  for (; t < nonzero.length; t++) {
+    const coef = w[nonzero[t]];
+    const col = problem.gram.column(features[nonzero[t]]);
+    for (let b = 0; b < k; b++) g[b] -= col[features[b]] * coef;
   }
   return g;
 }
