@@ -255,7 +255,7 @@ const REFINE_BELOW = 1e-6;
  */
 function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: SupportProblem, out: Float64Array, memory: SupportMemory): boolean {
   const { ws, active, sign, l1, l2 } = support;
-  memory.system ??= form === 'gram' ? new SupportSystem((f, g) => problem.gram.column(f)[g]) : new SupportSystem(columnProduct(problem), columnProducts(problem));
+  memory.system ??= form === 'gram' ? new SupportSystem((f, g) => problem.gram.column(f)[g], gramEntries(problem)) : new SupportSystem(columnProduct(problem), columnProducts(problem));
   const m = active.length;
   // Typed arrays: one object shape whatever the support (arrays from map() differ in shape when
   // empty, which cost the optimized polish a deoptimization).
@@ -275,6 +275,14 @@ function solveOnSupport(problem: Problem, form: 'design' | 'gram', support: Supp
   out.fill(0, 0, ws.k);
   for (let q = 0; q < m; q++) out[active[q]] = solution[q];
   return true;
+}
+
+/** Gram form: a column's entries against several others, read from its Gram column fetched once. */
+function gramEntries(problem: Problem): GramEntries {
+  return (f, others, count, out) => {
+    const column = problem.gram.column(f);
+    for (let t = 0; t < count; t++) out[t] = column[others[t]];
+  };
 }
 
 /** Design form: the dot product of two columns over n (the same sum order as a Gram entry). */
