@@ -1,4 +1,5 @@
 import { EngineInputError, type CrossProducts, type DesignMatrix } from '../types';
+import { dotBlock3 } from './dotBlock';
 import type { GramCache } from './gram';
 
 /**
@@ -74,83 +75,31 @@ function overrideMoments(out: CrossProducts, design: DesignMatrix, y: Float64Arr
   }
 }
 
-/**
- * Columns per panel of accumulateSymmetric: it fills acc[j][k] for k >= the start of j's panel.
- * A 3 x 3 block of dot products per pass over the rows (9 sums from 6 loads per row) measured 7%
- * faster than 4 x 2 (8 from 6) and 4 x 4 (16 from 8, which spills registers) on this machine's
- * chunk shape (326 rows x 201 columns); any blocking gives the same bits (below).
- */
+/** Columns per panel of accumulateSymmetric: the width of dotBlock3's blocks. */
 const PANEL = 3;
 
 /**
  * acc[j][k] += sum_i b[j][i] b[k][i] over the m rows of the column-major chunk b (q columns), for
- * k >= the start of j's panel of PANEL (mirrorUpper fills the rest). Register blocking: a 3 x 3
- * block of sums per pass over the rows. Every entry is one left-to-right sum over the chunk's rows,
- * whatever the blocking, and x_j x_k = x_k x_j exactly, so the result is symmetric.
+ * k >= the start of j's panel of PANEL (mirrorUpper fills the rest), a 3 x 3 block at a time
+ * (dotBlock3; at the last panel and column a missing column repeats the first one, its sums
+ * dropped). Every entry is one left-to-right sum over the chunk's rows, whatever the blocking, and
+ * x_j x_k = x_k x_j exactly, so the result is symmetric.
  */
 function accumulateSymmetric(b: Float64Array, m: number, q: number, acc: Float64Array): void {
-  let j0 = 0;
-  for (; j0 + PANEL <= q; j0 += PANEL) {
+  const block = new Float64Array(9);
+  for (let j0 = 0; j0 < q; j0 += PANEL) {
+    const rows = Math.min(PANEL, q - j0);
     const a0 = j0 * m;
-    const a1 = a0 + m;
-    const a2 = a1 + m;
-    const r0 = j0 * q;
-    const r1 = r0 + q;
-    const r2 = r1 + q;
-    let k = j0;
-    for (; k + 3 <= q; k += 3) {
+    const a1 = rows > 1 ? a0 + m : a0;
+    const a2 = rows > 2 ? a0 + 2 * m : a0;
+    for (let k = j0; k < q; k += PANEL) {
+      const cols = Math.min(PANEL, q - k);
       const b0 = k * m;
-      const b1 = b0 + m;
-      const b2 = b1 + m;
-      let s00 = 0, s01 = 0, s02 = 0, s10 = 0, s11 = 0, s12 = 0, s20 = 0, s21 = 0, s22 = 0;
-      for (let i = 0; i < m; i++) {
-        const u = b[b0 + i];
-        const v = b[b1 + i];
-        const w = b[b2 + i];
-        const x0 = b[a0 + i];
-        const x1 = b[a1 + i];
-        const x2 = b[a2 + i];
-        s00 += x0 * u;
-        s01 += x0 * v;
-        s02 += x0 * w;
-        s10 += x1 * u;
-        s11 += x1 * v;
-        s12 += x1 * w;
-        s20 += x2 * u;
-        s21 += x2 * v;
-        s22 += x2 * w;
+      dotBlock3(b, a0, a1, a2, b, b0, cols > 1 ? b0 + m : b0, cols > 2 ? b0 + 2 * m : b0, m, block);
+      for (let r = 0; r < rows; r++) {
+        const row = (j0 + r) * q + k;
+        for (let c = 0; c < cols; c++) acc[row + c] += block[3 * r + c];
       }
-      acc[r0 + k] += s00;
-      acc[r0 + k + 1] += s01;
-      acc[r0 + k + 2] += s02;
-      acc[r1 + k] += s10;
-      acc[r1 + k + 1] += s11;
-      acc[r1 + k + 2] += s12;
-      acc[r2 + k] += s20;
-      acc[r2 + k + 1] += s21;
-      acc[r2 + k + 2] += s22;
-    }
-    for (; k < q; k++) {
-      const b0 = k * m;
-      let s0 = 0, s1 = 0, s2 = 0;
-      for (let i = 0; i < m; i++) {
-        const u = b[b0 + i];
-        s0 += b[a0 + i] * u;
-        s1 += b[a1 + i] * u;
-        s2 += b[a2 + i] * u;
-      }
-      acc[r0 + k] += s0;
-      acc[r1 + k] += s1;
-      acc[r2 + k] += s2;
-    }
-  }
-  for (let j = j0; j < q; j++) {
-    const a = j * m;
-    for (let k = j0; k < q; k++) {
-      const b0 = k * m;
-      let s = 0;
-      for (let i = 0; i < m; i++) s += b[a + i] * b[b0 + i];
-      acc[j * q + k] += s;
     }
   }
 }

@@ -1,3 +1,5 @@
+import { dotBlock3 } from './dotBlock';
+
 /**
  * Columns of the Gram matrix G = X'X/n, computed on first use and kept: the gaussian solver on
  * n >> p works on G alone (its iterations cost |W|^2, not n|W|), and the dual projection on the
@@ -27,11 +29,10 @@ export class GramCache {
   }
 
   /**
-   * Computes the missing columns among `wanted`, in panels of four: a 4 x 2 block of dot products per
-   * pass over the rows (register blocking: 8 sums from 6 loads per row), and entries of columns
-   * already known are copied rather than recomputed, so a full build costs about half of p^2 n.
-   * Every entry is the same left-to-right sum over rows whichever kernel computes it, so results do
-   * not depend on the order of requests.
+   * Computes the missing columns among `wanted`, in panels of three: a 3 x 3 block of dot products
+   * at a time (dotBlock3), and entries of columns already known are copied rather than recomputed,
+   * so a full build costs about half of p^2 n. Every entry is the same left-to-right sum over rows
+   * whichever block computes it, so results do not depend on the order of requests.
    */
   ensure(wanted: ArrayLike<number>): void {
     const seen = new Uint8Array(this.p);
@@ -43,7 +44,7 @@ export class GramCache {
         missing.push(j);
       }
     }
-    for (let start = 0; start < missing.length; start += 4) this.panel(missing.slice(start, start + 4));
+    for (let start = 0; start < missing.length; start += 3) this.panel(missing.slice(start, start + 3));
   }
 
   private panel(panel: number[]): void {
@@ -55,51 +56,17 @@ export class GramCache {
       if (known) for (let t = 0; t < panel.length; t++) cols[t][k] = known[panel[t]];
       else todo.push(k);
     }
-    const offsets = panel.map((j) => j * n);
-    let q = 0;
-    if (panel.length === 4) {
-      const [a0, a1, a2, a3] = offsets;
-      const [c0, c1, c2, c3] = cols;
-      for (; q + 1 < todo.length; q += 2) {
-        const k0 = todo[q];
-        const k1 = todo[q + 1];
-        const b0 = k0 * n;
-        const b1 = k1 * n;
-        let s00 = 0, s01 = 0, s10 = 0, s11 = 0, s20 = 0, s21 = 0, s30 = 0, s31 = 0;
-        for (let i = 0; i < n; i++) {
-          const u = x[b0 + i];
-          const v = x[b1 + i];
-          const x0 = x[a0 + i];
-          const x1 = x[a1 + i];
-          const x2 = x[a2 + i];
-          const x3 = x[a3 + i];
-          s00 += x0 * u;
-          s01 += x0 * v;
-          s10 += x1 * u;
-          s11 += x1 * v;
-          s20 += x2 * u;
-          s21 += x2 * v;
-          s30 += x3 * u;
-          s31 += x3 * v;
-        }
-        c0[k0] = s00 / n;
-        c0[k1] = s01 / n;
-        c1[k0] = s10 / n;
-        c1[k1] = s11 / n;
-        c2[k0] = s20 / n;
-        c2[k1] = s21 / n;
-        c3[k0] = s30 / n;
-        c3[k1] = s31 / n;
-      }
-    }
-    for (; q < todo.length; q++) {
-      const b = todo[q] * n;
-      for (let t = 0; t < panel.length; t++) {
-        const a = offsets[t];
-        let s = 0;
-        for (let i = 0; i < n; i++) s += x[a + i] * x[b + i];
-        cols[t][todo[q]] = s / n;
-      }
+    // A panel or a triple of other columns with fewer than three repeats its first column; the
+    // repeated sums are dropped.
+    const a0 = panel[0] * n;
+    const a1 = panel.length > 1 ? panel[1] * n : a0;
+    const a2 = panel.length > 2 ? panel[2] * n : a0;
+    const sums = new Float64Array(9);
+    for (let q = 0; q < todo.length; q += 3) {
+      const count = Math.min(3, todo.length - q);
+      const b0 = todo[q] * n;
+      dotBlock3(x, a0, a1, a2, x, b0, count > 1 ? todo[q + 1] * n : b0, count > 2 ? todo[q + 2] * n : b0, n, sums);
+      for (let t = 0; t < panel.length; t++) for (let c = 0; c < count; c++) cols[t][todo[q + c]] = sums[3 * t + c] / n;
     }
     for (let t = 0; t < panel.length; t++) this.columns[panel[t]] = cols[t];
   }

@@ -1,3 +1,4 @@
+import { dotBlock3 } from './dotBlock';
 import type { KeptHessian } from './newtonScratch';
 
 /**
@@ -30,7 +31,7 @@ export function logisticRows(eta: Float64Array, y: Float64Array, n: number, resi
  * hess (m x m, row-major, m = columns + 1) = [X_A 1]' W [X_A 1] / n, the intercept last, for the
  * columns of `x` starting at `offsets` (column-major, n rows) and the weights w. `weighted` (at
  * least (m - 1) n long) receives w x_q. The slopes' block is summed three weighted columns by three
- * per pass over the rows (9 sums from 6 loads); each entry is a left-to-right sum over rows.
+ * (dotBlock3); each entry is a left-to-right sum over rows.
  */
 export function weightedGram(
   x: Float64Array,
@@ -56,10 +57,10 @@ export function weightedGram(
     hess[q * m + last] = h0 / n;
     hess[last * m + q] = h0 / n;
   }
-  // Entry (q, r), r <= q, is weighted_q'x_r: three weighted columns against three columns per pass
-  // over the rows (9 sums from 6 loads; 3 x 3 measured faster than 4 x 2 here, as in
-  // crossProducts.ts). Sums with r > q (in the diagonal blocks) are computed and dropped, so every
-  // kept entry is the same left-to-right sum as one computed alone.
+  // Entry (q, r), r <= q, is weighted_q'x_r: three weighted columns against three columns at a time
+  // (dotBlock3). Sums with r > q (in the diagonal blocks) are computed and dropped, so every kept
+  // entry is the same left-to-right sum as one computed alone.
+  const sums = new Float64Array(9);
   for (let q = 0; q < last; q += 3) {
     const rows = Math.min(3, last - q);
     const a0 = q * n;
@@ -68,29 +69,8 @@ export function weightedGram(
     const top = q + rows - 1;
     for (let r = 0; r <= top; r += 3) {
       const b0 = offsets[r];
-      const b1 = r + 1 < last ? offsets[r + 1] : b0;
-      const b2 = r + 2 < last ? offsets[r + 2] : b0;
-      let s00 = 0, s01 = 0, s02 = 0, s10 = 0, s11 = 0, s12 = 0, s20 = 0, s21 = 0, s22 = 0;
-      for (let i = 0; i < n; i++) {
-        const v0 = x[b0 + i];
-        const v1 = x[b1 + i];
-        const v2 = x[b2 + i];
-        const u0 = weighted[a0 + i];
-        const u1 = weighted[a1 + i];
-        const u2 = weighted[a2 + i];
-        s00 += u0 * v0;
-        s01 += u0 * v1;
-        s02 += u0 * v2;
-        s10 += u1 * v0;
-        s11 += u1 * v1;
-        s12 += u1 * v2;
-        s20 += u2 * v0;
-        s21 += u2 * v1;
-        s22 += u2 * v2;
-      }
-      keep(hess, m, n, last, q, r, s00, s01, s02);
-      if (rows > 1) keep(hess, m, n, last, q + 1, r, s10, s11, s12);
-      if (rows > 2) keep(hess, m, n, last, q + 2, r, s20, s21, s22);
+      dotBlock3(weighted, a0, a1, a2, x, b0, r + 1 < last ? offsets[r + 1] : b0, r + 2 < last ? offsets[r + 2] : b0, n, sums);
+      for (let t = 0; t < rows; t++) keep(hess, m, n, last, q + t, r, sums[3 * t], sums[3 * t + 1], sums[3 * t + 2]);
     }
   }
   hess[last * m + last] = sumW / n;
